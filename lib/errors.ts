@@ -1,0 +1,64 @@
+/**
+ * One error vocabulary across the wire: a code like `not_found:part`, a message a person can act
+ * on, and the HTTP status derived from the code's kind.
+ */
+export type ErrorKind =
+  | "bad_request"
+  | "unauthorized"
+  | "forbidden"
+  | "not_found"
+  | "conflict"
+  | "too_large"
+  | "unsupported"
+  | "rate_limited"
+  | "quota"
+  | "unavailable";
+
+const STATUS: Record<ErrorKind, number> = {
+  bad_request: 400,
+  unauthorized: 401,
+  forbidden: 403,
+  not_found: 404,
+  conflict: 409,
+  too_large: 413,
+  unsupported: 415,
+  rate_limited: 429,
+  quota: 403,
+  unavailable: 503,
+};
+
+export type ErrorCode = `${ErrorKind}:${string}`;
+
+export interface ErrorBody {
+  code: ErrorCode;
+  message: string;
+  field?: string;
+  details?: unknown;
+}
+
+export class AppError extends Error {
+  constructor(
+    readonly code: ErrorCode,
+    message: string,
+    readonly extra: { field?: string; details?: unknown; headers?: Record<string, string> } = {},
+  ) {
+    super(message);
+    this.name = "AppError";
+  }
+
+  get status(): number {
+    return STATUS[this.code.split(":")[0] as ErrorKind] ?? 400;
+  }
+
+  toBody(): ErrorBody {
+    return { code: this.code, message: this.message, field: this.extra.field, details: this.extra.details };
+  }
+
+  toResponse(): Response {
+    return Response.json(this.toBody(), { status: this.status, headers: this.extra.headers });
+  }
+}
+
+export function statusForCode(code: string): number {
+  return STATUS[code.split(":")[0] as ErrorKind] ?? 400;
+}

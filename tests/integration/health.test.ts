@@ -1,0 +1,15 @@
+import { describe, expect, it } from "vitest";
+import { APP_URL } from "../helpers/env";
+
+describe("GET /api/health", () => {
+  it("reports the database reachable and migrated, and the mail server up", async () => {
+    const res = await fetch(`${APP_URL}/api/health`);
+    expect(res.status).toBe(200);
+    const body = await res.json();
+    expect(body.status).toBe("ok");
+    expect(body.database.ok).toBe(true);
+    expect(body.database.migration.count).toBeGreaterThanOrEqual(1);
+    expect(body.mail.ok).toBe(true);
+    expect(typeof body.version).toBe("string");
+  });
+});
