@@ -1,0 +1,63 @@
+/**
+ * The analysis result: the JSON shape printed by `npm run analyze`, stored with each part and
+ * served by GET /api/parts/[partId]/analysis (one entry of `parts`).
+ */
+export type Role = "phrase-start" | "peak" | "tension" | "resolution";
+export type Mode = "major" | "minor";
+
+export interface KeyResult {
+  tonic: string; // spelled with # and b: "F#", "Bb"
+  mode: Mode;
+  fifths: number;
+  source: "signature" | "inferred";
+}
+
+export interface LocalKey {
+  tonic: string;
+  mode: Mode;
+  fromMeasure: string; // MusicXML measure number
+  toMeasure: string;
+}
+
+export interface AnalyzedNote {
+  key: string;
+  measure: string;
+  pitch: string;
+  midi: number;
+  onset: string; // "1/4"
+  duration: string;
+  degree: number | null; // 1–7 in the key in force
+}
+
+export interface PhraseResult {
+  start: string;
+  peak: string;
+  end: string;
+}
+
+export interface Suggestion {
+  note: string;
+  measure: string;
+  pitch: string;
+  role: Role;
+  confidence: number;
+  resolvesTo: string | null;
+  reason: string;
+}
+
+export interface PartAnalysis {
+  id: string;
+  name: string;
+  measureCount: number;
+  noteCount: number;
+  key: KeyResult;
+  localKeys: LocalKey[];
+  notes: AnalyzedNote[];
+  phrases: PhraseResult[];
+  suggestions: Suggestion[];
+}
+
+export interface ScoreAnalysis {
+  file: string;
+  parts: PartAnalysis[];
+}
