@@ -77,6 +77,7 @@ CREATE TABLE "marking_history" (
 	"action" "history_action" NOT NULL,
 	"before" jsonb,
 	"after" jsonb,
+	"group_id" uuid NOT NULL,
 	"proposal_id" uuid,
 	"undone_at" timestamp with time zone,
 	"discarded_at" timestamp with time zone,

@@ -79,6 +79,8 @@ export const markingHistory = pgTable(
     action: historyAction("action").notNull(),
     before: jsonb("before"),
     after: jsonb("after"),
+    /** Changes made by one gesture (e.g. applying to a multi-note selection) undo together. */
+    groupId: uuid("group_id").notNull(),
     /** Set when the change came from accepting a teacher's proposal. */
     proposalId: uuid("proposal_id"),
     /** Undo marks a row undone; a new edit after undo discards the undone rows (redo is gone). */
