@@ -50,3 +50,9 @@ export const DEFAULT_MARKING: MarkingValues = {
   role: null,
   comment: "",
 };
+
+export const decisionBodySchema = z.object({
+  noteKey: z.string().min(1).max(200),
+  role: z.enum(ROLES),
+  decision: z.enum(["accepted", "dismissed"]),
+});

@@ -1,0 +1,14 @@
+import { handle, parseParams } from "@/lib/http/handler";
+import { requireUser } from "@/lib/auth/session";
+import { partIdParams } from "@/lib/parts/schemas";
+import { chosenPartAnalysis, loadPart } from "@/lib/server/parts";
+
+export const dynamic = "force-dynamic";
+
+/** The chosen part's analysis, in the same shape as one part of the command line's output. */
+export const GET = handle(async (_request, { params }) => {
+  const { partId } = await parseParams(params, partIdParams);
+  const user = await requireUser();
+  const { part } = await loadPart(user, partId, "part:view");
+  return Response.json(await chosenPartAnalysis(part));
+});

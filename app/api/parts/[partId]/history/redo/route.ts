@@ -1,0 +1,16 @@
+import { handle, parseParams } from "@/lib/http/handler";
+import { requireUser } from "@/lib/auth/session";
+import { partIdParams } from "@/lib/parts/schemas";
+import { loadPart } from "@/lib/server/parts";
+import { historyStateByPartId, redoLatest } from "@/db/markings";
+
+export const dynamic = "force-dynamic";
+
+export const POST = handle(async (_request, { params }) => {
+  const { partId } = await parseParams(params, partIdParams);
+  const user = await requireUser();
+  await loadPart(user, partId, "marking:write");
+  const changes = await redoLatest({ partId, actorId: user.id });
+  const { canUndo, canRedo } = await historyStateByPartId({ partId, limit: 1 });
+  return Response.json({ changes, canUndo, canRedo });
+});

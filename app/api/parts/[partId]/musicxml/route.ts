@@ -1,0 +1,17 @@
+import { handle, parseParams } from "@/lib/http/handler";
+import { requireUser } from "@/lib/auth/session";
+import { selectPartsXml } from "@/lib/musicxml";
+import { partIdParams } from "@/lib/parts/schemas";
+import { loadPart } from "@/lib/server/parts";
+
+export const dynamic = "force-dynamic";
+
+/** The normalized partwise text of the chosen part: the only MusicXML the browser receives. */
+export const GET = handle(async (_request, { params }) => {
+  const { partId } = await parseParams(params, partIdParams);
+  const user = await requireUser();
+  const { part } = await loadPart(user, partId, "part:view");
+  return new Response(selectPartsXml(part.musicxml, [part.chosenPartId]), {
+    headers: { "content-type": "application/vnd.recordare.musicxml+xml; charset=utf-8", "cache-control": "private, no-store" },
+  });
+});

@@ -1,0 +1,26 @@
+import { handle, parseQuery } from "@/lib/http/handler";
+import { receiveFile } from "@/lib/http/multipart";
+import { requireUser } from "@/lib/auth/session";
+import { config } from "@/lib/config";
+import { listPartsQuery } from "@/lib/parts/schemas";
+import { createPartFromFile } from "@/lib/server/parts";
+import { listPartsForViewer } from "@/db/parts";
+
+export const dynamic = "force-dynamic";
+
+export const GET = handle(async (request) => {
+  const q = parseQuery(request, listPartsQuery);
+  const user = await requireUser();
+  const result = await listPartsForViewer({ viewerId: user.id, ...q });
+  return Response.json({ ...result, page: q.page, pageSize: q.pageSize });
+});
+
+export const POST = handle(async (request) => {
+  const user = await requireUser();
+  const { fileName, bytes } = await receiveFile(request, { field: "file", maxBytes: config().UPLOAD_MAX_BYTES });
+  const part = await createPartFromFile(user, fileName, bytes);
+  return Response.json(
+    { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId },
+    { status: 201 },
+  );
+});

@@ -1,0 +1,212 @@
+import "server-only";
+import { and, asc, desc, eq, ilike, isNotNull, isNull, or, sql, type SQL } from "drizzle-orm";
+import { AppError } from "@/lib/errors";
+import type { AnyPgColumn } from "drizzle-orm/pg-core";
+import { db } from "./client";
+import { markings, parts, shares, users, type NewPart, type Part } from "./schema";
+
+export type PartPermission = "owner" | "comment" | "propose";
+
+export interface PartAccess {
+  part: Part;
+  permission: PartPermission;
+}
+
+/** Columns for lists: everything but the stored file and text, which can be megabytes. */
+const partSummaryColumns = {
+  id: parts.id,
+  ownerId: parts.ownerId,
+  title: parts.title,
+  composer: parts.composer,
+  keyLabel: parts.keyLabel,
+  tempo: parts.tempo,
+  measureCount: parts.measureCount,
+  noteCount: parts.noteCount,
+  sourceFileName: parts.sourceFileName,
+  sourceFormat: parts.sourceFormat,
+  sizeBytes: parts.sizeBytes,
+  partList: parts.partList,
+  chosenPartId: parts.chosenPartId,
+  version: parts.version,
+  updatedAt: parts.updatedAt,
+  createdAt: parts.createdAt,
+};
+
+/**
+ * The part and the viewer's permission on it, or null when the viewer may not see it
+ * (owner, or an accepted, unrevoked share). Checked on every request: shares end at once.
+ */
+export async function getPartAccessById({ partId, viewerId }: { partId: string; viewerId: string }): Promise<PartAccess | null> {
+  const [row] = await db()
+    .select({ part: parts, permission: shares.permission })
+    .from(parts)
+    .leftJoin(
+      shares,
+      and(eq(shares.partId, parts.id), eq(shares.userId, viewerId), isNotNull(shares.acceptedAt), isNull(shares.revokedAt)),
+    )
+    .where(eq(parts.id, partId))
+    .limit(1);
+  if (!row) return null;
+  if (row.part.ownerId === viewerId) return { part: row.part, permission: "owner" };
+  if (row.permission) return { part: row.part, permission: row.permission };
+  return null;
+}
+
+export async function getPartOwnerById({ partId }: { partId: string }): Promise<{ id: string; ownerId: string } | null> {
+  const [row] = await db().select({ id: parts.id, ownerId: parts.ownerId }).from(parts).where(eq(parts.id, partId));
+  return row ?? null;
+}
+
+export interface Quota {
+  maxParts: number;
+  maxBytes: number;
+}
+
+/**
+ * Stores a new part. The owner's row is locked for the transaction so two uploads at once
+ * cannot both slip under the quota.
+ */
+export async function insertPart({ values, quota }: { values: NewPart; quota: Quota }): Promise<Part> {
+  return db().transaction(async (tx) => {
+    await tx.execute(sql`select id from ${users} where ${users.id} = ${values.ownerId} for update`);
+    const [usage] = await tx
+      .select({ count: sql<number>`count(*)::int`, bytes: sql<number>`coalesce(sum(${parts.sizeBytes}), 0)::bigint` })
+      .from(parts)
+      .where(eq(parts.ownerId, values.ownerId));
+    if (usage.count >= quota.maxParts) {
+      throw new AppError("quota:parts", `You have reached the limit of ${quota.maxParts} parts. Delete parts you no longer need to upload more.`);
+    }
+    if (Number(usage.bytes) + values.sizeBytes > quota.maxBytes) {
+      const mb = (quota.maxBytes / 1024 / 1024).toFixed(0);
+      throw new AppError("quota:bytes", `This upload would take your files past the ${mb} MB you can store. Delete parts you no longer need to make room.`);
+    }
+    const [row] = await tx.insert(parts).values(values).returning();
+    return row;
+  });
+}
+
+export type PartSort = "title" | "-title" | "composer" | "-composer" | "key" | "-key" | "bars" | "-bars" | "markings" | "-markings" | "updated" | "-updated";
+
+export interface ListedPart {
+  id: string;
+  title: string;
+  composer: string;
+  keyLabel: string;
+  measureCount: number;
+  noteCount: number;
+  markingCount: number;
+  sharedWith: string[];
+  ownerName: string;
+  isOwner: boolean;
+  permission: PartPermission;
+  sourceFileName: string;
+  updatedAt: string;
+}
+
+/** The parts a viewer owns or has been shared, searched, sorted and paged in the database. */
+export async function listPartsForViewer({
+  viewerId,
+  query,
+  sort,
+  page,
+  pageSize,
+}: {
+  viewerId: string;
+  query: string;
+  sort: PartSort;
+  page: number;
+  pageSize: number;
+}): Promise<{ items: ListedPart[]; total: number }> {
+  const markingCount = sql<number>`(select count(*)::int from ${markings} where ${markings.partId} = ${parts.id})`;
+  const sharedWith = sql<string[]>`coalesce((select array_agg(${shares.email} order by ${shares.email}) from ${shares} where ${shares.partId} = ${parts.id} and ${shares.revokedAt} is null), '{}')`;
+  const viewerShare = sql<string | null>`(select ${shares.permission}::text from ${shares} where ${shares.partId} = ${parts.id} and ${shares.userId} = ${viewerId} and ${shares.acceptedAt} is not null and ${shares.revokedAt} is null limit 1)`;
+
+  const visible = or(eq(parts.ownerId, viewerId), sql`${viewerShare} is not null`);
+  const q = query.trim();
+  const pattern = `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+  const where: SQL | undefined = q ? and(visible, or(ilike(parts.title, pattern), ilike(parts.composer, pattern))) : visible;
+
+  const sortColumns: Record<string, SQL | AnyPgColumn> = {
+    title: sql`lower(${parts.title})`,
+    composer: sql`lower(${parts.composer})`,
+    key: parts.keyLabel,
+    bars: parts.measureCount,
+    markings: markingCount,
+    updated: parts.updatedAt,
+  };
+  const descending = sort.startsWith("-");
+  const column = sortColumns[sort.replace(/^-/, "")] ?? parts.updatedAt;
+  const order = descending ? desc(column) : asc(column);
+
+  const [rows, [{ total }]] = await Promise.all([
+    db()
+      .select({
+        ...partSummaryColumns,
+        ownerName: users.name,
+        markingCount,
+        sharedWith,
+        viewerShare,
+      })
+      .from(parts)
+      .innerJoin(users, eq(users.id, parts.ownerId))
+      .where(where)
+      .orderBy(order, desc(parts.updatedAt), asc(parts.id))
+      .limit(pageSize)
+      .offset((page - 1) * pageSize),
+    db().select({ total: sql<number>`count(*)::int` }).from(parts).where(where),
+  ]);
+
+  return {
+    total,
+    items: rows.map((r) => ({
+      id: r.id,
+      title: r.title,
+      composer: r.composer,
+      keyLabel: r.keyLabel,
+      measureCount: r.measureCount,
+      noteCount: r.noteCount,
+      markingCount: r.markingCount,
+      sharedWith: r.sharedWith,
+      ownerName: r.ownerName,
+      isOwner: r.ownerId === viewerId,
+      permission: r.ownerId === viewerId ? "owner" : ((r.viewerShare as PartPermission | null) ?? "comment"),
+      sourceFileName: r.sourceFileName,
+      updatedAt: r.updatedAt.toISOString(),
+    })),
+  };
+}
+
+/** Updates title, composer or chosen part; `version` guards against a concurrent edit. */
+export async function updatePartById({
+  partId,
+  changes,
+  expectedVersion,
+}: {
+  partId: string;
+  changes: Partial<Pick<Part, "title" | "composer" | "chosenPartId" | "noteKeys" | "keyLabel" | "tempo" | "measureCount" | "noteCount">>;
+  expectedVersion?: number;
+}): Promise<Part> {
+  const where = expectedVersion === undefined ? eq(parts.id, partId) : and(eq(parts.id, partId), eq(parts.version, expectedVersion));
+  const [row] = await db()
+    .update(parts)
+    .set({ ...changes, version: sql`${parts.version} + 1`, updatedAt: new Date() })
+    .where(where)
+    .returning();
+  if (!row) {
+    throw new AppError("conflict:part", "This part was changed in another window. Reload to see the latest version, then try again.");
+  }
+  return row;
+}
+
+export async function storeAnalysisById({ partId, analysis, analysisVersion }: { partId: string; analysis: unknown; analysisVersion: number }) {
+  await db().update(parts).set({ analysis, analysisVersion }).where(eq(parts.id, partId));
+}
+
+/** Deleting a part removes its markings, history, comments, proposals and invitations (cascade). */
+export async function deletePartById({ partId }: { partId: string }): Promise<void> {
+  await db().delete(parts).where(eq(parts.id, partId));
+}
+
+export async function touchPartById({ partId }: { partId: string }): Promise<void> {
+  await db().update(parts).set({ updatedAt: new Date() }).where(eq(parts.id, partId));
+}

@@ -1,0 +1,99 @@
+import "server-only";
+import { analyzeScore, ANALYSIS_VERSION } from "@/lib/analysis";
+import type { PartAnalysis, ScoreAnalysis } from "@/lib/analysis/types";
+import { assertCan, type Action } from "@/lib/auth/policy";
+import type { CurrentUser } from "@/lib/auth/session";
+import { config } from "@/lib/config";
+import { AppError } from "@/lib/errors";
+import { readScoreFile } from "@/lib/musicxml";
+import { ingestScore } from "@/lib/parts/ingest";
+import { getPartAccessById, insertPart, storeAnalysisById, type PartAccess } from "@/db/parts";
+import type { Part } from "@/db/schema";
+
+export function readLimits() {
+  const c = config();
+  return {
+    maxFileBytes: c.UPLOAD_MAX_BYTES,
+    maxUncompressedBytes: c.MXL_MAX_UNCOMPRESSED_BYTES,
+    maxZipEntries: c.MXL_MAX_ENTRIES,
+    maxNotes: c.MAX_NOTES,
+    maxDepth: c.MAX_XML_DEPTH,
+  };
+}
+
+/**
+ * Loads a part for the viewer and checks the action through the policy. A part the viewer may
+ * not see answers 404 exactly like a part that does not exist.
+ */
+export async function loadPart(user: CurrentUser, partId: string, action: Action): Promise<PartAccess> {
+  const access = await getPartAccessById({ partId, viewerId: user.id });
+  if (!access) throw new AppError("not_found:part", "This part does not exist, or it has not been shared with you.");
+  assertCan(user, action, {
+    type: "part",
+    part: { id: access.part.id, ownerId: access.part.ownerId },
+    share: access.permission === "owner" ? null : { permission: access.permission },
+  });
+  return access;
+}
+
+export async function createPartFromFile(user: CurrentUser, fileName: string, bytes: Uint8Array): Promise<Part> {
+  const ingested = ingestScore(bytes, fileName, readLimits());
+  const c = config();
+  return insertPart({
+    quota: { maxParts: c.QUOTA_PARTS, maxBytes: c.QUOTA_BYTES },
+    values: {
+      ownerId: user.id,
+      title: ingested.title,
+      composer: ingested.composer,
+      sourceFileName: fileName.slice(0, 255),
+      sourceFormat: ingested.format,
+      sourceBytes: Buffer.from(bytes),
+      sizeBytes: bytes.byteLength,
+      musicxml: ingested.partwiseXml,
+      partList: ingested.partList,
+      chosenPartId: ingested.chosenPartId,
+      analysis: ingested.analysis,
+      analysisVersion: ingested.analysisVersion,
+      ...ingested.summary,
+    },
+  });
+}
+
+/** The stored analysis, recomputed (and stored again) when the analysis version has changed. */
+export async function analysisOf(part: Part): Promise<ScoreAnalysis> {
+  if (part.analysis && part.analysisVersion === ANALYSIS_VERSION) return part.analysis as ScoreAnalysis;
+  const { score } = readScoreFile(new TextEncoder().encode(part.musicxml), part.sourceFileName.replace(/\.mxl$/i, ".musicxml"), readLimits());
+  const analysis = analyzeScore(score, part.sourceFileName);
+  await storeAnalysisById({ partId: part.id, analysis, analysisVersion: ANALYSIS_VERSION });
+  return analysis;
+}
+
+export async function chosenPartAnalysis(part: Part): Promise<PartAnalysis> {
+  const analysis = await analysisOf(part);
+  const result = analysis.parts.find((p) => p.id === part.chosenPartId);
+  if (!result) throw new AppError("not_found:analysis", "The analysis of this part is missing. Upload the file again.");
+  return result;
+}
+
+export function partDto(access: PartAccess) {
+  const p = access.part;
+  return {
+    id: p.id,
+    title: p.title,
+    composer: p.composer,
+    keyLabel: p.keyLabel,
+    tempo: p.tempo,
+    chosenPartId: p.chosenPartId,
+    parts: p.partList,
+    measureCount: p.measureCount,
+    noteCount: p.noteCount,
+    sourceFileName: p.sourceFileName,
+    sourceFormat: p.sourceFormat,
+    version: p.version,
+    createdAt: p.createdAt.toISOString(),
+    updatedAt: p.updatedAt.toISOString(),
+    permission: access.permission,
+    url: `/parts/${p.id}`,
+  };
+}
+export type PartDto = ReturnType<typeof partDto>;
