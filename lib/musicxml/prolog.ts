@@ -6,19 +6,26 @@ import { fail } from "./errors";
  * A DOCTYPE that only names an external DTD (the public MusicXML one) is accepted and never read.
  */
 export function checkProlog(text: string): void {
-  if (text.indexOf("<!ENTITY") >= 0) throw fail.entity("entity");
   const d = text.indexOf("<!DOCTYPE");
-  if (d < 0) return;
-  let quote = "";
-  for (let i = d + 9; i < text.length; i++) {
-    const c = text[i];
-    if (quote) {
-      if (c === quote) quote = "";
-    } else if (c === '"' || c === "'") quote = c;
-    else if (c === "[") throw fail.entity("subset");
-    else if (c === "%") throw fail.entity("parameter");
-    else if (c === ">") return;
+  if (d >= 0) {
+    let quote = "";
+    for (let i = d + 9; i < text.length; i++) {
+      const c = text[i];
+      if (quote) {
+        if (c === quote) quote = "";
+      } else if (c === '"' || c === "'") quote = c;
+      else if (c === "[") {
+        // Name the most dangerous thing the subset holds, so the message says what was refused.
+        const end = text.indexOf("]", i);
+        const subset = text.slice(i, end < 0 ? text.length : end);
+        if (/%[A-Za-z_:]/.test(subset)) throw fail.entity("parameter");
+        if (subset.includes("<!ENTITY")) throw fail.entity("entity");
+        throw fail.entity("subset");
+      } else if (c === "%") throw fail.entity("parameter");
+      else if (c === ">") break;
+    }
   }
+  if (text.indexOf("<!ENTITY") >= 0) throw fail.entity("entity");
 }
 
 /** The first meaningful character must open markup; says what the file looks like otherwise. */

@@ -12,6 +12,14 @@ import { buildTimeline, type TempoEvent } from "./timeline";
  * the same time. No generic object tree is built (the performance goal is within 3× of a bare
  * tokenizer pass), so every element we care about is handled on its open or close event with the
  * few pieces of context it needs.
+ *
+ * The normalized text is assembled from the source text of each header element and each measure,
+ * exactly as the strict parser accepted it (XML 1.0, no DTD, only XML's own five entities and
+ * character references), under a root and part elements written here. Rebuilding every element
+ * instead cost 2–3× the whole parse in garbage collection (millions of small strings), and gains
+ * nothing: the browser parses the very bytes saxes validated. The DOCTYPE, the XML declaration and
+ * anything between top-level elements (comments, processing instructions) are dropped; timewise
+ * measures are regrouped by part.
  */
 
 /** A measure may hold up to this multiple of its time signature before its durations count as damaged. */
@@ -56,17 +64,16 @@ interface PartState {
   openTies: Note[];
   pendingDynamics: string | null;
   lastSounding: Note | null;
-  out: string;
+  /** Source slices of this part's measures (see the note on serialization below). */
+  out: string[];
 }
 
 function newMarks(): PhraseMarks {
   return { fermata: false, breathMark: false, caesura: false, slurStarts: [], slurStops: [], dynamics: null };
 }
 
-const ESC_TEXT = /[&<>]/;
 const ESC_ATTR = /[&<>"\n\r\t]/;
 const ENT: Record<string, string> = { "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "\n": "&#10;", "\r": "&#13;", "\t": "&#9;" };
-const escText = (s: string) => (ESC_TEXT.test(s) ? s.replace(/[&<>]/g, (c) => ENT[c]) : s);
 const escAttr = (s: string) => (ESC_ATTR.test(s) ? s.replace(/[&<>"\n\r\t]/g, (c) => ENT[c]) : s);
 
 function attrString(attrs: Record<string, string>): string {
@@ -74,8 +81,6 @@ function attrString(attrs: Record<string, string>): string {
   for (const k in attrs) s += ` ${k}="${escAttr(attrs[k])}"`;
   return s;
 }
-
-const isBlank = (s: string) => /^\s*$/.test(s);
 
 /** Whole-note length of a metronome beat unit (MusicXML note-type-value). */
 const BEAT_UNIT: Record<string, Fraction> = {
@@ -133,18 +138,17 @@ export interface ReadResult {
   partwiseXml: string;
 }
 
-export function readMusicXmlText(text: string, limits: ReadLimits): ReadResult {
-  checkLooksLikeXml(text);
-  checkProlog(text);
+export function readMusicXmlText(source: string, limits: ReadLimits): ReadResult {
+  checkLooksLikeXml(source);
+  checkProlog(source);
 
   let layout: "partwise" | "timewise" | null = null;
   let rootAttrs = "";
-  let head = "";
+  const head: string[] = [];
   const names: string[] = [];
   let depth = 0;
   let pending = "";
-  let tagOpen = false;
-  let sink: "head" | "part" | "none" = "none";
+  let sliceStart = 0;
   let noteCount = 0;
 
   let title = "";
@@ -181,11 +185,6 @@ export function readMusicXmlText(text: string, limits: ReadLimits): ReadResult {
   let barRepeat = "";
   let barFermata = false;
 
-  const write = (s: string) => {
-    if (sink === "part") part!.out += s;
-    else if (sink === "head") head += s;
-  };
-
   function partState(id: string): PartState {
     let p = parts.get(id);
     if (!p) {
@@ -207,7 +206,7 @@ export function readMusicXmlText(text: string, limits: ReadLimits): ReadResult {
         openTies: [],
         pendingDynamics: null,
         lastSounding: null,
-        out: "",
+        out: [],
       };
       parts.set(id, p);
     }
@@ -361,7 +360,8 @@ export function readMusicXmlText(text: string, limits: ReadLimits): ReadResult {
     return metPerMinute * ((unit.num * 4) / unit.den);
   }
 
-  const parser = new SaxesParser({ position: false, xmlns: false });
+  // XML 1.0 forced: the browser parses the output as XML 1.0, so both must accept the same text.
+  const parser = new SaxesParser({ position: false, xmlns: false, defaultXMLVersion: "1.0", forceXMLVersion: true });
 
   parser.on("opentag", (tag) => {
     const name = tag.name;
@@ -371,40 +371,24 @@ export function readMusicXmlText(text: string, limits: ReadLimits): ReadResult {
     names[depth] = name;
     const parent = names[depth - 1];
 
-    // Serialization: children of a written element close its start tag first.
-    let written = true;
     if (depth === 1) {
       if (name === "score-partwise") layout = "partwise";
       else if (name === "score-timewise") layout = "timewise";
       else throw fail.wrongRoot(name);
       rootAttrs = attrString(attrs);
-      written = false;
     } else if (depth === 2) {
-      if (layout === "partwise" && name === "part") {
-        part = partState(attrs.id ?? "");
-        sink = "part";
-        written = false;
-      } else if (layout === "timewise" && name === "measure") {
-        timewiseMeasureAttrs = attrs;
-        sink = "none";
-        written = false;
-      } else sink = "head";
-    } else if (depth === 3 && layout === "timewise" && parent === "measure" && name === "part") {
+      if (layout === "partwise" && name === "part") part = partState(attrs.id ?? "");
+      else if (layout === "timewise" && name === "measure") timewiseMeasureAttrs = attrs;
+      else sliceStart = source.lastIndexOf("<", parser.position - 1);
+    } else if (depth === 3 && part && layout === "partwise") {
+      sliceStart = source.lastIndexOf("<", parser.position - 1);
+    } else if (depth === 3 && layout === "timewise" && name === "part") {
       part = partState(attrs.id ?? "");
-      sink = "part";
-      written = false;
-      part.out += `<measure${attrString(timewiseMeasureAttrs)}>`;
+      part.out.push(`<measure${attrString(timewiseMeasureAttrs)}>`);
+      sliceStart = tag.isSelfClosing ? -1 : parser.position;
       startMeasure(part, timewiseMeasureAttrs);
     }
-    if (tagOpen) {
-      write(isBlank(pending) ? ">" : `>${escText(pending)}`);
-      tagOpen = false;
-    }
     pending = "";
-    if (written) {
-      write(`<${name}${attrString(attrs)}`);
-      tagOpen = true;
-    }
 
     if (depth === 3 && layout === "partwise" && name === "measure" && part) {
       startMeasure(part, attrs);
@@ -536,35 +520,25 @@ export function readMusicXmlText(text: string, limits: ReadLimits): ReadResult {
     const text = pending;
     const parent = names[depth - 1];
 
-    // Serialization first, so every return below leaves the output consistent.
-    const suppressed =
-      depth === 1 ||
-      (depth === 2 && ((layout === "partwise" && name === "part") || (layout === "timewise" && name === "measure"))) ||
-      (depth === 3 && layout === "timewise" && parent === "measure" && name === "part");
-    if (!suppressed) {
-      if (tagOpen) write(text === "" ? "/>" : `>${escText(text)}</${name}>`);
-      else write(isBlank(text) ? `</${name}>` : `${escText(text)}</${name}>`);
-      if (name === "measure") write("\n");
-    }
-    tagOpen = false;
     pending = "";
     depth--;
-
-    if (suppressed) {
-      if (depth === 2 && part) {
-        // timewise </part>: the measure of this part ends here
-        part.out += "</measure>\n";
-        endMeasure(part);
-        part = null;
-        sink = "none";
-      } else if (depth === 1 && part) {
-        part = null;
-        sink = "none";
-      }
+    if (depth === 1) {
+      // A child of the root closes: a header element, a partwise part, or a timewise measure.
+      if (layout === "partwise" && name === "part") part = null;
+      else if (layout !== "timewise" || name !== "measure") head.push(source.slice(sliceStart, parser.position));
       return;
     }
-    if (name === "measure" && layout === "partwise" && depth === 2 && part) {
-      endMeasure(part);
+    if (depth === 2 && part) {
+      if (layout === "partwise") {
+        if (name === "measure") endMeasure(part);
+        part.out.push(source.slice(sliceStart, parser.position), "\n");
+      } else if (name === "part") {
+        const end = source.lastIndexOf("<", parser.position - 1);
+        if (sliceStart >= 0) part.out.push(source.slice(sliceStart, end));
+        part.out.push("</measure>\n");
+        endMeasure(part);
+        part = null;
+      }
       return;
     }
 
@@ -732,15 +706,15 @@ export function readMusicXmlText(text: string, limits: ReadLimits): ReadResult {
   });
 
   try {
-    parser.write(text);
+    parser.write(source);
   } catch (err) {
-    throw translate(err, text, false);
+    throw translate(err, source, false);
   }
   try {
     parser.close();
   } catch (err) {
     if (!layout && !(err instanceof MusicXmlError)) throw fail.notXml("it has no root element");
-    throw translate(err, text, true);
+    throw translate(err, source, true);
   }
   if (!layout) throw fail.notXml("it has no root element");
 
@@ -765,13 +739,13 @@ export function readMusicXmlText(text: string, limits: ReadLimits): ReadResult {
     return { id: p.id, name: partNames.get(p.id) ?? p.id, measures: p.measures, notes: p.notes };
   });
 
-  let xml = `<?xml version="1.0" encoding="UTF-8"?>\n<score-partwise${rootAttrs}>${head}\n`;
-  for (const p of states) xml += `<part id="${escAttr(p.id)}">\n${p.out}</part>\n`;
-  xml += "</score-partwise>\n";
+  const xml = [`<?xml version="1.0" encoding="UTF-8"?>\n<score-partwise${rootAttrs}>\n`, ...head.map((h) => `${h}\n`)];
+  for (const p of states) xml.push(`<part id="${escAttr(p.id)}">\n`, ...p.out, "</part>\n");
+  xml.push("</score-partwise>\n");
 
   return {
     score: { title: title || movementTitle, composer, parts: models, remarks: [...remarks] },
-    partwiseXml: xml,
+    partwiseXml: xml.join(""),
   };
 }
 
