@@ -27,6 +27,8 @@ const OVERFLOW_FACTOR = 2;
 /** Largest `divisions` accepted: far above real files (which stay under ~100 000), far below overflow. */
 const MAX_DIVISIONS = 1_000_000;
 const DEFAULT_TEMPO = 120;
+/** Depth of a measure's children in both layouts: root > part > measure > x, root > measure > part > x. */
+const CONTENT_DEPTH = 4;
 
 interface CurrentNote {
   grace: boolean;
@@ -397,6 +399,8 @@ export function readMusicXmlText(source: string, limits: ReadLimits): ReadResult
 
     switch (name) {
       case "note":
+        // Only a note of the measure itself; an unknown element may hold a look-alike.
+        if (depth !== CONTENT_DEPTH || !part?.measure) break;
         if (++noteCount > limits.maxNotes) throw fail.tooManyNotes(limits.maxNotes);
         note = {
           grace: false,
@@ -545,6 +549,7 @@ export function readMusicXmlText(source: string, limits: ReadLimits): ReadResult
     const p = part;
     switch (name) {
       case "note":
+        if (depth + 1 !== CONTENT_DEPTH) return;
         if (note && p?.measure) finishNote(p, note);
         note = null;
         return;
@@ -579,7 +584,7 @@ export function readMusicXmlText(source: string, limits: ReadLimits): ReadResult
         return;
       case "backup":
       case "forward":
-        if (p?.measure && moveDuration) {
+        if (p?.measure && moveDuration && depth + 1 === CONTENT_DEPTH) {
           const w = toWholes(moveDuration, p);
           advance(p, name === "backup" ? { num: -w.num, den: w.den } : w);
         }

@@ -4,6 +4,7 @@ import { fail } from "./errors";
 const ESC = /[&<>"\n\r\t]/g;
 const ENT: Record<string, string> = { "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "\n": "&#10;", "\r": "&#13;", "\t": "&#9;" };
 const esc = (s: string) => s.replace(ESC, (c) => ENT[c]);
+const escText = (s: string) => s.replace(/[&<>]/g, (c) => ENT[c]);
 
 /**
  * The normalized partwise text with only the chosen parts, in part-list and body, ids unchanged,
@@ -32,7 +33,7 @@ export function selectPartsXml(partwiseXml: string, partIds: string[]): string {
       }
     }
     if (tagOpen) out += ">";
-    out += esc(pending);
+    out += escText(pending);
     pending = "";
     out += `<${tag.name}`;
     for (const k in attrs) out += ` ${k}="${esc(attrs[k])}"`;
@@ -48,8 +49,8 @@ export function selectPartsXml(partwiseXml: string, partIds: string[]): string {
       return;
     }
     depth--;
-    if (tagOpen) out += pending === "" ? "/>" : `>${esc(pending)}</${tag.name}>`;
-    else out += `${esc(pending)}</${tag.name}>`;
+    if (tagOpen) out += pending === "" ? "/>" : `>${escText(pending)}</${tag.name}>`;
+    else out += `${escText(pending)}</${tag.name}>`;
     tagOpen = false;
     pending = "";
   });
