@@ -103,6 +103,8 @@ describe("policy: accounts and studios", () => {
     ["anonymous accepts", null, "invitation:accept", { type: "invitation", invitation: { email: owner.email }, studio }, 401],
     ["the teacher accepts an invitation to their own studio", teacherNone, "invitation:accept",
       { type: "invitation", invitation: { email: teacherNone.email }, studio }, 403],
+    ["an admin accepts an invitation sent to them", admin, "invitation:accept",
+      { type: "invitation", invitation: { email: admin.email }, studio }, 403],
     ["a player creates a part", owner, "part:create", { type: "site" }, "ok"],
     ["a teacher creates a part", teacherNone, "part:create", { type: "site" }, "ok"],
     ["an admin creates a part", admin, "part:create", { type: "site" }, 403],

@@ -12,6 +12,7 @@ import type { CurrentUser } from "./types";
  * - A resource that is not visible answers 404, never 403, so its existence does not leak.
  * - Sending mail on someone's behalf (studio invitations) needs a confirmed e-mail address, so an
  *   unconfirmed account cannot use Ondula to mail strangers.
+ * - Admins do not join studios (an invitation to an admin's address cannot be accepted).
  * - Admins cannot change their own role or disable themselves (no lock-out by accident).
  */
 
@@ -131,7 +132,8 @@ function allowed(user: CurrentUser, action: Action, resource: Resource): boolean
       return resource.type === "studio" && resource.isMember && resource.studio.teacherId !== user.id;
     case "invitation:accept":
       return (
-        resource.type === "invitation" && sameEmail(resource.invitation.email, user.email) && resource.studio.teacherId !== user.id
+        resource.type === "invitation" && !isAdmin(user) && sameEmail(resource.invitation.email, user.email) &&
+        resource.studio.teacherId !== user.id
       );
     case "part:create":
       // Admins keep to accounts; players and teachers both work on their own parts.
