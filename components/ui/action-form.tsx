@@ -14,11 +14,13 @@ const StateContext = createContext<ActionState>(idleState);
  * submit button and is announced to screen readers.
  */
 export function ActionForm({
-  action, children, submitLabel, className, hidden, variant = "primary", successMessage, inline = false,
+  action, children, submitLabel, submitAriaLabel, className, hidden, variant = "primary", successMessage, inline = false,
 }: {
   action: ServerAction;
   children?: ReactNode;
   submitLabel: string;
+  /** A fuller accessible name when the visible label is short (e.g. "Remove" → "Remove Ines"). */
+  submitAriaLabel?: string;
   className?: string;
   hidden?: Record<string, string>;
   variant?: "primary" | "quiet" | "danger";
@@ -40,7 +42,7 @@ export function ActionForm({
             </p>
           ) : null}
         </div>
-        <SubmitButton label={submitLabel} variant={variant} />
+        <SubmitButton label={submitLabel} ariaLabel={submitAriaLabel} variant={variant} />
       </form>
     </StateContext.Provider>
   );
@@ -52,14 +54,15 @@ const buttonStyles = {
   danger: "border border-danger text-danger bg-paper-card hover:bg-paper-deep",
 };
 
-export function SubmitButton({ label, variant = "primary" }: { label: string; variant?: keyof typeof buttonStyles }) {
+export function SubmitButton({ label, ariaLabel, variant = "primary" }: { label: string; ariaLabel?: string; variant?: keyof typeof buttonStyles }) {
   const { pending } = useFormStatus();
   return (
     <button
       type="submit"
       disabled={pending}
       aria-disabled={pending}
-      className={`justify-self-start rounded-card px-4 py-2 font-semibold disabled:opacity-60 ${buttonStyles[variant]}`}
+      aria-label={ariaLabel}
+      className={`justify-self-start whitespace-nowrap rounded-card px-4 py-2 font-semibold disabled:opacity-60 ${buttonStyles[variant]}`}
     >
       {pending ? `${label}…` : label}
     </button>
@@ -67,7 +70,7 @@ export function SubmitButton({ label, variant = "primary" }: { label: string; va
 }
 
 export const inputClass =
-  "w-full rounded-card border border-graphite/60 bg-paper-card px-3 py-2 text-ink placeholder:text-graphite/70 aria-[invalid=true]:border-danger";
+  "w-full appearance-none rounded-card border border-graphite/60 bg-paper-card px-3 py-2 text-ink placeholder:text-graphite/70 aria-[invalid=true]:border-danger";
 
 export function Field({
   name, label, type = "text", hint, autoComplete, defaultValue, required, maxLength,

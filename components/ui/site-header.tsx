@@ -37,7 +37,7 @@ export async function SiteHeader() {
         ) : (
           <>
             <Link href="/sign-in" className="text-graphite hover:text-ink">Sign in</Link>
-            <Link href="/sign-up" className="text-graphite hover:text-ink">Create an account</Link>
+            <Link href="/sign-up" className="text-graphite hover:text-ink">Sign up</Link>
           </>
         )}
       </nav>

@@ -58,11 +58,11 @@ export default async function StudioPage({ searchParams }: { searchParams: Searc
               <tbody>
                 {members.map((m) => (
                   <tr key={m.playerId} className="border-b border-rule last:border-0">
-                    <td className="py-3 font-semibold">{m.name}</td>
-                    <td className="py-3">{m.email}</td>
-                    <td className="py-3">{date(m.joinedAt)}</td>
+                    <td className="py-3 pr-3 font-semibold">{m.name}</td>
+                    <td className="break-all py-3 pr-3">{m.email}</td>
+                    <td className="whitespace-nowrap py-3">{date(m.joinedAt)}</td>
                     <td className="py-3 text-right">
-                      <ActionForm action={removeMemberAction} inline variant="danger" submitLabel={`Remove ${m.name}`} hidden={{ playerId: m.playerId }} />
+                      <ActionForm action={removeMemberAction} inline variant="danger" submitLabel="Remove" submitAriaLabel={`Remove ${m.name}`} hidden={{ playerId: m.playerId }} />
                     </td>
                   </tr>
                 ))}

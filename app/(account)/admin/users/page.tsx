@@ -85,13 +85,14 @@ export default async function AdminUsersPage({ searchParams }: { searchParams: S
                   <td className="px-4 py-3 whitespace-nowrap">{u.createdAt.toISOString().slice(0, 10)}</td>
                   <td className="px-4 py-3">
                     {self ? <span className="text-graphite">—</span> : (
-                      <div className="grid gap-2">
-                        <ActionForm action={setRoleAction} inline submitLabel="Save role" variant="quiet" hidden={{ userId: u.id }}>
+                      <div className="flex flex-wrap items-end gap-2">
+                        <ActionForm action={setRoleAction} inline submitLabel="Save role" submitAriaLabel={`Save the role of ${u.name}`} variant="quiet" hidden={{ userId: u.id }}>
                           <SelectField name="role" label={`Role of ${u.name}`} hideLabel defaultValue={u.role}
                             options={ROLES.map((r) => ({ value: r, label: r }))} />
                         </ActionForm>
                         <ActionForm action={setStatusAction} inline variant={u.status === "active" ? "danger" : "quiet"}
-                          submitLabel={u.status === "active" ? `Disable ${u.name}` : `Enable ${u.name}`}
+                          submitLabel={u.status === "active" ? "Disable" : "Enable"}
+                          submitAriaLabel={`${u.status === "active" ? "Disable" : "Enable"} ${u.name}`}
                           hidden={{ userId: u.id, status: u.status === "active" ? "disabled" : "active" }} />
                       </div>
                     )}
