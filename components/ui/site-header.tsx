@@ -8,7 +8,8 @@ const ROLE_LABEL = { player: "Player", teacher: "Teacher", admin: "Admin" } as c
 
 /** Who is signed in and their role, the links their role may use, and sign-out. */
 export async function SiteHeader() {
-  const user = await getCurrentUser();
+  // The header must never take a page down: without the database it shows the signed-out links.
+  const user = await getCurrentUser().catch(() => null);
   return (
     <header className="no-print border-b border-rule bg-paper">
       <nav aria-label="Main" className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-gutter py-3">
