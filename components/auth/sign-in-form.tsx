@@ -1,7 +1,7 @@
 "use client";
 
 import { useId, useState, type FormEvent } from "react";
-import { inputClass } from "@/components/ui/action-form";
+import { inputClass } from "@/components/ui/styles";
 import { signInWithPassword } from "./credentials";
 
 export function SignInForm({ callbackUrl, defaultEmail }: { callbackUrl: string; defaultEmail?: string }) {

@@ -3,6 +3,7 @@
 import { createContext, useActionState, useContext, useId, type ReactNode } from "react";
 import { useFormStatus } from "react-dom";
 import { idleState, type ActionState } from "@/lib/http/action-state";
+import { inputClass, selectClass } from "./styles";
 
 type ServerAction = (state: ActionState, formData: FormData) => Promise<ActionState>;
 
@@ -69,8 +70,6 @@ export function SubmitButton({ label, ariaLabel, variant = "primary" }: { label:
   );
 }
 
-export const inputClass =
-  "w-full appearance-none rounded-card border border-graphite/60 bg-paper-card px-3 py-2 text-ink placeholder:text-graphite/70 aria-[invalid=true]:border-danger";
 
 export function Field({
   name, label, type = "text", hint, autoComplete, defaultValue, required, maxLength,
@@ -163,7 +162,7 @@ export function SelectField({
   return (
     <div className="grid gap-1">
       <label htmlFor={id} className={hideLabel ? "sr-only" : "font-semibold"}>{label}</label>
-      <select id={id} name={name} defaultValue={defaultValue} className={`${inputClass} py-1.5`}>
+      <select id={id} name={name} defaultValue={defaultValue} className={selectClass}>
         {options.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
       </select>
     </div>
