@@ -11,7 +11,7 @@ type Context = { params: Promise<Params> };
  * 400 naming the field, anything else → 500 with a generic message (and the error logged).
  * Next.js's own control-flow errors (notFound, redirect) are rethrown untouched.
  */
-export function handler<C extends Context = Context>(fn: (request: Request, context: C) => Promise<Response>) {
+export function handle<C extends Context = Context>(fn: (request: Request, context: C) => Promise<Response>) {
   return async (request: Request, context: C): Promise<Response> => {
     try {
       return await fn(request, context);

@@ -2,7 +2,7 @@ import { z } from "zod";
 import { USER_SORTS, listUsers } from "@/db/users";
 import { assertCan } from "@/lib/auth/policy";
 import { getCurrentUser } from "@/lib/auth/session";
-import { handler, parseQuery } from "@/lib/http/handler";
+import { handle, parseQuery } from "@/lib/http/handler";
 
 export const dynamic = "force-dynamic";
 
@@ -15,7 +15,7 @@ const userListQuery = z.object({
 });
 
 /** Accounts for admins: search, sort and pages on the server. */
-export const GET = handler(async (request) => {
+export const GET = handle(async (request) => {
   const input = parseQuery(request, userListQuery);
   assertCan(await getCurrentUser(), "admin:list_users", { type: "site" });
   const { rows, total } = await listUsers({ query: input.q, sort: input.sort, dir: input.dir, page: input.page, pageSize: input.pageSize });

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { AppError } from "@/lib/errors";
-import { handler, parseQuery } from "@/lib/http/handler";
+import { handle, parseQuery } from "@/lib/http/handler";
 import { listCaughtMessages } from "@/lib/mail/mailbox";
 
 export const dynamic = "force-dynamic";
@@ -8,7 +8,7 @@ export const dynamic = "force-dynamic";
 const query = z.object({ to: z.string().email().optional() });
 
 /** The local mailbox as JSON, newest first (development and test only; 404 in production). */
-export const GET = handler(async (request) => {
+export const GET = handle(async (request) => {
   const { to } = parseQuery(request, query);
   const messages = await listCaughtMessages({ to });
   if (!messages) throw new AppError("not_found:page", "Not found.");

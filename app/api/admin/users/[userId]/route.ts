@@ -2,7 +2,7 @@ import { z } from "zod";
 import { changeRole, changeStatus } from "@/lib/accounts/admin";
 import { requireUser } from "@/lib/auth/session";
 import { ROLES } from "@/lib/auth/types";
-import { handler, parseJson, parseParams } from "@/lib/http/handler";
+import { handle, parseJson, parseParams } from "@/lib/http/handler";
 
 export const dynamic = "force-dynamic";
 
@@ -12,7 +12,7 @@ const body = z
   .refine((b) => b.role !== undefined || b.status !== undefined, { message: "Give a role or a status.", path: ["role"] });
 
 /** An admin changes an account's role or status; disabling ends its sessions at once. */
-export const PATCH = handler(async (request, context: { params: Promise<{ userId: string }> }) => {
+export const PATCH = handle(async (request, context: { params: Promise<{ userId: string }> }) => {
   const { userId } = await parseParams(context.params, params);
   const user = await requireUser();
   const input = await parseJson(request, body);
