@@ -166,7 +166,7 @@ export const GLYPH_BAND_HEIGHT = 9 + GLYPH.waveMaxHeight + GLYPH.gap * 3 + GLYPH
  * (cx, cy): phrase start a flag on its pole, peak a triangle pointing up, tension tone a diamond
  * standing on its point, resolution a disc.
  */
-export function roleShapePath(role: Role, cx: number, cy: number, size = GLYPH.roleSize): string {
+export function roleShapePath(role: Role, cx: number, cy: number, size: number = GLYPH.roleSize): string {
   const r = size / 2;
   switch (role) {
     case "phrase-start": {
