@@ -245,7 +245,7 @@ function WorkspaceScreen({ partId }: { partId: string }) {
     const top = box.staffTop - 90 * zoom;
     const bottom = box.y + box.height + 40;
     if (top < scroller.scrollTop || bottom > scroller.scrollTop + scroller.clientHeight) {
-      scroller.scrollTo({ top: Math.max(0, top - 20) });
+      scroller.scrollTo?.({ top: Math.max(0, top - 20) });
     }
   }, [selection.focus, store, zoom]);
 
@@ -255,7 +255,7 @@ function WorkspaceScreen({ partId }: { partId: string }) {
     const box = store.getState().boxByKey.get(reveal.key);
     const scroller = scrollerRef.current;
     if (!box || !scroller) return;
-    scroller.scrollTo({ top: Math.max(0, box.staffTop - scroller.clientHeight / 3), behavior: prefersReducedMotion() ? "auto" : "smooth" });
+    scroller.scrollTo?.({ top: Math.max(0, box.staffTop - scroller.clientHeight / 3), behavior: prefersReducedMotion() ? "auto" : "smooth" });
     scoreRef.current?.focus({ preventScroll: true });
   }, [reveal, store]);
 
