@@ -45,7 +45,7 @@ export function Legend({ className = "" }: { className?: string }) {
             <Wave values={{ shape: "growing" }} caption="Swelling: growing" />
             <Wave values={{ shape: "fading" }} caption="Narrowing: fading" />
           </ul>
-          <p className="mt-2 text-xs text-graphite">Small numbers under a wave: depth in cents, then speed in Hz (e.g. “20¢ 5.5”).</p>
+          <p className="mt-2 text-xs text-graphite">Small numbers under a wave: depth in cents, then speed in Hz (e.g. “20¢ 5.5”); “none” under a flat line.</p>
         </div>
         <div>
           <h3 className="mb-2 font-sans text-sm font-semibold uppercase tracking-wide text-graphite">Roles in the phrase</h3>

@@ -81,13 +81,13 @@ describe("MarkingOverlay", () => {
     expect(container.querySelector(`[data-selected="${K[0]}"] line`)).not.toBeNull();
   });
 
-  it("reports a press on a note with the selection mode of the modifier keys", () => {
+  it("reports a click on a note with the selection mode of the modifier keys", () => {
     const onDown = vi.fn();
-    const { container } = draw({ onNotePointerDown: onDown });
+    const { container } = draw({ onNoteClick: onDown });
     const hit = (k: string) => container.querySelector(`[data-layer="hits"] [data-note-key="${k}"]`)!;
-    fireEvent.pointerDown(hit(K[2]), { button: 0 });
-    fireEvent.pointerDown(hit(K[3]), { button: 0, shiftKey: true });
-    fireEvent.pointerDown(hit(K[4]), { button: 0, ctrlKey: true });
+    fireEvent.click(hit(K[2]));
+    fireEvent.click(hit(K[3]), { shiftKey: true });
+    fireEvent.click(hit(K[4]), { ctrlKey: true });
     expect(onDown.mock.calls).toEqual([[K[2], "only"], [K[3], "extend"], [K[4], "toggle"]]);
     // Hit areas are at least 24 px wide for fingers.
     expect(Number(hit(K[0]).getAttribute("width"))).toBeGreaterThanOrEqual(24);

@@ -31,7 +31,7 @@ export interface MarkingOverlayProps {
   durations?: Readonly<Record<string, number>>;
   commentCounts?: Readonly<Record<string, number>>;
   selection: Selection;
-  onNotePointerDown?: (key: string, mode: "only" | "toggle" | "extend") => void;
+  onNoteClick?: (key: string, mode: "only" | "toggle" | "extend") => void;
 }
 
 const INK = "#1B1A17";
@@ -85,14 +85,14 @@ export function MarkingOverlay(props: MarkingOverlayProps) {
         commentCounts={props.commentCounts}
         focus={props.selection.focus}
       />
-      <HitLayer placed={placed} scale={props.scale} onNotePointerDown={props.onNotePointerDown} />
+      <HitLayer placed={placed} scale={props.scale} onNoteClick={props.onNoteClick} />
     </svg>
   );
 }
 
 const HitLayer = memo(function HitLayer({
-  placed, scale, onNotePointerDown,
-}: { placed: Map<string, Placed>; scale: number; onNotePointerDown?: MarkingOverlayProps["onNotePointerDown"] }) {
+  placed, scale, onNoteClick,
+}: { placed: Map<string, Placed>; scale: number; onNoteClick?: MarkingOverlayProps["onNoteClick"] }) {
   return (
     <g data-layer="hits">
       {[...placed.values()].map(({ box, rowTop }) => {
@@ -111,11 +111,8 @@ const HitLayer = memo(function HitLayer({
             height={bottom - top}
             fill="transparent"
             className="pointer-events-auto cursor-pointer"
-            onPointerDown={(e) => {
-              if (e.button !== 0) return;
-              e.preventDefault();
-              onNotePointerDown?.(box.key, e.shiftKey ? "extend" : e.ctrlKey || e.metaKey ? "toggle" : "only");
-            }}
+            // A click, not a pointer-down: on a tablet a drag that starts on a note scrolls.
+            onClick={(e) => onNoteClick?.(box.key, e.shiftKey ? "extend" : e.ctrlKey || e.metaKey ? "toggle" : "only")}
           />
         );
       })}
@@ -224,7 +221,7 @@ const GlyphLayer = memo(function GlyphLayer({
           durationSeconds: durations?.[marking.noteKey],
           scale,
         });
-        const label = `${formatNumber(marking.depthCents, 0)}¢ ${formatNumber(marking.speedHz, 1)}`;
+        const label = wave.kind === "none" ? "none" : `${formatNumber(marking.depthCents, 0)}¢ ${formatNumber(marking.speedHz, 1)}`;
         const labelFits = width >= label.length * 4.2 * scale || marking.noteKey === focus;
         const cx = box.x + box.width / 2;
         const comments = commentCounts?.[marking.noteKey] ?? (marking.comment.trim() ? 1 : 0);

@@ -112,7 +112,7 @@ describe("Workspace", () => {
   it("marks a clicked note, draws it and saves it with no version (new)", async () => {
     open();
     await waitFor(() => expect(hit(K[1])).toBeTruthy());
-    fireEvent.pointerDown(hit(K[1]), { button: 0 });
+    fireEvent.click(hit(K[1]));
     expect(screen.getByRole("heading", { name: "Bar 1 · D5" })).toBeTruthy();
     await setDepth("45");
     await waitFor(() => expect(document.querySelector(`[data-glyph="wave"][data-note-key="${K[1]}"]`)).not.toBeNull());
@@ -127,7 +127,7 @@ describe("Workspace", () => {
   it("sends the version it got back with the next edit of the same note", async () => {
     open();
     await waitFor(() => expect(hit(K[0])).toBeTruthy());
-    fireEvent.pointerDown(hit(K[0]), { button: 0 });
+    fireEvent.click(hit(K[0]));
     await setDepth("30");
     await setDepth("60");
     await waitFor(() => expect(server.markings.get(K[0])?.depthCents).toBe(60));
@@ -139,8 +139,8 @@ describe("Workspace", () => {
   it("applies a change to the whole selection as one group", async () => {
     open();
     await waitFor(() => expect(hit(K[0])).toBeTruthy());
-    fireEvent.pointerDown(hit(K[0]), { button: 0 });
-    fireEvent.pointerDown(hit(K[2]), { button: 0, shiftKey: true });
+    fireEvent.click(hit(K[0]));
+    fireEvent.click(hit(K[2]), { shiftKey: true });
     fireEvent.click(screen.getByRole("radio", { name: /Peak/ }));
     await waitFor(() => expect(server.markings.size).toBe(3));
     const groups = new Set(server.requests.filter((r) => r.method === "PUT").map((r) => (r.body as { group: string }).group));
@@ -153,7 +153,7 @@ describe("Workspace", () => {
     await waitFor(() => expect(document.querySelector(`[data-glyph="wave"][data-note-key="${K[0]}"]`)).not.toBeNull());
     // Another tab saves first.
     server.set(K[0], { depthCents: 80 });
-    fireEvent.pointerDown(hit(K[0]), { button: 0 });
+    fireEvent.click(hit(K[0]));
     await setDepth("25");
     const prompt = await screen.findByTestId("conflict-prompt");
     await waitFor(() => expect(within(prompt).getByText("Mine")).toBeTruthy());
@@ -173,7 +173,7 @@ describe("Workspace", () => {
     open();
     await waitFor(() => expect(document.querySelector(`[data-glyph="wave"][data-note-key="${K[0]}"]`)).not.toBeNull());
     server.set(K[0], { depthCents: 80 });
-    fireEvent.pointerDown(hit(K[0]), { button: 0 });
+    fireEvent.click(hit(K[0]));
     await setDepth("25");
     const prompt = await screen.findByTestId("conflict-prompt");
     await waitFor(() => expect(within(prompt).getByRole("button", { name: "Take current" })).toBeTruthy());

@@ -228,7 +228,7 @@ function WorkspaceScreen({ partId }: { partId: string }) {
     }
   };
 
-  const onNotePointerDown = useCallback(
+  const onNoteClick = useCallback(
     (key: string, mode: "only" | "toggle" | "extend") => {
       actions.select(key, mode);
       actions.setPanelOpen(true);
@@ -307,14 +307,13 @@ function WorkspaceScreen({ partId }: { partId: string }) {
         onClear={clear}
         onCopy={copy}
         onPaste={paste}
-        onClose={() => actions.setPanelOpen(false)}
       />
     );
 
   return (
     <div className="flex h-[calc(100dvh-3.6rem)] flex-col bg-paper" data-testid="workspace">
       <div className="no-print flex flex-wrap items-center gap-x-4 gap-y-1 border-b border-rule px-gutter py-2">
-        <div className="min-w-0 flex-1">
+        <div className="w-full min-w-0 lg:w-auto lg:flex-1">
           <h1 className="truncate text-xl font-semibold leading-tight">{part.data?.title ?? "…"}</h1>
           <p className="truncate text-sm text-graphite">
             {[part.data?.composer, part.data?.keyLabel, tempo ? `♩ = ${formatNumber(tempo, 1)}` : null, part.data ? `${part.data.measureCount} bars` : null]
@@ -383,7 +382,7 @@ function WorkspaceScreen({ partId }: { partId: string }) {
             aria-label={`Score of ${part.data?.title ?? "the part"}`}
             aria-describedby="score-help"
             onKeyDown={onScoreKey}
-            className="mx-auto max-w-[1400px] px-2 pb-24 outline-none focus-visible:ring-2 focus-visible:ring-accent"
+            className={`mx-auto max-w-[1400px] px-2 outline-none focus-visible:ring-2 focus-visible:ring-inset focus-visible:ring-accent ${panelOpen ? "pb-[46dvh] lg:pb-24" : "pb-24"}`}
           >
             <p id="score-help" className="sr-only">
               Arrow keys move from note to note, up and down move by bar, Shift extends the selection, Enter opens the marking
@@ -401,7 +400,7 @@ function WorkspaceScreen({ partId }: { partId: string }) {
                   resolutions={resolutions}
                   durations={durations}
                   selection={selection}
-                  onNotePointerDown={onNotePointerDown}
+                  onNoteClick={onNoteClick}
                 />
               </ScoreView>
             ) : xml.isError ? (
@@ -419,7 +418,7 @@ function WorkspaceScreen({ partId }: { partId: string }) {
           ref={railRef}
           aria-label="Marking and suggestions"
           data-open={panelOpen ? "true" : "false"}
-          className="no-print fixed inset-x-0 bottom-0 z-20 max-h-[55dvh] overflow-y-auto border-t border-ink/20 bg-paper p-4 shadow-[0_-4px_16px_rgba(27,26,23,0.12)] data-[open=false]:hidden lg:static lg:z-auto lg:block lg:max-h-none lg:w-rail lg:shrink-0 lg:border-l lg:border-t-0 lg:border-rule lg:shadow-none lg:data-[open=false]:block"
+          className="no-print fixed inset-x-0 bottom-0 z-20 max-h-[45dvh] overflow-y-auto border-t border-ink/20 bg-paper p-4 shadow-[0_-4px_16px_rgba(27,26,23,0.12)] data-[open=false]:hidden lg:static lg:z-auto lg:block lg:max-h-none lg:w-rail lg:shrink-0 lg:border-l lg:border-t-0 lg:border-rule lg:shadow-none lg:data-[open=false]:block"
         >
           <div className="mb-3 flex gap-1 border-b border-rule" role="tablist" aria-label="Side panel">
             <Tab selected={sideView === "marking" && keys.length > 0} onClick={() => actions.setSideView("marking")} disabled={keys.length === 0}>
