@@ -5,6 +5,7 @@
  * note its tie starts from; grace notes get `:g1`, `:g2` … in order before their onset.
  */
 import type { GraphicalNote, OpenSheetMusicDisplay } from "opensheetmusicdisplay";
+import { noteKey } from "@/lib/musicxml/note-key";
 
 export interface OsmdNoteRef {
   key: string;
@@ -16,13 +17,6 @@ export interface OsmdNoteRef {
   isGrace: boolean;
 }
 
-function gcd(a: number, b: number): number {
-  a = Math.abs(a);
-  b = Math.abs(b);
-  while (b) [a, b] = [b, a % b];
-  return a || 1;
-}
-
 type SourceNote = GraphicalNote["sourceNote"];
 
 function keyOf(note: SourceNote, measureIndex: number, graceIndex: number): string {
@@ -31,13 +25,15 @@ function keyOf(note: SourceNote, measureIndex: number, graceIndex: number): stri
   const instrument = staff.ParentInstrument;
   const staffNumber = Math.max(1, instrument.Staves.indexOf(staff) + 1);
   const ts = entry.Timestamp;
-  const num = ts.GetExpandedNumerator();
-  const den = ts.Denominator;
-  const g = gcd(num, den);
-  const onset = `${num / g}/${den / g}`;
-  const midi = note.halfTone + 12;
-  const base = `${instrument.IdString}:m${measureIndex}:s${staffNumber}:v${entry.ParentVoice.VoiceId}:${onset}:${midi}`;
-  return graceIndex > 0 ? `${base}:g${graceIndex}` : base;
+  return noteKey({
+    partId: instrument.IdString,
+    measureIndex,
+    staff: staffNumber,
+    voice: String(entry.ParentVoice.VoiceId),
+    onset: { num: ts.GetExpandedNumerator(), den: ts.Denominator },
+    midi: note.halfTone + 12,
+    graceIndex,
+  });
 }
 
 /** Every graphical note of the rendered sheet, in time order (measure, onset, voice, pitch). */
@@ -52,15 +48,20 @@ export function collectOsmdNotes(osmd: OpenSheetMusicDisplay): OsmdNoteRef[] {
       const graceCounts = new Map<string, number>();
       for (const staffEntry of measure.staffEntries) {
         for (const voiceEntry of staffEntry.graphicalVoiceEntries) {
+          // The notes of one grace chord share their number.
+          let chordGraceIndex = 0;
           for (const graphicalNote of voiceEntry.notes) {
             const note = graphicalNote.sourceNote;
             const isRest = note.isRest();
             const isGrace = Boolean(note.IsGraceNote || note.ParentVoiceEntry?.IsGrace);
             let graceIndex = 0;
             if (isGrace && !isRest) {
-              const slot = `${note.ParentVoiceEntry.ParentVoice.VoiceId}:${note.ParentVoiceEntry.Timestamp.RealValue}`;
-              graceIndex = (graceCounts.get(slot) ?? 0) + 1;
-              graceCounts.set(slot, graceIndex);
+              if (!chordGraceIndex) {
+                const slot = `${note.ParentStaff.Id}:${note.ParentVoiceEntry.ParentVoice.VoiceId}:${note.ParentVoiceEntry.Timestamp.RealValue}`;
+                chordGraceIndex = (graceCounts.get(slot) ?? 0) + 1;
+                graceCounts.set(slot, chordGraceIndex);
+              }
+              graceIndex = chordGraceIndex;
             }
             const tie = note.NoteTie;
             const isTieContinuation = Boolean(tie && tie.StartNote && tie.StartNote !== note);

@@ -1,14 +1,8 @@
 /** People-facing names for notes: "Bar 12 · A5". */
 import type { AnalyzedNote } from "@/lib/analysis/types";
+import { parseNoteKey } from "@/lib/musicxml/note-key";
 
 const NAMES = ["C", "C♯", "D", "E♭", "E", "F", "F♯", "G", "A♭", "A", "B♭", "B"];
-
-/** Reads the measure index and MIDI number back out of a note key (`P1:m12:s1:v1:3/8:70`). */
-export function parseNoteKey(key: string): { measureIndex: number; midi: number; grace: number } | null {
-  const m = /:m(\d+):s\d+:v[^:]+:\d+\/\d+:(\d+)(?::g(\d+))?$/.exec(key);
-  if (!m) return null;
-  return { measureIndex: Number(m[1]), midi: Number(m[2]), grace: m[3] ? Number(m[3]) : 0 };
-}
 
 export function midiName(midi: number): string {
   return `${NAMES[((midi % 12) + 12) % 12]}${Math.floor(midi / 12) - 1}`;
@@ -19,7 +13,7 @@ export function noteLabel(key: string, note?: Pick<AnalyzedNote, "measure" | "pi
   if (note) return `Bar ${note.measure} · ${note.pitch.replace("#", "♯").replace(/b(?=-?\d)/, "♭")}`;
   const parsed = parseNoteKey(key);
   if (!parsed) return key;
-  return `Bar ${parsed.measureIndex + 1} · ${midiName(parsed.midi)}${parsed.grace ? " (grace)" : ""}`;
+  return `Bar ${parsed.measureIndex + 1} · ${midiName(parsed.midi)}${parsed.graceIndex ? " (grace)" : ""}`;
 }
 
 /** "3 notes, bars 4–6" for a selection. */
