@@ -1,86 +1,120 @@
 /**
- * Note keys on the browser side, read from OpenSheetMusicDisplay's model:
- * `<part>:m<measure index>:s<staff>:v<voice>:<onset fraction>:<midi>[:g<n>]` — the same format
- * the server computes from MusicXML (see lib/musicxml). A tie continuation shares the key of the
- * note its tie starts from; grace notes get `:g1`, `:g2` … in order before their onset.
+ * Note keys in the browser, read from OpenSheetMusicDisplay's loaded and rendered model. The key
+ * of every note is built by the same `noteKey` function the server uses (lib/musicxml/note-key.ts),
+ * from the same ingredients: part id, 0-based measure index, staff within the part, voice, onset as
+ * an exact fraction, MIDI number and grace position. Browser code: never import server modules.
  */
-import type { GraphicalNote, OpenSheetMusicDisplay } from "opensheetmusicdisplay";
+import type { GraphicalNote, Note, OpenSheetMusicDisplay, VexFlowGraphicalNote } from "opensheetmusicdisplay";
+import { sortNoteKeys } from "@/lib/musicxml/key-order";
 import { noteKey } from "@/lib/musicxml/note-key";
 
 export interface OsmdNoteRef {
+  /** The note key; "" for rests (they are never marked). */
   key: string;
   measureIndex: number;
   graphicalNote: GraphicalNote;
+  /** The engraved `<g class="vf-stavenote">`; null when the note was not drawn. */
   svgGroup: SVGGElement | null;
   isRest: boolean;
+  /** A later note of a tie chain: it carries the key of the chain's first note. */
   isTieContinuation: boolean;
   isGrace: boolean;
 }
 
-type SourceNote = GraphicalNote["sourceNote"];
-
-function keyOf(note: SourceNote, measureIndex: number, graceIndex: number): string {
-  const entry = note.ParentVoiceEntry;
+/** Staff number inside the note's own part, 1-based, as MusicXML's `staff` element counts. */
+function staffInPart(note: Note): number {
   const staff = note.ParentStaff;
-  const instrument = staff.ParentInstrument;
-  const staffNumber = Math.max(1, instrument.Staves.indexOf(staff) + 1);
-  const ts = entry.Timestamp;
+  return staff.ParentInstrument.Staves.indexOf(staff) + 1;
+}
+
+// OSMD's halfTone counts from C0 = 0 in its own octave numbering (octave − 3 relative to
+// scientific pitch, see the stack notes): MIDI = halfTone + 12, so C4 = 60.
+const midiOf = (note: Note) => note.halfTone + 12;
+
+function keyOf(note: Note, graceIndex: number): string {
+  const entry = note.ParentVoiceEntry;
+  const onset = entry.Timestamp;
   return noteKey({
-    partId: instrument.IdString,
-    measureIndex,
-    staff: staffNumber,
+    partId: note.ParentStaff.ParentInstrument.IdString,
+    measureIndex: note.SourceMeasure.measureListIndex,
+    staff: staffInPart(note),
     voice: String(entry.ParentVoice.VoiceId),
-    onset: { num: ts.GetExpandedNumerator(), den: ts.Denominator },
-    midi: note.halfTone + 12,
+    // Exact: OSMD keeps the timestamp as a fraction of a whole note, with whole notes held apart.
+    onset: { num: onset.GetExpandedNumerator(), den: onset.Denominator },
+    midi: midiOf(note),
     graceIndex,
   });
 }
 
-/** Every graphical note of the rendered sheet, in time order (measure, onset, voice, pitch). */
+function svgGroupOf(graphicalNote: GraphicalNote): SVGGElement | null {
+  const vexNote = graphicalNote as Partial<VexFlowGraphicalNote>;
+  try {
+    return vexNote.getSVGGElement?.() ?? null;
+  } catch {
+    // Notes VexFlow did not draw (e.g. hidden) have no element.
+    return null;
+  }
+}
+
+/**
+ * Every engraved note and rest of the rendered score with its key, in engraving order
+ * (measure, then staff from the top, then position). Call again after every `render()`:
+ * graphical objects and SVG elements are rebuilt each time.
+ */
 export function collectOsmdNotes(osmd: OpenSheetMusicDisplay): OsmdNoteRef[] {
   const refs: OsmdNoteRef[] = [];
-  const sheet = osmd.GraphicSheet;
-  if (!sheet) return refs;
-  const tieStartKeys = new Map<SourceNote, string>();
-  sheet.MeasureList.forEach((staves, measureIndex) => {
+  // The first note of each tie chain is keyed where it stands; continuations look it up here.
+  const keyByNote = new Map<Note, string>();
+  osmd.GraphicSheet.MeasureList.forEach((staves) => {
     for (const measure of staves) {
       if (!measure) continue;
-      const graceCounts = new Map<string, number>();
       for (const staffEntry of measure.staffEntries) {
+        // Grace notes are numbered 1, 2, … per voice before the note they lead into; a grace
+        // chord is one voice entry, so its notes share the number.
+        const graceCount = new Map<number, number>();
         for (const voiceEntry of staffEntry.graphicalVoiceEntries) {
-          // The notes of one grace chord share their number.
-          let chordGraceIndex = 0;
+          const source = voiceEntry.parentVoiceEntry;
+          let graceIndex = 0;
+          if (source.IsGrace) {
+            const voiceId = source.ParentVoice.VoiceId;
+            graceIndex = (graceCount.get(voiceId) ?? 0) + 1;
+            graceCount.set(voiceId, graceIndex);
+          }
           for (const graphicalNote of voiceEntry.notes) {
             const note = graphicalNote.sourceNote;
-            const isRest = note.isRest();
-            const isGrace = Boolean(note.IsGraceNote || note.ParentVoiceEntry?.IsGrace);
-            let graceIndex = 0;
-            if (isGrace && !isRest) {
-              if (!chordGraceIndex) {
-                const slot = `${note.ParentStaff.Id}:${note.ParentVoiceEntry.ParentVoice.VoiceId}:${note.ParentVoiceEntry.Timestamp.RealValue}`;
-                chordGraceIndex = (graceCounts.get(slot) ?? 0) + 1;
-                graceCounts.set(slot, chordGraceIndex);
-              }
-              graceIndex = chordGraceIndex;
+            const measureIndex = note.SourceMeasure.measureListIndex;
+            const base = { measureIndex, graphicalNote, svgGroup: svgGroupOf(graphicalNote), isGrace: source.IsGrace };
+            if (note.isRest()) {
+              refs.push({ ...base, key: "", isRest: true, isTieContinuation: false });
+              continue;
             }
             const tie = note.NoteTie;
-            const isTieContinuation = Boolean(tie && tie.StartNote && tie.StartNote !== note);
-            let key = "";
-            if (!isRest) {
-              key = isTieContinuation ? (tieStartKeys.get(tie.StartNote) ?? keyOf(tie.StartNote, tie.StartNote.SourceMeasure.measureListIndex, 0)) : keyOf(note, measureIndex, graceIndex);
-              if (tie && !isTieContinuation) tieStartKeys.set(note, key);
+            const first = tie?.StartNote;
+            const isTieContinuation = !!first && first !== note;
+            let key: string;
+            if (isTieContinuation) {
+              key = keyByNote.get(first) ?? keyOf(first, 0);
+            } else {
+              key = keyOf(note, graceIndex);
+              keyByNote.set(note, key);
             }
-            let svgGroup: SVGGElement | null = null;
-            try {
-              svgGroup = (graphicalNote as unknown as { getSVGGElement?: () => SVGGElement | undefined }).getSVGGElement?.() ?? null;
-            } catch {
-              svgGroup = null;
-            }
-            refs.push({ key, measureIndex, graphicalNote, svgGroup, isRest, isTieContinuation, isGrace });
+            refs.push({ ...base, key, isRest: false, isTieContinuation });
           }
         }
       }
     }
   });
   return refs;
+}
+
+/**
+ * The keys of the sounding notes (no rests, one key per tie chain) in the order the server lists
+ * them (lib/musicxml/key-order.ts), so the two lists can be compared note for note.
+ */
+export function osmdNoteKeys(osmd: OpenSheetMusicDisplay): string[] {
+  const keys = collectOsmdNotes(osmd)
+    .filter((ref) => !ref.isRest && !ref.isTieContinuation)
+    .map((ref) => ref.key);
+  const partOrder = osmd.Sheet.Instruments.map((instrument) => instrument.IdString);
+  return sortNoteKeys(keys, partOrder);
 }
