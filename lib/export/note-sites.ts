@@ -1,0 +1,322 @@
+import { SaxesParser, type SaxesTagPlain } from "saxes";
+
+/**
+ * Finds every sounding `<note>` of a score-partwise text together with its note key and the
+ * character offsets where markings can be written into it, without rebuilding the document: the
+ * export splices text into the original so everything Ondula does not own stays byte for byte.
+ *
+ * The key follows the brief's format (`P1:m12:s1:v1:3/8:70`, `:g1` for grace notes) and must
+ * equal the reader's; a test compares the two on every sample.
+ */
+
+/** Prefix of every `id` attribute on an element Ondula writes, so a later export can remove them. */
+export const ONDULA_ID_PREFIX = "ondula-";
+
+/** Text that opens the machine-readable marking carried by `<other-notation>`. */
+export const CARRIER_PREFIX = "ondula-marking";
+
+export interface NoteSite {
+  /** Index in document order among the sites of the whole score. */
+  index: number;
+  partId: string;
+  key: string;
+  staff: number;
+  voice: string;
+  /** Whether the note names its staff / voice (a direction for it then names them too). */
+  hasStaff: boolean;
+  hasVoice: boolean;
+  isGrace: boolean;
+  /** A tie continuation: it shares the key of the first note of its chain. */
+  isContinuation: boolean;
+  /** Index of the last note of this note's tie chain (itself when not tied). */
+  chainEndIndex: number;
+  /** Offset of `<note`. */
+  start: number;
+  /** Offset of the `<note` that begins this note's chord (a direction must not split a chord). */
+  anchor: number;
+  /** Offset where a new `<notations>` may go: before `<lyric>`, `<play>`, `<listen>` or `</note>`. */
+  notationsAt: number;
+  /** Texts of `<other-notation>` children that carry an Ondula marking. */
+  carriers: string[];
+}
+
+export interface ScanResult {
+  sites: NoteSite[];
+  /** [start, end) ranges of elements Ondula wrote earlier (ids starting with ONDULA_ID_PREFIX). */
+  ondulaRanges: Array<[number, number]>;
+}
+
+const STEP_PC: Record<string, number> = { C: 0, D: 2, E: 4, F: 5, G: 7, A: 9, B: 11 };
+/** Children of `<note>` that the schema places after `<notations>`. */
+const AFTER_NOTATIONS = new Set(["lyric", "play", "listen"]);
+
+interface Frac {
+  num: number;
+  den: number;
+}
+
+function gcd(a: number, b: number): number {
+  a = Math.abs(a);
+  b = Math.abs(b);
+  while (b) [a, b] = [b, a % b];
+  return a || 1;
+}
+function frac(num: number, den: number): Frac {
+  const g = gcd(num, den);
+  return { num: num / g, den: den / g };
+}
+function add(a: Frac, b: Frac): Frac {
+  return frac(a.num * b.den + b.num * a.den, a.den * b.den);
+}
+
+/** The note key as the brief defines it. */
+export function formatNoteKey(k: {
+  partId: string;
+  measureIndex: number;
+  staff: number;
+  voice: string;
+  onset: Frac;
+  midi: number;
+  graceIndex: number;
+}): string {
+  const base = `${k.partId}:m${k.measureIndex}:s${k.staff}:v${k.voice}:${k.onset.num}/${k.onset.den}:${k.midi}`;
+  return k.graceIndex > 0 ? `${base}:g${k.graceIndex}` : base;
+}
+
+interface NoteState {
+  start: number;
+  chord: boolean;
+  grace: boolean;
+  rest: boolean;
+  unpitched: boolean;
+  step: string;
+  alter: number;
+  octave: number;
+  duration: number;
+  staff: number | null;
+  voice: string | null;
+  tieStart: boolean;
+  tieStop: boolean;
+  notationsAt: number | null;
+  carriers: string[];
+}
+
+/** Scans a score-partwise document. Throws on text that is not well-formed XML. */
+export function scanNoteSites(partwiseXml: string): ScanResult {
+  const parser = new SaxesParser({ position: true });
+  const sites: NoteSite[] = [];
+  const ondulaRanges: Array<[number, number]> = [];
+
+  const stack: string[] = [];
+  let text = "";
+  let tagStart = 0;
+
+  let partId = "";
+  let measureIndex = -1;
+  let divisions = 1;
+  let pos: Frac = { num: 0, den: 1 };
+  let lastOnset: Frac = { num: 0, den: 1 };
+  let lastAnchor = 0;
+  let graceCounts = new Map<string, number>();
+  let lastGraceIndex = 0;
+  // Open tie chains: `${staff}|${voice}|${midi}` → index of the chain's first site.
+  let openTies = new Map<string, number>();
+  let note: NoteState | null = null;
+  let moveDuration = 0;
+  // Depth at which an Ondula-owned element started; everything inside it is skipped.
+  let skipDepth = -1;
+  let skipStart = 0;
+
+  const startOfTag = () => partwiseXml.lastIndexOf("<", parser.position - 1);
+
+  parser.on("opentagstart", () => {
+    tagStart = startOfTag();
+  });
+
+  parser.on("opentag", (tag: SaxesTagPlain) => {
+    const name = tag.name;
+    const attrs = tag.attributes as Record<string, string>;
+    stack.push(name);
+    text = "";
+    if (skipDepth >= 0) return;
+    if (attrs.id?.startsWith(ONDULA_ID_PREFIX)) {
+      skipDepth = stack.length;
+      skipStart = tagStart;
+      return;
+    }
+    const parent = stack[stack.length - 2];
+    switch (name) {
+      case "part":
+        if (parent === "score-partwise") {
+          partId = attrs.id ?? "";
+          measureIndex = -1;
+          openTies = new Map();
+        }
+        break;
+      case "measure":
+        if (parent === "part") {
+          measureIndex += 1;
+          pos = { num: 0, den: 1 };
+          lastOnset = pos;
+          graceCounts = new Map();
+        }
+        break;
+      case "note":
+        note = {
+          start: tagStart,
+          chord: false,
+          grace: false,
+          rest: false,
+          unpitched: false,
+          step: "C",
+          alter: 0,
+          octave: 4,
+          duration: 0,
+          staff: null,
+          voice: null,
+          tieStart: false,
+          tieStop: false,
+          notationsAt: null,
+          carriers: [],
+        };
+        break;
+      case "backup":
+      case "forward":
+        moveDuration = 0;
+        break;
+      default:
+        if (note && parent === "note") {
+          if (name === "chord") note.chord = true;
+          else if (name === "grace") note.grace = true;
+          else if (name === "rest") note.rest = true;
+          else if (name === "unpitched") note.unpitched = true;
+          else if (name === "tie") {
+            if (attrs.type === "start") note.tieStart = true;
+            if (attrs.type === "stop") note.tieStop = true;
+          } else if (AFTER_NOTATIONS.has(name) && note.notationsAt === null) note.notationsAt = tagStart;
+        }
+    }
+  });
+
+  parser.on("text", (t: string) => {
+    text += t;
+  });
+
+  parser.on("closetag", (tag: SaxesTagPlain) => {
+    const name = tag.name;
+    const depth = stack.length;
+    stack.pop();
+    const parent = stack[stack.length - 1];
+    // Carriers sit inside Ondula's own `<notations>`: read them even while skipping those.
+    if (note && name === "other-notation" && text.trim().startsWith(CARRIER_PREFIX)) {
+      note.carriers.push(text);
+    }
+    if (skipDepth >= 0) {
+      if (depth === skipDepth) {
+        ondulaRanges.push([skipStart, parser.position]);
+        skipDepth = -1;
+      }
+      return;
+    }
+    const value = text.trim();
+    if (name === "divisions" && parent === "attributes") {
+      const d = Number(value);
+      if (d > 0) divisions = d;
+      return;
+    }
+    if (name === "duration" && (parent === "backup" || parent === "forward")) {
+      moveDuration = Number(value) || 0;
+      return;
+    }
+    if (name === "backup" || name === "forward") {
+      const delta = frac(Math.round(moveDuration * 1000), divisions * 4 * 1000);
+      pos = add(pos, name === "backup" ? { num: -delta.num, den: delta.den } : delta);
+      return;
+    }
+    if (note && parent === "pitch") {
+      if (name === "step") note.step = value;
+      else if (name === "alter") note.alter = Number(value) || 0;
+      else if (name === "octave") note.octave = Number(value);
+      return;
+    }
+    if (note && parent === "note") {
+      if (name === "duration") note.duration = Number(value) || 0;
+      else if (name === "staff") note.staff = Number(value) || 1;
+      else if (name === "voice") note.voice = value;
+      return;
+    }
+    if (name === "note" && note) {
+      finishNote(note, partwiseXml.lastIndexOf("<", parser.position - 1));
+      note = null;
+    }
+  });
+
+  function finishNote(n: NoteState, closeAt: number) {
+    const onset = n.chord ? lastOnset : pos;
+    if (!n.chord) {
+      lastOnset = pos;
+      lastAnchor = n.start;
+      if (!n.grace) {
+        // Durations may carry fractions of a division in the wild; keep them exact to 1/1000.
+        pos = add(pos, frac(Math.round(n.duration * 1000), divisions * 4 * 1000));
+      }
+    }
+    if (n.rest || n.unpitched) return;
+    const staff = n.staff ?? 1;
+    const voice = n.voice ?? "1";
+    const midi = 12 * (n.octave + 1) + (STEP_PC[n.step] ?? 0) + Math.round(n.alter);
+    let graceIndex = 0;
+    if (n.grace) {
+      if (n.chord) graceIndex = lastGraceIndex;
+      else {
+        const slot = `${staff}|${voice}|${onset.num}/${onset.den}`;
+        graceIndex = (graceCounts.get(slot) ?? 0) + 1;
+        graceCounts.set(slot, graceIndex);
+      }
+      lastGraceIndex = graceIndex;
+    }
+    const index = sites.length;
+    const tieSlot = `${staff}|${voice}|${midi}`;
+    let key = formatNoteKey({ partId, measureIndex, staff, voice, onset, midi, graceIndex });
+    let isContinuation = false;
+    if (n.tieStop && !n.grace) {
+      const first = openTies.get(tieSlot);
+      if (first !== undefined) {
+        key = sites[first].key;
+        isContinuation = true;
+        sites[first].chainEndIndex = index;
+        openTies.delete(tieSlot);
+      }
+    }
+    sites.push({
+      index,
+      partId,
+      key,
+      staff,
+      voice,
+      hasStaff: n.staff !== null,
+      hasVoice: n.voice !== null,
+      isGrace: n.grace,
+      isContinuation,
+      chainEndIndex: index,
+      start: n.start,
+      anchor: n.chord ? lastAnchor : n.start,
+      notationsAt: n.notationsAt ?? closeAt,
+      carriers: n.carriers,
+    });
+    if (n.tieStart && !n.grace) {
+      // A continuation that starts a new tie extends the chain: later stops find its first note.
+      const first = isContinuation ? firstOfChain(index) : index;
+      openTies.set(tieSlot, first);
+    }
+  }
+
+  function firstOfChain(index: number): number {
+    const key = sites[index].key;
+    for (let i = index - 1; i >= 0; i--) if (sites[i].key === key && !sites[i].isContinuation) return i;
+    return index;
+  }
+
+  parser.write(partwiseXml).close();
+  return { sites, ondulaRanges };
+}
