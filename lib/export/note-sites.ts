@@ -1,4 +1,4 @@
-import { SaxesParser, type SaxesTagPlain } from "saxes";
+import { SaxesParser, type SaxesTag } from "saxes";
 
 /**
  * Finds every sounding `<note>` of a score-partwise text together with its note key and the
@@ -133,7 +133,7 @@ export function scanNoteSites(partwiseXml: string): ScanResult {
     tagStart = startOfTag();
   });
 
-  parser.on("opentag", (tag: SaxesTagPlain) => {
+  parser.on("opentag", (tag: SaxesTag) => {
     const name = tag.name;
     const attrs = tag.attributes as Record<string, string>;
     stack.push(name);
@@ -202,7 +202,7 @@ export function scanNoteSites(partwiseXml: string): ScanResult {
     text += t;
   });
 
-  parser.on("closetag", (tag: SaxesTagPlain) => {
+  parser.on("closetag", (tag: SaxesTag) => {
     const name = tag.name;
     const depth = stack.length;
     stack.pop();
