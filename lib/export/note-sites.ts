@@ -119,8 +119,8 @@ export function scanNoteSites(partwiseXml: string): ScanResult {
   let lastAnchor = 0;
   let graceCounts = new Map<string, number>();
   let lastGraceIndex = 0;
-  // Open tie chains: `${staff}|${voice}|${midi}` → index of the chain's first site.
-  let openTies = new Map<string, number>();
+  // Open tie chains, by their first site; matched as the reader matches them.
+  let openTies: Array<{ first: number; staff: number; voice: string; midi: number }> = [];
   let note: NoteState | null = null;
   let moveDuration = 0;
   // Depth at which an Ondula-owned element started; everything inside it is skipped.
@@ -150,7 +150,7 @@ export function scanNoteSites(partwiseXml: string): ScanResult {
         if (parent === "score-partwise") {
           partId = attrs.id ?? "";
           measureIndex = -1;
-          openTies = new Map();
+          openTies = [];
         }
         break;
       case "measure":
@@ -168,9 +168,9 @@ export function scanNoteSites(partwiseXml: string): ScanResult {
           grace: false,
           rest: false,
           unpitched: false,
-          step: "C",
+          step: "",
           alter: 0,
-          octave: 4,
+          octave: Number.NaN,
           duration: 0,
           staff: null,
           voice: null,
@@ -190,10 +190,12 @@ export function scanNoteSites(partwiseXml: string): ScanResult {
           else if (name === "grace") note.grace = true;
           else if (name === "rest") note.rest = true;
           else if (name === "unpitched") note.unpitched = true;
-          else if (name === "tie") {
-            if (attrs.type === "start") note.tieStart = true;
-            if (attrs.type === "stop") note.tieStop = true;
-          } else if (AFTER_NOTATIONS.has(name) && note.notationsAt === null) note.notationsAt = tagStart;
+          else if (AFTER_NOTATIONS.has(name) && note.notationsAt === null) note.notationsAt = tagStart;
+        }
+        // Sound (`tie`) and notation (`tied`) both bind a chain, as the reader takes them.
+        if (note && (name === "tie" || name === "tied") && (parent === "note" || parent === "notations")) {
+          if (attrs.type === "start" || attrs.type === "continue") note.tieStart = true;
+          if (attrs.type === "stop" || attrs.type === "continue") note.tieStop = true;
         }
     }
   });
@@ -231,18 +233,20 @@ export function scanNoteSites(partwiseXml: string): ScanResult {
     if (name === "backup" || name === "forward") {
       const delta = frac(Math.round(moveDuration * 1000), divisions * 4 * 1000);
       pos = add(pos, name === "backup" ? { num: -delta.num, den: delta.den } : delta);
+      if (pos.num < 0) pos = { num: 0, den: 1 }; // a backup never crosses the barline
       return;
     }
-    if (note && parent === "pitch") {
-      if (name === "step") note.step = value;
-      else if (name === "alter") note.alter = Number(value) || 0;
-      else if (name === "octave") note.octave = Number(value);
+    if (note && (parent === "pitch" || parent === "unpitched")) {
+      // An unpitched note is keyed by its display position, as the reader keys it.
+      if (name === "step" || name === "display-step") note.step = value;
+      else if (name === "alter" && parent === "pitch") note.alter = Number(value) || 0;
+      else if (name === "octave" || name === "display-octave") note.octave = parseInt(value, 10);
       return;
     }
     if (note && parent === "note") {
       if (name === "duration") note.duration = Number(value) || 0;
       else if (name === "staff") note.staff = Number(value) || 1;
-      else if (name === "voice") note.voice = value;
+      else if (name === "voice") note.voice = value || "1";
       return;
     }
     if (name === "note" && note) {
@@ -261,10 +265,10 @@ export function scanNoteSites(partwiseXml: string): ScanResult {
         pos = add(pos, frac(Math.round(n.duration * 1000), divisions * 4 * 1000));
       }
     }
-    if (n.rest || n.unpitched) return;
+    if (n.rest || !Object.hasOwn(STEP_PC, n.step) || !Number.isFinite(n.octave)) return;
     const staff = n.staff ?? 1;
     const voice = n.voice ?? "1";
-    const midi = 12 * (n.octave + 1) + (STEP_PC[n.step] ?? 0) + Math.round(n.alter);
+    const midi = 12 * (n.octave + 1) + STEP_PC[n.step] + Math.round(n.alter);
     let graceIndex = 0;
     if (n.grace) {
       if (n.chord) graceIndex = lastGraceIndex;
@@ -276,16 +280,17 @@ export function scanNoteSites(partwiseXml: string): ScanResult {
       lastGraceIndex = graceIndex;
     }
     const index = sites.length;
-    const tieSlot = `${staff}|${voice}|${midi}`;
     let key = formatNoteKey({ partId, measureIndex, staff, voice, onset, midi, graceIndex });
     let isContinuation = false;
     if (n.tieStop && !n.grace) {
-      const first = openTies.get(tieSlot);
-      if (first !== undefined) {
+      let i = openTies.findIndex((t) => t.midi === midi && t.voice === voice && t.staff === staff);
+      if (i < 0) i = openTies.findIndex((t) => t.midi === midi);
+      if (i >= 0) {
+        const first = openTies[i].first;
         key = sites[first].key;
         isContinuation = true;
         sites[first].chainEndIndex = index;
-        openTies.delete(tieSlot);
+        if (!n.tieStart) openTies.splice(i, 1);
       }
     }
     sites.push({
@@ -304,17 +309,12 @@ export function scanNoteSites(partwiseXml: string): ScanResult {
       notationsAt: n.notationsAt ?? closeAt,
       carriers: n.carriers,
     });
-    if (n.tieStart && !n.grace) {
-      // A continuation that starts a new tie extends the chain: later stops find its first note.
-      const first = isContinuation ? firstOfChain(index) : index;
-      openTies.set(tieSlot, first);
+    if (n.tieStart && !n.grace && !isContinuation) {
+      // A new chain on this pitch replaces a stale one that never found its stop.
+      const stale = openTies.findIndex((t) => t.midi === midi && t.voice === voice);
+      if (stale >= 0) openTies.splice(stale, 1);
+      openTies.push({ first: index, staff, voice, midi });
     }
-  }
-
-  function firstOfChain(index: number): number {
-    const key = sites[index].key;
-    for (let i = index - 1; i >= 0; i--) if (sites[i].key === key && !sites[i].isContinuation) return i;
-    return index;
   }
 
   parser.write(partwiseXml).close();
