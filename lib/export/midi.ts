@@ -162,6 +162,7 @@ export function renderMidi(
       const step = 1 / (m.speedHz * BEND_POINTS_PER_CYCLE);
       for (let t = vibStart; t < endSeconds; t += step) {
         const ticks = Math.max(FIRST_BEND_TICK, map.toTicks(t));
+        if (ticks >= endTicks) break;
         track.addPitchBend({ ticks, value: centsToSignedBend(centsAt(m, s, t), semitones) });
       }
       track.addPitchBend({ ticks: Math.max(FIRST_BEND_TICK, endTicks), value: 0 });
