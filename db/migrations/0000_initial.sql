@@ -117,6 +117,7 @@ CREATE TABLE "parts" (
 	"tempo" real,
 	"measure_count" integer DEFAULT 0 NOT NULL,
 	"note_count" integer DEFAULT 0 NOT NULL,
+	"note_keys" text[] DEFAULT '{}'::text[] NOT NULL,
 	"analysis" jsonb,
 	"analysis_version" integer DEFAULT 0 NOT NULL,
 	"version" integer DEFAULT 1 NOT NULL,

@@ -34,6 +34,8 @@ export const parts = pgTable(
     tempo: real("tempo"),
     measureCount: integer("measure_count").notNull().default(0),
     noteCount: integer("note_count").notNull().default(0),
+    /** Keys of the chosen part's markable notes; a marking on any other key is refused. */
+    noteKeys: text("note_keys").array().notNull().default(sql`'{}'::text[]`),
     /** The analysis result of every part of the score (command-line shape), with its version. */
     analysis: jsonb("analysis"),
     analysisVersion: integer("analysis_version").notNull().default(0),
