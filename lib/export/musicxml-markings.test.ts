@@ -2,6 +2,7 @@ import { readFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { validateMusicXml } from "@/tests/helpers/musicxml-xsd";
+import { readScoreFile } from "@/lib/musicxml";
 import type { MarkingValues } from "@/lib/markings/schema";
 import { decodeCarrier, encodeCarrier, markingLabel } from "./marking-text";
 import {
@@ -63,6 +64,10 @@ describe("note sites", () => {
     ]);
     const sites = scanNoteSites(duet).sites;
     expect(sites[4].chainEndIndex).toBe(6);
+    // The reader's model has exactly these keys (continuations merged).
+    const { score } = readScoreFile(new TextEncoder().encode(duet), "duet.musicxml");
+    const model = score.parts.flatMap((p) => p.notes.filter((n) => n.key !== "").map((n) => n.key));
+    expect([...new Set(keys)].sort()).toEqual([...model].sort());
     expect(sites.filter((s) => s.isContinuation).map((s) => s.index)).toEqual([5, 6]);
   });
 });
@@ -113,6 +118,14 @@ describe("MusicXML with markings", () => {
     const back = extractMarkingsWithReport(xml);
     expect(back.problems).toEqual([]);
     expect(back.markings).toEqual(markings);
+  });
+
+  it("recovers every marking after the export is read back through Ondula's reader", () => {
+    const xml = embedMarkings(duet, markings);
+    const again = readScoreFile(new TextEncoder().encode(xml), "duet.exported.musicxml");
+    const before = readScoreFile(new TextEncoder().encode(duet), "duet.musicxml");
+    expect(again.score.parts.map((p) => p.notes.map((n) => n.key))).toEqual(before.score.parts.map((p) => p.notes.map((n) => n.key)));
+    expect(extractMarkingsWithReport(again.partwiseXml)).toEqual({ markings, problems: [] });
   });
 
   it("shows the marking with words above the note and a vibrato wavy line over the whole tie chain", () => {

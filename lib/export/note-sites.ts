@@ -1,12 +1,14 @@
 import { SaxesParser, type SaxesTag } from "saxes";
+import { noteKey } from "@/lib/musicxml/note-key";
 
 /**
  * Finds every sounding `<note>` of a score-partwise text together with its note key and the
  * character offsets where markings can be written into it, without rebuilding the document: the
  * export splices text into the original so everything Ondula does not own stays byte for byte.
  *
- * The key follows the brief's format (`P1:m12:s1:v1:3/8:70`, `:g1` for grace notes) and must
- * equal the reader's; a test compares the two on every sample.
+ * Keys are built by the shared `noteKey` with the reader's rules (measure index, staff, voice,
+ * onset, pitch, grace index; a tie continuation takes its first note's key); a test checks that
+ * they equal the reader's keys on every sample.
  */
 
 /** Prefix of every `id` attribute on an element Ondula writes, so a later export can remove them. */
@@ -67,20 +69,6 @@ function frac(num: number, den: number): Frac {
 }
 function add(a: Frac, b: Frac): Frac {
   return frac(a.num * b.den + b.num * a.den, a.den * b.den);
-}
-
-/** The note key as the brief defines it. */
-export function formatNoteKey(k: {
-  partId: string;
-  measureIndex: number;
-  staff: number;
-  voice: string;
-  onset: Frac;
-  midi: number;
-  graceIndex: number;
-}): string {
-  const base = `${k.partId}:m${k.measureIndex}:s${k.staff}:v${k.voice}:${k.onset.num}/${k.onset.den}:${k.midi}`;
-  return k.graceIndex > 0 ? `${base}:g${k.graceIndex}` : base;
 }
 
 interface NoteState {
@@ -280,7 +268,7 @@ export function scanNoteSites(partwiseXml: string): ScanResult {
       lastGraceIndex = graceIndex;
     }
     const index = sites.length;
-    let key = formatNoteKey({ partId, measureIndex, staff, voice, onset, midi, graceIndex });
+    let key = noteKey({ partId, measureIndex, staff, voice, onset, midi, graceIndex });
     let isContinuation = false;
     if (n.tieStop && !n.grace) {
       let i = openTies.findIndex((t) => t.midi === midi && t.voice === voice && t.staff === staff);
