@@ -1,24 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { BrowserContext, Page } from "playwright-core";
+import type { BrowserContext } from "playwright-core";
 import { launchContext, screenshotPath } from "../helpers/browser";
 import { APP_URL, DEMO_PASSWORD } from "../helpers/env";
+import { openMailLink, signInThroughForm } from "../helpers/pages";
 import { uniqueSuffix } from "../helpers/session";
-
-/** Page objects: what a person sees and does, found by role and label. */
-async function signInThroughForm(page: Page, email: string, password: string, callbackUrl: string) {
-  await page.goto(`${APP_URL}/sign-in?callbackUrl=${encodeURIComponent(callbackUrl)}`);
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((url) => url.pathname === callbackUrl.split("?")[0]);
-}
-
-async function openMailLink(page: Page, to: string, subject: RegExp, path: string) {
-  await page.goto(`${APP_URL}/dev/mail`);
-  const message = page.locator("article").filter({ hasText: to }).filter({ has: page.getByRole("heading", { name: subject }) }).first();
-  await message.getByRole("link", { name: new RegExp(`${path}\\?token=`) }).click();
-  await page.waitForURL((url) => url.pathname === path);
-}
 
 describe("accounts in the browser", () => {
   let player: BrowserContext;
