@@ -1,0 +1,83 @@
+/**
+ * The Krumhansl–Schmuckler key-finding algorithm (Krumhansl 1990, Cognitive Foundations of
+ * Musical Pitch): correlate a duration-weighted pitch-class histogram with a key profile rotated
+ * onto each of the 24 tonics; the best correlation names the key.
+ */
+import type { Mode } from "./types";
+import { DECISION_PROFILES, type KeyProfile } from "./profiles";
+import { mod } from "./spelling";
+
+export interface KeyCandidate {
+  /** Pitch class of the tonic, C = 0. */
+  tonicPc: number;
+  mode: Mode;
+  r: number;
+}
+
+/** Pearson's correlation coefficient; 0 when either side has no variance. */
+export function pearson(x: readonly number[], y: readonly number[]): number {
+  const n = x.length;
+  let mx = 0;
+  let my = 0;
+  for (let i = 0; i < n; i++) {
+    mx += x[i];
+    my += y[i];
+  }
+  mx /= n;
+  my /= n;
+  let sxy = 0;
+  let sxx = 0;
+  let syy = 0;
+  for (let i = 0; i < n; i++) {
+    const dx = x[i] - mx;
+    const dy = y[i] - my;
+    sxy += dx * dy;
+    sxx += dx * dx;
+    syy += dy * dy;
+  }
+  if (sxx === 0 || syy === 0) return 0;
+  return sxy / Math.sqrt(sxx * syy);
+}
+
+/** The profile rotated so that its tonic sits on `tonicPc`: y[n] = profile[(n − k) mod 12]. */
+export function rotate(profile: readonly number[], tonicPc: number): number[] {
+  const out = new Array<number>(12);
+  for (let n = 0; n < 12; n++) out[n] = profile[mod(n - tonicPc, 12)];
+  return out;
+}
+
+/** Correlation of a histogram (index = pitch class) with one key. */
+export function keyCorrelation(histogram: readonly number[], profile: KeyProfile, tonicPc: number, mode: Mode): number {
+  return pearson(histogram, rotate(mode === "major" ? profile.major : profile.minor, tonicPc));
+}
+
+/** All 24 keys, best first. Ties keep major before minor and lower tonic first (stable order). */
+export function findKey(histogram: readonly number[], profile: KeyProfile): KeyCandidate[] {
+  const out: KeyCandidate[] = [];
+  for (const mode of ["major", "minor"] as const) {
+    for (let pc = 0; pc < 12; pc++) out.push({ tonicPc: pc, mode, r: keyCorrelation(histogram, profile, pc, mode) });
+  }
+  return out.sort((a, b) => b.r - a.r);
+}
+
+/** Mean correlation over several profiles: one profile's known bias (e.g. K–K toward the
+ * dominant, Aarden toward the subdominant) is damped by the others. */
+export function meanCorrelation(
+  histogram: readonly number[],
+  tonicPc: number,
+  mode: Mode,
+  profiles: readonly KeyProfile[] = DECISION_PROFILES,
+): number {
+  let sum = 0;
+  for (const p of profiles) sum += keyCorrelation(histogram, p, tonicPc, mode);
+  return sum / profiles.length;
+}
+
+/** All 24 keys by mean correlation over the decision profiles, best first. */
+export function findKeyMean(histogram: readonly number[], profiles: readonly KeyProfile[] = DECISION_PROFILES): KeyCandidate[] {
+  const out: KeyCandidate[] = [];
+  for (const mode of ["major", "minor"] as const) {
+    for (let pc = 0; pc < 12; pc++) out.push({ tonicPc: pc, mode, r: meanCorrelation(histogram, pc, mode, profiles) });
+  }
+  return out.sort((a, b) => b.r - a.r);
+}
