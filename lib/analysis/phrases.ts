@@ -156,8 +156,11 @@ export function findPhrases(seq: readonly MelodyNote[], measures: readonly Measu
     const c = writtenCue(seq, k, measures, keyStarts);
     if (c) written.push({ k, ...c });
   }
+  // A slur that ends where the next begins closes a group when the melody also marks it (a
+  // longer note, a leap): its strength grows with the LBDM profile there.
+  for (const c of written) if (c.cue === "slur") c.strength = Math.min(0.95, c.strength + 0.5 * b[c.k]);
   written.sort((x, y) => y.strength - x.strength || b[y.k] - b[x.k] || x.k - y.k);
-  for (const c of written) if (c.cue !== "slur" && fits(c.k)) accept(c.k, c.cue, c.strength);
+  for (const c of written) if (fits(c.k)) accept(c.k, c.cue, c.strength);
 
   // Split phrases that run on, at the strongest LBDM peak (a slur join adds to the profile).
   const slurJoin = new Set(written.filter((c) => c.cue === "slur").map((c) => c.k));

@@ -36,10 +36,10 @@ export interface TensionFinding {
 export const TENSION_CONFIDENCE = {
   leadingToneResolved: 0.9,
   leadingToneOrnamented: 0.8,
-  leadingToneLeft: 0.55,
-  leadingTonePassingDown: 0.3,
+  leadingToneLeft: 0.6,
+  leadingTonePassingDown: 0.5,
   fourthToThird: 0.7,
-  fourthToThirdPassing: 0.4,
+  fourthToThirdPassing: 0.55,
   loweredSixth: 0.8,
   loweredSixthLeft: 0.35,
   fourthToMinorThird: 0.45,
