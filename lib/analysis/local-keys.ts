@@ -29,8 +29,9 @@ export interface LocalKeySpan {
  * cadence and short enough to catch a tonicization. A window votes for another key only when its
  * mean correlation beats the section key's by at least `margin` and reaches `minR`, and it holds a
  * note that is foreign to the section key but belongs to the new one (its leading tone, say) —
- * pitch content alone (a bar of G and D) is no modulation. A measure takes the local key when
- * most of the windows covering it voted for it, and a local key must last `minMeasures`.
+ * pitch content alone (a bar of G and D) is no modulation. A measure takes the key most of its
+ * covering windows voted for; the span is then trimmed to the music (see below) and must last
+ * `minMeasures`.
  */
 export const LOCAL_KEY = { windowMeasures: 4, margin: 0.15, minR: 0.7, minMeasures: 2, accompanimentWeight: 0.5 } as const;
 
@@ -106,21 +107,46 @@ export function localKeysOf(section: KeySection, melody: readonly MelodyNote[], 
     }
     votes.push(vote);
   }
+  // Each measure takes the key most windows covering it voted for …
   const assigned: Array<Key | null> = [];
   for (let i = 0; i < n; i++) {
-    const covering = votes.slice(Math.max(0, i - windowMeasures + 1), Math.min(votes.length, i + 1));
     const tally = new Map<string, { key: Key; count: number }>();
-    for (const v of covering) {
+    for (let s = Math.max(0, i - windowMeasures + 1); s <= Math.min(votes.length - 1, i); s++) {
+      const v = votes[s];
       if (!v) continue;
       const id = `${v.tonicLof}:${v.mode}`;
       const t = tally.get(id) ?? { key: v, count: 0 };
       t.count++;
       tally.set(id, t);
     }
-    let pick: Key | null = null;
-    for (const t of tally.values()) if (t.count * 2 > covering.length && t.count >= Math.min(2, covering.length)) pick = t.key;
-    // A local key never starts in an empty bar.
-    assigned.push(pick && notesIn[i].length > 0 ? pick : pick && assigned[i - 1] && sameKey(assigned[i - 1] as Key, pick) ? pick : null);
+    let pick: { key: Key; count: number } | null = null;
+    for (const t of tally.values()) if (!pick || t.count > pick.count) pick = t;
+    assigned.push(pick ? pick.key : null);
+  }
+  // … but a bar holding a note of the section key that the local key lacks (a C♮ against D
+  // major) breaks the local key; a local key begins at its first bar with a foreign note (its
+  // evidence) and its closing bars are trimmed while they fit the section key as well or better.
+  const foreign = (i: number, k: Key) => notesIn[i].some((m) => !inKey(m.lof, k) && inKey(m.lof, section.key));
+  const evidence = (i: number, k: Key) => notesIn[i].some((m) => !inKey(m.lof, section.key) && inKey(m.lof, k));
+  const fitsSection = (i: number, k: Key) => {
+    const h = perMeasure[i];
+    if (h.every((v) => v === 0) || foreign(i, k)) return true;
+    return meanCorrelation(h, pcOfLof(section.key.tonicLof), section.key.mode) >= meanCorrelation(h, pcOfLof(k.tonicLof), k.mode);
+  };
+  for (let i = 0; i < n; i++) if (assigned[i] && foreign(i, assigned[i] as Key)) assigned[i] = null;
+  for (let i = 0; i < n; ) {
+    const k = assigned[i];
+    if (!k) {
+      i++;
+      continue;
+    }
+    let j = i;
+    while (j + 1 < n && assigned[j + 1] && sameKey(assigned[j + 1] as Key, k)) j++;
+    let a = i;
+    let z = j;
+    while (a <= z && !evidence(a, k)) assigned[a++] = null;
+    while (z >= a && fitsSection(z, k)) assigned[z--] = null;
+    i = j + 1;
   }
   const spans: LocalKeySpan[] = [];
   for (let i = 0; i < n; ) {
