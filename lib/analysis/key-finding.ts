@@ -46,9 +46,40 @@ export function rotate(profile: readonly number[], tonicPc: number): number[] {
   return out;
 }
 
-/** Correlation of a histogram (index = pitch class) with one key. */
+interface ProfileStats {
+  centred: Float64Array;
+  ss: number;
+}
+const statsCache = new WeakMap<readonly number[], ProfileStats>();
+
+/** Profile values minus their mean, and their sum of squares (rotation changes neither). */
+function statsOf(profile: readonly number[]): ProfileStats {
+  let st = statsCache.get(profile);
+  if (!st) {
+    const mean = profile.reduce((a, b) => a + b, 0) / profile.length;
+    const centred = Float64Array.from(profile, (v) => v - mean);
+    st = { centred, ss: centred.reduce((a, v) => a + v * v, 0) };
+    statsCache.set(profile, st);
+  }
+  return st;
+}
+
+/** Correlation of a histogram (index = pitch class) with one key: Pearson's r against the
+ * rotated profile, computed without building the rotation. */
 export function keyCorrelation(histogram: readonly number[], profile: KeyProfile, tonicPc: number, mode: Mode): number {
-  return pearson(histogram, rotate(mode === "major" ? profile.major : profile.minor, tonicPc));
+  const { centred, ss } = statsOf(mode === "major" ? profile.major : profile.minor);
+  let mx = 0;
+  for (let i = 0; i < 12; i++) mx += histogram[i];
+  mx /= 12;
+  let sxy = 0;
+  let sxx = 0;
+  for (let i = 0; i < 12; i++) {
+    const dx = histogram[i] - mx;
+    sxy += dx * centred[(i - tonicPc + 12) % 12];
+    sxx += dx * dx;
+  }
+  if (sxx === 0 || ss === 0) return 0;
+  return sxy / Math.sqrt(sxx * ss);
 }
 
 /** All 24 keys, best first. Ties keep major before minor and lower tonic first (stable order). */
@@ -80,4 +111,16 @@ export function findKeyMean(histogram: readonly number[], profiles: readonly Key
     for (let pc = 0; pc < 12; pc++) out.push({ tonicPc: pc, mode, r: meanCorrelation(histogram, pc, mode, profiles) });
   }
   return out.sort((a, b) => b.r - a.r);
+}
+
+/** The best of the 24 keys by mean correlation over the decision profiles (no ranking built). */
+export function bestKeyMean(histogram: readonly number[], profiles: readonly KeyProfile[] = DECISION_PROFILES): KeyCandidate {
+  let best: KeyCandidate = { tonicPc: 0, mode: "major", r: -Infinity };
+  for (const mode of ["major", "minor"] as const) {
+    for (let pc = 0; pc < 12; pc++) {
+      const r = meanCorrelation(histogram, pc, mode, profiles);
+      if (r > best.r) best = { tonicPc: pc, mode, r };
+    }
+  }
+  return best;
 }

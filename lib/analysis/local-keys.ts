@@ -6,7 +6,7 @@
 import type { Measure } from "@/lib/musicxml/model";
 import { inKey } from "./degree";
 import { type Key, fifthsOf, inferMode, keyFromSignature, sameKey } from "./key";
-import { findKeyMean, meanCorrelation } from "./key-finding";
+import { bestKeyMean, meanCorrelation } from "./key-finding";
 import type { MelodyNote } from "./melody";
 import { mod, pcOfLof } from "./spelling";
 
@@ -97,7 +97,7 @@ export function localKeysOf(section: KeySection, melody: readonly MelodyNote[], 
   for (let s = 0; s + windowMeasures <= n; s++) {
     const h = new Array<number>(12).fill(0);
     for (let i = s; i < s + windowMeasures; i++) for (let pc = 0; pc < 12; pc++) h[pc] += perMeasure[i][pc];
-    const best = findKeyMean(h)[0];
+    const best = bestKeyMean(h);
     const rSection = meanCorrelation(h, pcOfLof(section.key.tonicLof), section.key.mode);
     const cand = spellTonic(best.tonicPc, best.mode, section.fifths);
     let vote: Key | null = null;

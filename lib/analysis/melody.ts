@@ -110,13 +110,28 @@ export function extractMelody(part: PartModel, timeline: Timeline): MelodyNote[]
   const mv = melodyVoice(part);
   if (!mv) return [];
   const out: MelodyNote[] = [];
-  const byOnset = new Map<string, MelodyNote>();
+  let last: MelodyNote | null = null;
   for (const n of part.notes) {
     if (n.isRest || n.isCue || !n.pitch || n.staff !== mv.staff || n.voice !== mv.voice) continue;
-    const onset = frac(n.onset);
+    // Chord members share the measure, onset and grace slot of the note they sound with.
+    if (
+      last &&
+      last.measureIndex === n.measureIndex &&
+      last.note.onset.num * n.onset.den === n.onset.num * last.note.onset.den &&
+      last.grace === n.isGrace &&
+      last.note.graceIndex === n.graceIndex
+    ) {
+      if (n.pitch.midi > last.midi) {
+        const top: MelodyNote = { ...last, note: n, midi: n.pitch.midi, lof: lofOf(n.pitch.step, n.pitch.alter), step: n.pitch.step };
+        out[out.length - 1] = top;
+        last = top;
+      }
+      continue;
+    }
+    const onset = n.onset.num / n.onset.den;
     const pos = timeline.measureStart[n.measureIndex] + onset;
-    const dur = n.isGrace ? 0 : frac(n.duration);
-    const m: MelodyNote = {
+    const dur = n.isGrace ? 0 : n.duration.num / n.duration.den;
+    last = {
       note: n,
       midi: n.pitch.midi,
       lof: lofOf(n.pitch.step, n.pitch.alter),
@@ -129,19 +144,12 @@ export function extractMelody(part: PartModel, timeline: Timeline): MelodyNote[]
       metric: n.isGrace ? 0 : metricStrength(onset, part.measures[n.measureIndex]),
       grace: n.isGrace,
     };
-    const slot = `${n.measureIndex}:${n.onset.num}/${n.onset.den}:${n.isGrace ? `g${n.graceIndex}` : "m"}`;
-    const prev = byOnset.get(slot);
-    if (prev) {
-      if (m.midi > prev.midi) {
-        out[out.indexOf(prev)] = m;
-        byOnset.set(slot, m);
-      }
-      continue;
-    }
-    byOnset.set(slot, m);
-    out.push(m);
+    out.push(last);
   }
-  out.sort((a, b) => a.pos - b.pos || Number(b.grace) - Number(a.grace) || a.note.graceIndex - b.note.graceIndex);
+  const before = (a: MelodyNote, b: MelodyNote) => a.pos - b.pos || Number(b.grace) - Number(a.grace) || a.note.graceIndex - b.note.graceIndex;
+  let sorted = true;
+  for (let i = 1; i < out.length && sorted; i++) if (before(out[i - 1], out[i]) > 0) sorted = false;
+  if (!sorted) out.sort(before);
   return out;
 }
 

@@ -42,10 +42,12 @@ function beatLength(m: Measure): number {
 function writtenCue(seq: readonly MelodyNote[], k: number, measures: readonly Measure[], keyStarts: ReadonlySet<number>): { cue: BoundaryCue; strength: number } | null {
   const a = seq[k - 1];
   const b = seq[k];
-  const cues: Array<{ cue: BoundaryCue; strength: number }> = [];
-  const gap = b.pos - a.end;
-  if (gap > 1e-9) cues.push({ cue: "rest", strength: Math.min(1, CUE.restBase + (0.4 * gap) / beatLength(measures[a.measureIndex])) });
   const marks = a.note.marks;
+  const gap = b.pos - a.end;
+  // Most boundaries carry no written cue: leave before building anything.
+  if (gap <= 1e-9 && !marks.breathMark && !marks.caesura && !marks.fermata && b.measureIndex === a.measureIndex && marks.slurStops.length === 0) return null;
+  const cues: Array<{ cue: BoundaryCue; strength: number }> = [];
+  if (gap > 1e-9) cues.push({ cue: "rest", strength: Math.min(1, CUE.restBase + (0.4 * gap) / beatLength(measures[a.measureIndex])) });
   if (marks.breathMark) cues.push({ cue: "breath", strength: CUE.breath });
   if (marks.caesura) cues.push({ cue: "caesura", strength: CUE.caesura });
   if (marks.fermata) cues.push({ cue: "fermata", strength: CUE.fermata });

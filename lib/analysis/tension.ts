@@ -105,6 +105,9 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
     const prev = seq[i - 1];
     const off = n.lof - key.tonicLof;
     const inf = inflectionOf(n.lof, key);
+    // Most notes are no tension tone: only the rules' candidates go on.
+    const candidate = off === 5 || off === -1 || (key.mode === "minor" && off === -4) || inf !== 0 || (prev && next && n.metric >= 2);
+    if (!candidate) continue;
     const name = displayName(n.lof);
     const kname = displayKey(key);
     const what = describeDegree(n.lof, key);
