@@ -46,8 +46,21 @@ export function inKey(noteLof: number, key: Key): boolean {
 const NAMES = ["tonic", "supertonic", "mediant", "subdominant", "dominant", "submediant", "seventh"];
 const ORDINALS = ["first", "second", "third", "fourth", "fifth", "sixth", "seventh"];
 
+const describeCache = new Map<number, string>();
+
 /** "the leading tone", "the subdominant (fourth degree)", "a raised fourth degree". */
 export function describeDegree(noteLof: number, key: Key): string {
+  // Line-of-fifths positions stay far inside ±1000: one number identifies note, tonic and mode.
+  const id = ((noteLof + 1000) * 2000 + (key.tonicLof + 1000)) * 2 + (key.mode === "major" ? 0 : 1);
+  let text = describeCache.get(id);
+  if (text === undefined) {
+    text = describe(noteLof, key);
+    describeCache.set(id, text);
+  }
+  return text;
+}
+
+function describe(noteLof: number, key: Key): string {
   const d = degreeOf(noteLof, key);
   const inf = inflectionOf(noteLof, key);
   if (noteLof === leadingToneLof(key)) return key.mode === "minor" ? "the raised seventh, the leading tone," : "the leading tone";

@@ -80,10 +80,13 @@ export function analyzePart(score: ScoreModel, part: PartModel): PartAnalysis {
   const keyStarts = new Set(sections.slice(1).map((s) => s.fromIndex));
   const phrases = findPhrases(main, part.measures, keyStarts);
   const ctx = { seq: main, keyAt, bar };
-  const order = new Map(main.map((m, i) => [m.note.key, i]));
-  const suggestions = [...phraseSuggestions(phrases, ctx), ...tensionSuggestions(tensions, ctx)].sort(
-    (a, b) => (order.get(a.note) ?? 0) - (order.get(b.note) ?? 0) || ROLE_ORDER[a.role] - ROLE_ORDER[b.role],
-  );
+  // Suggestions in time order, then by role, sorted on one number each.
+  const order = new Map<string, number>();
+  for (let i = 0; i < main.length; i++) order.set(main[i].note.key, i);
+  const suggestions = [...phraseSuggestions(phrases, ctx), ...tensionSuggestions(tensions, ctx)]
+    .map((s) => ({ s, rank: (order.get(s.note) ?? 0) * 4 + ROLE_ORDER[s.role] }))
+    .sort((a, b) => a.rank - b.rank)
+    .map((x) => x.s);
 
   return {
     id: part.id,

@@ -113,12 +113,30 @@ export function findKeyMean(histogram: readonly number[], profiles: readonly Key
   return out.sort((a, b) => b.r - a.r);
 }
 
-/** The best of the 24 keys by mean correlation over the decision profiles (no ranking built). */
+/** The best of the 24 keys by mean correlation over the decision profiles (no ranking built;
+ * the histogram's own mean and spread are computed once for all 72 correlations). */
 export function bestKeyMean(histogram: readonly number[], profiles: readonly KeyProfile[] = DECISION_PROFILES): KeyCandidate {
-  let best: KeyCandidate = { tonicPc: 0, mode: "major", r: -Infinity };
+  let mx = 0;
+  for (let i = 0; i < 12; i++) mx += histogram[i];
+  mx /= 12;
+  const dx = new Float64Array(12);
+  let sxx = 0;
+  for (let i = 0; i < 12; i++) {
+    dx[i] = histogram[i] - mx;
+    sxx += dx[i] * dx[i];
+  }
+  let best: KeyCandidate = { tonicPc: 0, mode: "major", r: sxx === 0 ? 0 : -Infinity };
+  if (sxx === 0) return best;
   for (const mode of ["major", "minor"] as const) {
+    const stats = profiles.map((p) => statsOf(mode === "major" ? p.major : p.minor));
     for (let pc = 0; pc < 12; pc++) {
-      const r = meanCorrelation(histogram, pc, mode, profiles);
+      let sum = 0;
+      for (const { centred, ss } of stats) {
+        let sxy = 0;
+        for (let i = 0; i < 12; i++) sxy += dx[i] * centred[(i - pc + 12) % 12];
+        sum += ss === 0 ? 0 : sxy / Math.sqrt(sxx * ss);
+      }
+      const r = sum / stats.length;
       if (r > best.r) best = { tonicPc: pc, mode, r };
     }
   }

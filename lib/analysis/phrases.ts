@@ -126,10 +126,6 @@ class IndexSet {
     const r = this.rank(i);
     return r >= this.size ? fallback : this.select(r + 1);
   }
-
-  has(i: number): boolean {
-    return this.prev(i) === i;
-  }
 }
 
 /**

@@ -40,8 +40,19 @@ export function asciiName(lof: number): string {
   return stepOfLof(lof) + (alter > 0 ? "#".repeat(alter) : "b".repeat(-alter));
 }
 
+const displayCache = new Map<number, string>();
+
 /** "F♯", "B♭", "C𝄪", "D𝄫": the spelling used in sentences a player reads. */
 export function displayName(lof: number): string {
+  let text = displayCache.get(lof);
+  if (text === undefined) {
+    text = spellForDisplay(lof);
+    displayCache.set(lof, text);
+  }
+  return text;
+}
+
+function spellForDisplay(lof: number): string {
   const alter = alterOfLof(lof);
   let acc = "";
   if (alter > 0) acc = "𝄪".repeat(Math.floor(alter / 2)) + (alter % 2 ? "♯" : "");
