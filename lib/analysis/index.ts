@@ -69,7 +69,7 @@ export function analyzePart(score: ScoreModel, part: PartModel): PartAnalysis {
     degree: degreeOf(m.lof, keyAt(m)),
   }));
 
-  const accompaniment = new Accompaniment(score, part, timeline);
+  const accompaniment = new Accompaniment(score, part, timeline, melody);
   const noChord = new Set<number>();
   const tensions = findTensions({
     seq: main,

@@ -22,6 +22,8 @@ export interface MelodyNote {
   /** 3 = downbeat, 2 = other strong beat, 1 = beat, 0 = off the beat. */
   metric: number;
   grace: boolean;
+  /** True when the note is the top of a chord written in this voice. */
+  chordTop: boolean;
 }
 
 export interface Timeline {
@@ -121,6 +123,7 @@ export function extractMelody(part: PartModel, timeline: Timeline): MelodyNote[]
       last.grace === n.isGrace &&
       last.note.graceIndex === n.graceIndex
     ) {
+      last.chordTop = true;
       if (n.pitch.midi > last.midi) {
         const top: MelodyNote = { ...last, note: n, midi: n.pitch.midi, lof: lofOf(n.pitch.step, n.pitch.alter), step: n.pitch.step };
         out[out.length - 1] = top;
@@ -143,6 +146,7 @@ export function extractMelody(part: PartModel, timeline: Timeline): MelodyNote[]
       onset,
       metric: n.isGrace ? 0 : metricStrength(onset, part.measures[n.measureIndex]),
       grace: n.isGrace,
+      chordTop: false,
     };
     out.push(last);
   }
@@ -153,15 +157,19 @@ export function extractMelody(part: PartModel, timeline: Timeline): MelodyNote[]
   return out;
 }
 
-/** Pitch classes sounding in the other parts at a position, bucketed by measure for speed. */
+/**
+ * Pitch classes sounding with the melody at a position: the other parts, and this part's own
+ * notes outside the melody line (chord members under the top note, other voices and staves).
+ * Bucketed by measure for speed.
+ */
 export class Accompaniment {
   private buckets = new Map<number, Array<{ pos: number; end: number; pc: number }>>();
 
-  constructor(score: ScoreModel, part: PartModel, timeline: Timeline) {
+  constructor(score: ScoreModel, part: PartModel, timeline: Timeline, melody: readonly MelodyNote[] = []) {
+    const inMelody = new Set(melody.map((m) => m.note));
     for (const p of score.parts) {
-      if (p === part) continue;
       for (const n of p.notes) {
-        if (n.isRest || n.isCue || n.isGrace || !n.pitch) continue;
+        if (n.isRest || n.isCue || n.isGrace || !n.pitch || (p === part && inMelody.has(n))) continue;
         const start = timeline.measureStart[n.measureIndex];
         if (start === undefined) continue;
         const pos = start + frac(n.onset);

@@ -123,6 +123,13 @@ describe("possible appoggiaturas and the other parts", () => {
     expect(conf(outside)).toBeGreaterThanOrEqual(0.5);
     expect(conf(inside)).toBeLessThan(find(analyze(melody, 0), "A5").confidence);
   });
+
+  it("counts the top of a written chord as a chord tone of its own part", () => {
+    // common practice: the notes of one written chord sound together, so none is a non-chord tone against the others.
+    const piano = buildPart("[E4,G4,C5]:q [G4,E5]:q [F4,D5]:q [E4,C5]:q | [C5,F5,A5]:h [C5,E5,G5]:q [C5,E5]:q | [F4,A4,C5]:w |]", { name: "Piano", fifths: 0 });
+    const a = find(analyzeScore(buildScore(piano), "t").parts[0], "A5");
+    expect(a.confidence).toBeLessThan(find(analyze(melody, 0), "A5").confidence);
+  });
 });
 
 /**

@@ -112,7 +112,8 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
     const kname = displayKey(key);
     const what = describeDegree(n.lof, key);
     const chord = chordAt(n);
-    const inChord = chord.size > 0 && chord.has(mod(n.midi, 12));
+    // The top of a written chord is a chord tone of its own part's harmony.
+    const inChord = n.chordTop || (chord.size > 0 && chord.has(mod(n.midi, 12)));
     const ruleNudge = chord.size > 0 && !inChord ? C.ruleOutsideChord : 0;
     const push = (kind: TensionKind, confidence: number, resolvesTo: number | null, reason: string) =>
       out.push({ index: i, kind, confidence: clamp(confidence + (kind === "appoggiatura" ? 0 : ruleNudge)), resolvesTo, key, reason });
@@ -186,7 +187,8 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
       const outIv = next.midi - n.midi;
       if (Math.abs(inIv) >= 3 && Math.abs(outIv) >= 1 && Math.abs(outIv) <= 2 && Math.sign(inIv) !== Math.sign(outIv) && n.dur >= next.dur - 1e-9) {
         let conf: number = C.appoggiatura;
-        if (chord.size > 0) conf += inChord ? C.insideChord : C.outsideChord;
+        if (inChord) conf += C.insideChord;
+        else if (chord.size > 0) conf += C.outsideChord;
         else if (inf === 0 && (deg === 1 || deg === 3 || deg === 5)) conf -= 0.1;
         push(
           "appoggiatura",
