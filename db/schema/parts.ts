@@ -34,6 +34,8 @@ export const parts = pgTable(
     tempo: real("tempo"),
     measureCount: integer("measure_count").notNull().default(0),
     noteCount: integer("note_count").notNull().default(0),
+    /** Keys of the chosen part's markable notes; a marking on any other key is refused. */
+    noteKeys: text("note_keys").array().notNull().default(sql`'{}'::text[]`),
     /** The analysis result of every part of the score (command-line shape), with its version. */
     analysis: jsonb("analysis"),
     analysisVersion: integer("analysis_version").notNull().default(0),
@@ -79,6 +81,8 @@ export const markingHistory = pgTable(
     action: historyAction("action").notNull(),
     before: jsonb("before"),
     after: jsonb("after"),
+    /** Changes made by one gesture (e.g. applying to a multi-note selection) undo together. */
+    groupId: uuid("group_id").notNull(),
     /** Set when the change came from accepting a teacher's proposal. */
     proposalId: uuid("proposal_id"),
     /** Undo marks a row undone; a new edit after undo discards the undone rows (redo is gone). */

@@ -10,6 +10,7 @@ export interface BenchSection {
 
 const sections: Array<() => Promise<{ default: BenchSection }>> = [
   // Each area adds its section here.
+  () => import("./reader"),
   () => import("./analysis"),
 ];
 
