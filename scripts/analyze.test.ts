@@ -4,6 +4,7 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import type { ScoreAnalysis } from "@/lib/analysis/types";
+import { generatePart } from "./bench/analysis";
 
 const root = path.resolve(import.meta.dirname, "..");
 const analyze = (...args: string[]) =>
@@ -52,7 +53,10 @@ describe("npm run --silent analyze", () => {
     expect(missing.status).toBe(2);
     oneLine(missing.stderr);
     expect(missing.stderr).toContain("no such file");
-    const part = analyze("samples/harbour-song.musicxml", "--part", "P9");
+    const dir = mkdtempSync(path.join(tmpdir(), "analyze-"));
+    const file = path.join(dir, "study.musicxml");
+    writeFileSync(file, generatePart(40));
+    const part = analyze(file, "--part", "P9");
     expect(part.status).toBe(2);
     oneLine(part.stderr);
     expect(part.stderr).toContain('"P9"');
