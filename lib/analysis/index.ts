@@ -81,10 +81,8 @@ export function analyzePart(score: ScoreModel, part: PartModel): PartAnalysis {
   const phrases = findPhrases(main, part.measures, keyStarts);
   const ctx = { seq: main, keyAt, bar };
   // Suggestions in time order, then by role, sorted on one number each.
-  const order = new Map<string, number>();
-  for (let i = 0; i < main.length; i++) order.set(main[i].note.key, i);
   const suggestions = [...phraseSuggestions(phrases, ctx), ...tensionSuggestions(tensions, ctx)]
-    .map((s) => ({ s, rank: (order.get(s.note) ?? 0) * 4 + ROLE_ORDER[s.role] }))
+    .map(([index, s]) => ({ s, rank: index * 4 + ROLE_ORDER[s.role] }))
     .sort((a, b) => a.rank - b.rank)
     .map((x) => x.s);
 

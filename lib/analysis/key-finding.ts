@@ -113,8 +113,34 @@ export function findKeyMean(histogram: readonly number[], profiles: readonly Key
   return out.sort((a, b) => b.r - a.r);
 }
 
-/** The best of the 24 keys by mean correlation over the decision profiles (no ranking built;
- * the histogram's own mean and spread are computed once for all 72 correlations). */
+const combinedCache = new WeakMap<readonly KeyProfile[], Float64Array[]>();
+
+/**
+ * For each of the 24 keys (major C…B, then minor C…B), the decision profiles rotated onto its
+ * tonic, centred, scaled by 1/√(their sum of squares) and averaged: the mean Pearson r over the
+ * profiles is then one dot product with the centred histogram, divided by its own √(Σ dx²).
+ */
+function combinedRotations(profiles: readonly KeyProfile[]): Float64Array[] {
+  let table = combinedCache.get(profiles);
+  if (!table) {
+    table = [];
+    for (const mode of ["major", "minor"] as const) {
+      const stats = profiles.map((p) => statsOf(mode === "major" ? p.major : p.minor));
+      for (let pc = 0; pc < 12; pc++) {
+        const v = new Float64Array(12);
+        for (const { centred, ss } of stats) {
+          if (ss === 0) continue;
+          for (let i = 0; i < 12; i++) v[i] += centred[(i - pc + 12) % 12] / Math.sqrt(ss) / stats.length;
+        }
+        table.push(v);
+      }
+    }
+    combinedCache.set(profiles, table);
+  }
+  return table;
+}
+
+/** The best of the 24 keys by mean correlation over the decision profiles (no ranking built). */
 export function bestKeyMean(histogram: readonly number[], profiles: readonly KeyProfile[] = DECISION_PROFILES): KeyCandidate {
   let mx = 0;
   for (let i = 0; i < 12; i++) mx += histogram[i];
@@ -125,20 +151,18 @@ export function bestKeyMean(histogram: readonly number[], profiles: readonly Key
     dx[i] = histogram[i] - mx;
     sxx += dx[i] * dx[i];
   }
-  let best: KeyCandidate = { tonicPc: 0, mode: "major", r: sxx === 0 ? 0 : -Infinity };
-  if (sxx === 0) return best;
-  for (const mode of ["major", "minor"] as const) {
-    const stats = profiles.map((p) => statsOf(mode === "major" ? p.major : p.minor));
-    for (let pc = 0; pc < 12; pc++) {
-      let sum = 0;
-      for (const { centred, ss } of stats) {
-        let sxy = 0;
-        for (let i = 0; i < 12; i++) sxy += dx[i] * centred[(i - pc + 12) % 12];
-        sum += ss === 0 ? 0 : sxy / Math.sqrt(sxx * ss);
-      }
-      const r = sum / stats.length;
-      if (r > best.r) best = { tonicPc: pc, mode, r };
+  if (sxx === 0) return { tonicPc: 0, mode: "major", r: 0 };
+  const table = combinedRotations(profiles);
+  let bestK = 0;
+  let bestDot = -Infinity;
+  for (let k = 0; k < 24; k++) {
+    const v = table[k];
+    let dot = 0;
+    for (let i = 0; i < 12; i++) dot += dx[i] * v[i];
+    if (dot > bestDot) {
+      bestDot = dot;
+      bestK = k;
     }
   }
-  return best;
+  return { tonicPc: bestK % 12, mode: bestK < 12 ? "major" : "minor", r: bestDot / Math.sqrt(sxx) };
 }

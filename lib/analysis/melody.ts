@@ -166,10 +166,15 @@ export class Accompaniment {
   private buckets = new Map<number, Array<{ pos: number; end: number; pc: number }>>();
 
   constructor(score: ScoreModel, part: PartModel, timeline: Timeline, melody: readonly MelodyNote[] = []) {
-    const inMelody = new Set(melody.map((m) => m.note));
+    // This part's own notes count only when it has some outside the melody line.
+    let own = 0;
+    for (const n of part.notes) if (!n.isRest && !n.isCue && !n.isGrace && n.pitch) own++;
+    const melodyMain = melody.reduce((c, m) => c + (m.grace ? 0 : 1), 0);
+    const inMelody = own > melodyMain ? new Set(melody.map((m) => m.note)) : null;
     for (const p of score.parts) {
+      if (p === part && !inMelody) continue;
       for (const n of p.notes) {
-        if (n.isRest || n.isCue || n.isGrace || !n.pitch || (p === part && inMelody.has(n))) continue;
+        if (n.isRest || n.isCue || n.isGrace || !n.pitch || (p === part && inMelody?.has(n))) continue;
         const start = timeline.measureStart[n.measureIndex];
         if (start === undefined) continue;
         const pos = start + frac(n.onset);

@@ -40,23 +40,21 @@ export interface SuggestionContext {
   bar: (n: MelodyNote) => string;
 }
 
-function base(n: MelodyNote, ctx: SuggestionContext): Pick<Suggestion, "note" | "measure" | "pitch"> {
-  return { note: n.note.key, measure: ctx.bar(n), pitch: n.note.pitch?.name ?? "" };
+function make(n: MelodyNote, ctx: SuggestionContext, role: Suggestion["role"], confidence: number, resolvesTo: string | null, reason: string): Suggestion {
+  return { note: n.note.key, measure: ctx.bar(n), pitch: n.note.pitch?.name ?? "", role, confidence, resolvesTo, reason };
 }
 
-export function phraseSuggestions(phrases: readonly Phrase[], ctx: SuggestionContext): Suggestion[] {
-  const out: Suggestion[] = [];
+/** A suggestion with the position of its note in the melody, for ordering. */
+export type Placed = [index: number, suggestion: Suggestion];
+
+export function phraseSuggestions(phrases: readonly Phrase[], ctx: SuggestionContext): Placed[] {
+  const out: Placed[] = [];
   for (const [i, p] of phrases.entries()) {
     const s = ctx.seq[p.start];
     const key = ctx.keyAt(s);
     const confidence = i === 0 ? 0.95 : round(Math.min(0.95, 0.5 + 0.45 * p.strength));
-    out.push({
-      ...base(s, ctx),
-      role: "phrase-start",
-      confidence,
-      resolvesTo: null,
-      reason: `A phrase begins on ${displayName(s.lof)} in bar ${ctx.bar(s)}, ${describeDegree(s.lof, key)} of ${displayKey(key)}, ${CUE_TEXT[p.cue]}.`,
-    });
+    const startReason = `A phrase begins on ${displayName(s.lof)} in bar ${ctx.bar(s)}, ${describeDegree(s.lof, key)} of ${displayKey(key)}, ${CUE_TEXT[p.cue]}.`;
+    out.push([p.start, make(s, ctx, "phrase-start", confidence, null, startReason)]);
     const pk = ctx.seq[p.peak];
     let ties = 0;
     const distinct = new Set<number>();
@@ -66,31 +64,20 @@ export function phraseSuggestions(phrases: readonly Phrase[], ctx: SuggestionCon
     }
     const pkKey = ctx.keyAt(pk);
     const octave = pk.note.pitch?.octave ?? "";
-    out.push({
-      ...base(pk, ctx),
-      role: "peak",
-      confidence: distinct.size < 2 ? 0.3 : ties === 0 ? 0.75 : 0.6,
-      resolvesTo: null,
-      reason:
-        `${displayName(pk.lof)}${octave} in bar ${ctx.bar(pk)}, ${describeDegree(pk.lof, pkKey)} of ${displayKey(pkKey)}, is the highest note of the phrase that begins in bar ${ctx.bar(s)}` +
-        (ties > 0 ? "; of its repetitions it is the longest or on the strongest beat." : "."),
-    });
+    const peakReason =
+      `${displayName(pk.lof)}${octave} in bar ${ctx.bar(pk)}, ${describeDegree(pk.lof, pkKey)} of ${displayKey(pkKey)}, is the highest note of the phrase that begins in bar ${ctx.bar(s)}` +
+      (ties > 0 ? "; of its repetitions it is the longest or on the strongest beat." : ".");
+    out.push([p.peak, make(pk, ctx, "peak", distinct.size < 2 ? 0.3 : ties === 0 ? 0.75 : 0.6, null, peakReason)]);
   }
   return out;
 }
 
-export function tensionSuggestions(tensions: readonly TensionFinding[], ctx: SuggestionContext): Suggestion[] {
-  const out: Suggestion[] = [];
+export function tensionSuggestions(tensions: readonly TensionFinding[], ctx: SuggestionContext): Placed[] {
+  const out: Placed[] = [];
   const resolutions = new Map<number, { t: TensionFinding; confidence: number }>();
   for (const t of tensions) {
     const n = ctx.seq[t.index];
-    out.push({
-      ...base(n, ctx),
-      role: "tension",
-      confidence: round(t.confidence),
-      resolvesTo: t.resolvesTo === null ? null : ctx.seq[t.resolvesTo].note.key,
-      reason: t.reason,
-    });
+    out.push([t.index, make(n, ctx, "tension", round(t.confidence), t.resolvesTo === null ? null : ctx.seq[t.resolvesTo].note.key, t.reason)]);
     if (t.resolvesTo !== null) {
       const prev = resolutions.get(t.resolvesTo);
       if (!prev || prev.confidence < t.confidence) resolutions.set(t.resolvesTo, { t, confidence: t.confidence });
@@ -99,13 +86,8 @@ export function tensionSuggestions(tensions: readonly TensionFinding[], ctx: Sug
   for (const [idx, { t, confidence }] of resolutions) {
     const r = ctx.seq[idx];
     const from = ctx.seq[t.index];
-    out.push({
-      ...base(r, ctx),
-      role: "resolution",
-      confidence: round(confidence),
-      resolvesTo: null,
-      reason: `${displayName(r.lof)} in bar ${ctx.bar(r)} is ${describeDegree(r.lof, t.key)} of ${displayKey(t.key)}; it resolves the ${KIND_TEXT[t.kind]} ${displayName(from.lof)} from bar ${ctx.bar(from)}.`,
-    });
+    const reason = `${displayName(r.lof)} in bar ${ctx.bar(r)} is ${describeDegree(r.lof, t.key)} of ${displayKey(t.key)}; it resolves the ${KIND_TEXT[t.kind]} ${displayName(from.lof)} from bar ${ctx.bar(from)}.`;
+    out.push([idx, make(r, ctx, "resolution", round(confidence), null, reason)]);
   }
   return out;
 }
