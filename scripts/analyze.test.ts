@@ -1,14 +1,24 @@
 import { spawnSync } from "node:child_process";
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { describe, expect, it } from "vitest";
+import { afterAll, describe, expect, it } from "vitest";
 import type { ScoreAnalysis } from "@/lib/analysis/types";
 import { generatePart } from "./bench/analysis";
 
 const root = path.resolve(import.meta.dirname, "..");
 const analyze = (...args: string[]) =>
   spawnSync("npm", ["run", "--silent", "analyze", "--", ...args], { cwd: root, encoding: "utf8", timeout: 60_000 });
+
+const dirs: string[] = [];
+const tempDir = () => {
+  const d = mkdtempSync(path.join(tmpdir(), "analyze-"));
+  dirs.push(d);
+  return d;
+};
+afterAll(() => {
+  for (const d of dirs) rmSync(d, { recursive: true, force: true });
+});
 
 describe("npm run --silent analyze", () => {
   it("prints the analysis of a sample as JSON and nothing else", () => {
@@ -38,7 +48,7 @@ describe("npm run --silent analyze", () => {
   };
 
   it("refuses a file that is not MusicXML: one line on stderr, exit 2", () => {
-    const dir = mkdtempSync(path.join(tmpdir(), "analyze-"));
+    const dir = tempDir();
     const file = path.join(dir, "notes.musicxml");
     writeFileSync(file, "these are not notes");
     const r = analyze(file);
@@ -53,7 +63,7 @@ describe("npm run --silent analyze", () => {
     expect(missing.status).toBe(2);
     oneLine(missing.stderr);
     expect(missing.stderr).toContain("no such file");
-    const dir = mkdtempSync(path.join(tmpdir(), "analyze-"));
+    const dir = tempDir();
     const file = path.join(dir, "study.musicxml");
     writeFileSync(file, generatePart(40));
     const part = analyze(file, "--part", "P9");
