@@ -12,6 +12,7 @@ const sections: Array<() => Promise<{ default: BenchSection }>> = [
   // Each area adds its section here.
   () => import("./reader"),
   () => import("./library"),
+  () => import("./analysis"),
 ];
 
 async function main() {
