@@ -11,8 +11,8 @@ export interface BenchSection {
 const sections: Array<() => Promise<{ default: BenchSection }>> = [
   // Each area adds its section here.
   () => import("./reader"),
-  () => import("./library"),
   () => import("./analysis"),
+  () => import("./library"),
 ];
 
 async function main() {
