@@ -4,12 +4,15 @@ import { useCallback, useEffect, useRef, useState, type ReactNode } from "react"
 import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
 import { GLYPH_BAND_HEIGHT, type NoteBox } from "@/lib/markings/glyph-geometry";
 import { measureNoteBoxes } from "./measure-note-boxes";
+import { measureSystems, type SystemBox } from "./measure-systems";
 import { collectOsmdNotes } from "./osmd-note-keys";
 
 export interface ScoreLayout {
   boxes: NoteBox[];
   width: number;
   height: number;
+  /** Each line of music, top to bottom (the stand copy keeps each on one page). */
+  systems: SystemBox[];
 }
 
 export interface ScoreViewProps {
@@ -46,7 +49,8 @@ export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
     const stage = stageRef.current;
     if (!osmd || !stage) return;
     const boxes = measureNoteBoxes(collectOsmdNotes(osmd), stage, zoomRef.current);
-    onLayoutRef.current({ boxes, width: stage.scrollWidth, height: stage.scrollHeight });
+    const systems = measureSystems(osmd, stage, zoomRef.current);
+    onLayoutRef.current({ boxes, width: stage.scrollWidth, height: stage.scrollHeight, systems });
   }, []);
 
   const render = useCallback(() => {

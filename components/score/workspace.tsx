@@ -5,6 +5,7 @@ import type { Role } from "@/lib/analysis/types";
 import {
   acceptSuggestions, clearSelection, patchSelection, setSelection, toState, valuesOf, sameValues,
 } from "@/lib/markings/changes";
+import { noteDurations, resolutionsOf } from "@/lib/markings/durations";
 import { noteLabel, selectionLabel } from "@/lib/markings/note-labels";
 import { formatNumber } from "@/lib/markings/pulses";
 import { ROLE_INFO } from "@/lib/markings/roles";
@@ -97,20 +98,8 @@ function WorkspaceScreen({ partId }: { partId: string }) {
 
   const notesByKey = useMemo(() => new Map((analysis.data?.notes ?? []).map((n) => [n.key, n])), [analysis.data]);
   const labelOf = useCallback((key: string) => noteLabel(key, notesByKey.get(key)), [notesByKey]);
-  const durations = useMemo(() => {
-    const out: Record<string, number> = {};
-    if (!tempo || !analysis.data) return out;
-    for (const n of analysis.data.notes) {
-      const [num, den] = n.duration.split("/").map(Number);
-      if (den > 0) out[n.key] = ((num / den) * 4 * 60) / tempo;
-    }
-    return out;
-  }, [analysis.data, tempo]);
-  const resolutions = useMemo(() => {
-    const out: Record<string, string> = {};
-    for (const s of analysis.data?.suggestions ?? []) if (s.role === "tension" && s.resolvesTo) out[s.note] = s.resolvesTo;
-    return out;
-  }, [analysis.data]);
+  const durations = useMemo(() => noteDurations(analysis.data?.notes ?? [], tempo), [analysis.data, tempo]);
+  const resolutions = useMemo(() => resolutionsOf(analysis.data?.suggestions ?? []), [analysis.data]);
   const decisions = useMemo(() => decisionsQuery.data?.decisions ?? [], [decisionsQuery.data]);
   const pending = useMemo(
     () => pendingSuggestions(analysis.data?.suggestions ?? [], decisions, markings),

@@ -8,7 +8,7 @@ describe("winAnsi", () => {
   });
 
   it("spells music signs and replaces the rest", () => {
-    expect(winAnsi("F♯5 B♭4 ♩ = 72")).toBe("F#5 Bb4 q = 72");
+    expect(winAnsi("F♯5 B♭4 ♩ = 72")).toBe("F#5 Bb4 quarter = 72");
     expect(winAnsi("good 🎵\nnext")).toBe("good ? next");
   });
 

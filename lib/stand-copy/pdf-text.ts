@@ -3,7 +3,7 @@
  * outside it print as garbage. Music signs become their plain-text spellings; anything else not
  * in the code page becomes "?".
  */
-const SPELLED: Record<string, string> = { "♯": "#", "♭": "b", "♮": "nat.", "𝄪": "x", "𝄫": "bb", "♩": "q", "♪": "e", "≈": "~", "−": "-" };
+const SPELLED: Record<string, string> = { "♯": "#", "♭": "b", "♮": "nat.", "𝄪": "x", "𝄫": "bb", "♩": "quarter", "♪": "eighth", "≈": "~", "−": "-" };
 
 /** The 27 characters of Windows-1252 at 0x80–0x9F (the rest of 0xA0–0xFF equals Latin-1). */
 const CP1252_EXTRA = new Set("€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ");
