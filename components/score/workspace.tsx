@@ -21,7 +21,9 @@ import { useCommitMarkings } from "./api/save-marking";
 import { useSaveStateSync } from "./api/save-state";
 import { useDecide, useDecisions } from "./api/suggestion-decisions";
 import { useHistoryStep } from "./api/undo-redo";
+import { AuditionControl } from "./audition-control";
 import { ConflictPrompt } from "./conflict-prompt";
+import { ExportMenu } from "./export-menu";
 import { EditorStoreProvider, useEditorActions, useEditorStore, useEditorStoreApi, type Conflict } from "./editor-store";
 import { Legend } from "./legend";
 import { MarkingOverlay } from "./marking-overlay";
@@ -340,7 +342,12 @@ function WorkspaceScreen({ partId }: { partId: string }) {
           <ToolButton onClick={() => actions.setLegendOpen(!legendOpen)} label="Legend" pressed={legendOpen}>
             Legend
           </ToolButton>
+          <ExportMenu partId={partId} />
         </div>
+      </div>
+
+      <div className="no-print border-b border-rule px-gutter">
+        <AuditionControl keys={keys} notes={analysis.data?.notes ?? []} phrases={analysis.data?.phrases ?? []} markings={markings} tempo={tempo} />
       </div>
 
       {analysis.data && analysis.data.phrases.length > 0 ? (
