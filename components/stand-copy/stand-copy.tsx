@@ -155,6 +155,8 @@ export function StandCopy({ data }: { data: StandCopyData }) {
         </header>
 
         <StandCopyScore
+          // A new paper width is a new engraving (and new systems).
+          key={options.paper}
           xml={data.xml}
           width={width}
           zoom={PRINT_ZOOM}
