@@ -27,7 +27,9 @@ async function markNote(page: Page, key: string, m: { depth: number; speed: numb
   await panel.getByLabel("Depth", { exact: true }).press("Enter");
   await panel.getByLabel("Speed", { exact: true }).fill(String(m.speed));
   await panel.getByLabel("Speed", { exact: true }).press("Enter");
-  await panel.getByRole("radio", { name: m.role }).check();
+  // The radio itself is visually hidden behind its label, as people click the label.
+  await panel.locator("fieldset", { hasText: "Role in the phrase" }).locator("label", { hasText: m.role }).click();
+  expect(await panel.getByRole("radio", { name: m.role }).isChecked()).toBe(true);
   await glyph(page, "wave", key).waitFor();
   await saved(page);
 }
