@@ -83,7 +83,7 @@ describe("the library in the browser", () => {
     await page.getByLabel("New title").fill("Audition copy");
     await page.getByRole("button", { name: "Save" }).click();
     await page.getByLabel("Search title or composer").fill("");
-    await page.getByRole("link", { name: "Audition copy" }).waitFor();
+    await page.getByRole("link", { name: "Audition copy", exact: true }).waitFor();
 
     await page.getByRole("button", { name: "Delete Audition copy" }).click();
     await page.getByRole("button", { name: "Delete for good" }).click();
