@@ -91,6 +91,8 @@ const section: BenchSection = {
         return { name, value: rest.join("="), url: APP_URL };
       }),
     );
+    // tsx names functions with an `__name` helper that does not exist inside the page.
+    await context.addInitScript("window.__name = (fn) => fn;");
     await context.addInitScript(READY_PROBE);
     const rows: Array<Record<string, string | number>> = [];
     let firstPartId = "";
