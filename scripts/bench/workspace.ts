@@ -111,6 +111,16 @@ const section: BenchSection = {
         bare.push(await timeToReady(page, `${APP_URL}/dev/bare-score/${id}`));
         workspace.push(await timeToReady(page, `${APP_URL}/parts/${id}`));
       }
+      const stages = await page.evaluate(() => {
+        const nav = performance.getEntriesByType("navigation")[0] as PerformanceNavigationTiming;
+        return {
+          firstByte: Math.round(nav.responseStart),
+          html: Math.round(nav.responseEnd),
+          domReady: Math.round(nav.domContentLoadedEventEnd),
+          ...Object.fromEntries(performance.getEntriesByType("mark").filter((m) => m.name.startsWith("ondula:")).map((m) => [m.name.slice(7), Math.round(m.startTime)])),
+        };
+      });
+      console.log(`${bars} bars, last workspace run, ms since navigation:`, JSON.stringify(stages), `ready ${Math.round(workspace[workspace.length - 1])}`);
       const clicks: number[] = [];
       for (let i = 0; i < 15; i++) {
         const ms = await clickToPanel(page, i * 7 + 1);
