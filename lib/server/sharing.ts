@@ -1,5 +1,5 @@
 import "server-only";
-import type { CurrentUser } from "@/lib/auth/session";
+import type { CurrentUser } from "@/lib/auth/types";
 import { hashToken, newToken } from "@/lib/auth/tokens";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";

@@ -2,9 +2,9 @@ import { handle, parseJson, parseParams } from "@/lib/http/handler";
 import { requireUser } from "@/lib/auth/session";
 import { AppError } from "@/lib/errors";
 import { commentBody, commentParams } from "@/lib/sharing/schemas";
+import type { CurrentUser } from "@/lib/auth/types";
 import { loadPart } from "@/lib/server/parts";
 import { deleteCommentById, getCommentById, getThreadByKey, updateCommentById } from "@/db/comments";
-import type { CurrentUser } from "@/lib/auth/session";
 
 export const dynamic = "force-dynamic";
 
