@@ -1,17 +1,23 @@
+import fs from "node:fs";
+import path from "node:path";
 import { and, eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/db/client";
 import { markingHistory, notifications, proposals, shares, users } from "@/db/schema";
 import { DEFAULT_MARKING } from "@/lib/markings/schema";
 import { COMMENT_MAX_LENGTH } from "@/lib/sharing/comment-text";
-import { sampleFiles, uploadSample } from "../helpers/parts";
+import { multipartFile } from "../helpers/parts";
 import { createSignedInUser, type ApiClient, type TestUser } from "../helpers/session";
 import { accept, invite, json, mailTo, sha256, waitForMails } from "../helpers/sharing";
 
 const DIGEST = /new(?: items)? on “/;
 
+const FIXTURE = path.resolve("tests/fixtures/sharing/two-bars.musicxml");
+
 async function newPart(owner: ApiClient) {
-  const created = await uploadSample(owner, sampleFiles().find((n) => n.endsWith(".musicxml"))!);
+  const res = await owner.fetch("/api/parts", { method: "POST", body: multipartFile("two-bars.musicxml", new Uint8Array(fs.readFileSync(FIXTURE))) });
+  expect(res.status).toBe(201);
+  const created = await res.json();
   const analysis = await (await owner.fetch(`/api/parts/${created.id}/analysis`)).json();
   const keys: string[] = analysis.notes.map((n: { key: string }) => n.key);
   expect(keys.length).toBeGreaterThan(4);
