@@ -228,7 +228,7 @@ describe("comments, proposals and revocation", () => {
     const byOwner = await owner.client.fetch(`/api/parts/${partId}/proposals`, json({ noteKey: keys[3], baseVersion: null, marking }));
     expect(byOwner.status).toBe(403);
     for (const c of [teacher.client, listener.client]) {
-      const put = await c.fetch(`/api/parts/${partId}/markings/${encodeURIComponent(keys[3])}`, { method: "PUT", ...json(marking) });
+      const put = await c.fetch(`/api/parts/${partId}/markings/${encodeURIComponent(keys[3])}`, json(marking, "PUT"));
       expect(put.status).toBe(403);
     }
     const wrongBase = await teacher.client.fetch(`/api/parts/${partId}/proposals`, json({ noteKey: keys[3], baseVersion: 4, marking }));
@@ -255,12 +255,12 @@ describe("comments, proposals and revocation", () => {
   it("marks a proposal stale when the marking changed since, answers 409 and applies nothing", async () => {
     const key = keys[4];
     const url = `/api/parts/${partId}/markings/${encodeURIComponent(key)}`;
-    const v1 = (await (await owner.client.fetch(url, { method: "PUT", ...json({ ...DEFAULT_MARKING, depthCents: 10 }) })).json()).marking;
+    const v1 = (await (await owner.client.fetch(url, json({ ...DEFAULT_MARKING, depthCents: 10 }, "PUT"))).json()).marking;
     const made = await (
       await teacher.client.fetch(`/api/parts/${partId}/proposals`, json({ noteKey: key, baseVersion: v1.version, marking: { ...DEFAULT_MARKING, depthCents: 40 } }))
     ).json();
     // The player changes the note after the proposal was made.
-    await owner.client.fetch(url, { method: "PUT", ...json({ ...DEFAULT_MARKING, depthCents: 15, version: v1.version }) });
+    await owner.client.fetch(url, json({ ...DEFAULT_MARKING, depthCents: 15, version: v1.version }, "PUT"));
 
     const listed = await (await owner.client.fetch(`/api/parts/${partId}/proposals?note=${encodeURIComponent(key)}`)).json();
     expect(listed.proposals[0]).toMatchObject({ id: made.id, status: "open", stale: true, current: { depthCents: 15 } });
