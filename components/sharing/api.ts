@@ -106,7 +106,7 @@ export function useShares(partId: string, enabled = true) {
   });
 }
 
-function useShareMutation<V>(partId: string, request: (v: V) => Promise<unknown>) {
+function useShareMutation<V, R>(partId: string, request: (v: V) => Promise<R>) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: request,

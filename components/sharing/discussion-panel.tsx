@@ -29,7 +29,7 @@ export interface DiscussionPanelProps {
  * comments, or the whole part's thread with open proposals and recent activity.
  */
 export function DiscussionPanel(props: DiscussionPanelProps) {
-  const { partId, permission, viewerId, noteKey, labelOf } = props;
+  const { partId, viewerId, noteKey, labelOf } = props;
   const [scope, setScope] = useState<"note" | "part">(noteKey ? "note" : "part");
   const showNote = scope === "note" && noteKey !== null;
   return (

@@ -1,6 +1,7 @@
 "use client";
 
 import { useId, useRef, useState } from "react";
+import { ApiError } from "@/components/library/api";
 import { useChangePermission, useInvite, useResend, useRevoke, useShares, type ShareItem, type SharePermission } from "./api";
 import { PERMISSION_LABEL, formatWhen } from "./format";
 
@@ -71,7 +72,7 @@ export function SharePanel({ partId }: { partId: string }) {
           required
           value={email}
           onChange={(e) => setEmail(e.target.value)}
-          aria-invalid={invite.error?.field === "email" ? true : undefined}
+          aria-invalid={invite.error instanceof ApiError && invite.error.field === "email" ? true : undefined}
           className="-mt-2 rounded-card border border-rule bg-paper-card px-3 py-2"
         />
         <fieldset className="grid gap-1">

@@ -10,7 +10,6 @@ export const COMMENT_MAX_LENGTH = 4000;
 export function normalizeCommentText(input: string): string {
   return input
     .replace(/\r\n?/g, "\n")
-    // eslint-disable-next-line no-control-regex
     .replace(/[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F]/g, "")
     .split("\n")
     .map((line) => line.replace(/[ \t]+$/, ""))
