@@ -126,7 +126,7 @@ describe("sharing a part with a teacher", () => {
     const refused = await teacherContext.request.get(`${APP_URL}/api/parts/${partId}/comments/summary`);
     expect(refused.status()).toBe(404);
     await t.reload();
-    await t.getByText(/not found|does not exist/i).first().waitFor();
+    await t.getByRole("heading", { name: "This part is not here" }).waitFor();
     await t.screenshot({ path: screenshotPath("sharing-teacher-revoked"), fullPage: false });
   });
 });
