@@ -41,7 +41,7 @@ describe("sharing a part with a teacher", () => {
     p.on("dialog", (d) => d.accept());
     await p.goto(`${APP_URL}/sign-in?callbackUrl=/parts`);
     await signInThroughForm(p, player);
-    await p.waitForURL(/\/parts$/);
+    await p.waitForURL((u) => u.pathname === "/parts");
     const upload = await playerContext.request.post(`${APP_URL}/api/parts`, {
       multipart: { file: { name: "two-bars.musicxml", mimeType: "application/xml", buffer: fs.readFileSync(FIXTURE) } },
     });
