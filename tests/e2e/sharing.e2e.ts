@@ -66,7 +66,7 @@ describe("sharing a part with a teacher", () => {
     const t = await teacherContext.newPage();
     await t.goto(link);
     await t.getByRole("heading", { name: /Pia Player shares/ }).waitFor();
-    await t.getByRole("link", { name: "Sign in" }).click();
+    await t.getByRole("main").getByRole("link", { name: "Sign in" }).click();
     await t.waitForURL(/\/sign-in\?/);
     expect(await t.getByLabel("E-mail").inputValue()).toBe(teacher.email);
     await signInThroughForm(t, teacher);
