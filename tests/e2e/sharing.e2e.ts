@@ -119,6 +119,15 @@ describe("sharing a part with a teacher", () => {
     expect(await p.getByLabel(/Depth/).first().inputValue()).toBe("35");
     await p.screenshot({ path: screenshotPath("sharing-player-accepted"), fullPage: false });
 
+    // ——— the teacher's studio lists the part under the student, with the unread reply ———
+    await t.goto(`${APP_URL}/studio`);
+    const shared = t.getByTestId("shared-with-me");
+    const row = shared.getByTestId("shared-part-row").filter({ hasText: "Two Bars for Sharing" });
+    await row.waitFor();
+    expect(await shared.getByRole("rowheader").first().textContent()).toContain("Pia Player");
+    expect(await row.getByTestId("unread-badge").textContent()).toBe("1");
+    await t.screenshot({ path: screenshotPath("sharing-teacher-studio"), fullPage: false });
+
     // ——— the player revokes; the teacher's next request is refused ———
     await p.getByRole("button", { name: "Share", exact: true }).click();
     await p.getByRole("dialog").getByRole("button", { name: "Revoke access" }).click();
