@@ -134,7 +134,7 @@ describe("sharing a part with a teacher", () => {
     await p.getByRole("dialog").getByText("Only you.").waitFor();
     const refused = await teacherContext.request.get(`${APP_URL}/api/parts/${partId}/comments/summary`);
     expect(refused.status()).toBe(404);
-    await t.reload();
+    await t.goto(`${APP_URL}/parts/${partId}`);
     await t.getByRole("heading", { name: "This part is not here" }).waitFor();
     await t.screenshot({ path: screenshotPath("sharing-teacher-revoked"), fullPage: false });
   });
