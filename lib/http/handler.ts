@@ -1,64 +1,50 @@
 import "server-only";
 import { z } from "zod";
 import { AppError } from "@/lib/errors";
+import { toErrorBody } from "./errors";
 
-type RouteContext<P> = { params: Promise<P> };
+type Params = Record<string, string | string[] | undefined>;
+type Context = { params: Promise<Params> };
 
 /**
- * Wraps a route handler: AppError → its status and `{ code, message, field }`; a zod error →
- * 400 naming the field; anything else → 500 with a generic message (logged, never leaked).
+ * Wraps a route handler: AppError → its status and `{ code, message, field }`, zod errors →
+ * 400 naming the field, anything else → 500 with a generic message (and the error logged).
+ * Next.js's own control-flow errors (notFound, redirect) are rethrown untouched.
  */
-export function handle<P = Record<string, string>>(
-  fn: (request: Request, context: RouteContext<P>) => Promise<Response>,
-): (request: Request, context: RouteContext<P>) => Promise<Response> {
-  return async (request, context) => {
+export function handle<C extends Context = Context>(fn: (request: Request, context: C) => Promise<Response>) {
+  return async (request: Request, context: C): Promise<Response> => {
     try {
       return await fn(request, context);
-    } catch (err) {
-      return errorResponse(err);
+    } catch (error) {
+      if (isNextControlFlow(error)) throw error;
+      const { status, body, headers } = toErrorBody(error, `${request.method} ${new URL(request.url).pathname}`);
+      return Response.json(body, { status, headers });
     }
   };
 }
 
-export function errorResponse(err: unknown): Response {
-  if (err instanceof AppError) return err.toResponse();
-  if (err instanceof z.ZodError) return zodToAppError(err).toResponse();
-  console.error("[api] unexpected error:", err);
-  return Response.json(
-    { code: "unavailable:server", message: "Something went wrong on our side. Nothing you sent was lost; try again." },
-    { status: 500 },
-  );
+function isNextControlFlow(error: unknown): boolean {
+  const digest = (error as { digest?: unknown } | null)?.digest;
+  return typeof digest === "string" && (digest.startsWith("NEXT_") || digest === "DYNAMIC_SERVER_USAGE");
 }
 
-export function zodToAppError(err: z.ZodError): AppError {
-  const issue = err.issues[0];
-  const field = issue?.path.join(".") || undefined;
-  const message = issue ? (field ? `${field}: ${issue.message}` : issue.message) : "The request is not valid.";
-  return new AppError("bad_request:validation", message, { field });
-}
-
-/** Parses the JSON body with the route's schema; a malformed body is a 400 that says so. */
+/** Reads and validates a JSON body; malformed JSON is a 400 like any other bad input. */
 export async function parseJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.infer<S>> {
-  let body: unknown;
+  let data: unknown;
   try {
-    body = await request.json();
+    data = await request.json();
   } catch {
-    throw new AppError("bad_request:json", "The request body must be JSON.");
+    throw new AppError("bad_request:json", "The request body is not valid JSON.");
   }
-  const parsed = schema.safeParse(body);
-  if (!parsed.success) throw zodToAppError(parsed.error);
-  return parsed.data;
+  return schema.parse(data);
 }
 
-export async function parseParams<S extends z.ZodType>(params: Promise<unknown>, schema: S): Promise<z.infer<S>> {
-  const parsed = schema.safeParse(await params);
-  if (!parsed.success) throw zodToAppError(parsed.error);
-  return parsed.data;
+/** Validates route params (awaiting them, as Next.js 16 hands them over as a promise). */
+export async function parseParams<S extends z.ZodType>(params: Promise<Params> | Params, schema: S): Promise<z.infer<S>> {
+  return schema.parse(await params);
 }
 
+/** Validates the query string. */
 export function parseQuery<S extends z.ZodType>(request: Request, schema: S): z.infer<S> {
-  const url = new URL(request.url);
-  const parsed = schema.safeParse(Object.fromEntries(url.searchParams));
-  if (!parsed.success) throw zodToAppError(parsed.error);
-  return parsed.data;
+  return schema.parse(Object.fromEntries(new URL(request.url).searchParams));
 }

@@ -2,7 +2,7 @@ import "server-only";
 import { analyzeScore, ANALYSIS_VERSION } from "@/lib/analysis";
 import type { PartAnalysis, ScoreAnalysis } from "@/lib/analysis/types";
 import { assertCan, type Action } from "@/lib/auth/policy";
-import type { CurrentUser } from "@/lib/auth/session";
+import type { CurrentUser } from "@/lib/auth/types";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { readScoreFile } from "@/lib/musicxml";

@@ -10,6 +10,8 @@ export interface BenchSection {
 
 const sections: Array<() => Promise<{ default: BenchSection }>> = [
   // Each area adds its section here.
+  () => import("./reader"),
+  () => import("./analysis"),
   () => import("./library"),
 ];
 

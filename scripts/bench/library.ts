@@ -5,7 +5,7 @@
 import { performance } from "node:perf_hooks";
 import type { BenchSection } from "./index";
 import { percentile } from "./util";
-import { createUser } from "../../tests/helpers/session";
+import { createSignedInUser } from "../../tests/helpers/session";
 import { multipartFile } from "../../tests/helpers/parts";
 import { generatePartXml } from "./generate-part";
 
@@ -24,7 +24,7 @@ async function latencies(fn: () => Promise<Response>, n: number): Promise<number
 const section: BenchSection = {
   name: "library",
   async run() {
-    const client = await createUser({ role: "player" });
+    const client = (await createSignedInUser({ role: "player" })).client;
     const appUrl = process.env.APP_URL ?? "http://127.0.0.1:3000";
     const health = await latencies(() => fetch(`${appUrl}/api/health`), 60);
 

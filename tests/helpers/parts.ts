@@ -9,7 +9,7 @@ export function sampleFiles(): string[] {
 
 export function multipartFile(fileName: string, bytes: Uint8Array, field = "file"): FormData {
   const form = new FormData();
-  form.append(field, new Blob([bytes]), fileName);
+  form.append(field, new Blob([new Uint8Array(bytes)]), fileName);
   return form;
 }
 

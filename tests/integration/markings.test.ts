@@ -1,7 +1,7 @@
 import { randomUUID } from "node:crypto";
 import { beforeAll, describe, expect, it } from "vitest";
 import { DEFAULT_MARKING } from "@/lib/markings/schema";
-import { createUser, type ApiClient } from "../helpers/session";
+import { createSignedInUser, type ApiClient } from "../helpers/session";
 import { sampleFiles, uploadSample } from "../helpers/parts";
 
 const json = (body: unknown): RequestInit => ({ headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
@@ -13,7 +13,7 @@ describe("markings API", () => {
   const url = (key: string) => `/api/parts/${partId}/markings/${encodeURIComponent(key)}`;
 
   beforeAll(async () => {
-    owner = await createUser({ role: "player" });
+    owner = (await createSignedInUser({ role: "player" })).client;
     const created = await uploadSample(owner, sampleFiles().find((n) => n.endsWith(".musicxml"))!);
     partId = created.id;
     const analysis = await (await owner.fetch(`/api/parts/${partId}/analysis`)).json();

@@ -2,7 +2,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { readScoreFile, MusicXmlError } from "@/lib/musicxml";
-import { createUser, type ApiClient } from "../helpers/session";
+import { createSignedInUser, type ApiClient } from "../helpers/session";
 import { multipartFile, sampleFiles, SAMPLES_DIR, uploadSample } from "../helpers/parts";
 
 const HOSTILE_DIR = path.resolve("tests/fixtures/hostile");
@@ -12,8 +12,8 @@ describe("upload and library", () => {
   let other: ApiClient;
 
   beforeAll(async () => {
-    owner = await createUser({ role: "player" });
-    other = await createUser({ role: "player" });
+    owner = (await createSignedInUser({ role: "player" })).client;
+    other = (await createSignedInUser({ role: "player" })).client;
   });
 
   it("stores every sample through the real route and reads it back", async () => {
@@ -122,7 +122,7 @@ describe("upload and library", () => {
   });
 
   it("searches, sorts and pages the library on the server", async () => {
-    const fresh = await createUser({ role: "player" });
+    const fresh = (await createSignedInUser({ role: "player" })).client;
     const names = sampleFiles().slice(0, 5);
     for (const n of names) await uploadSample(fresh, n);
     const all = await (await fresh.fetch("/api/parts?sort=title&pageSize=100")).json();

@@ -1,5 +1,6 @@
 import { handle, parseQuery } from "@/lib/http/handler";
 import { receiveFile } from "@/lib/http/multipart";
+import { assertCan } from "@/lib/auth/policy";
 import { requireUser } from "@/lib/auth/session";
 import { config } from "@/lib/config";
 import { listPartsQuery } from "@/lib/parts/schemas";
@@ -17,6 +18,7 @@ export const GET = handle(async (request) => {
 
 export const POST = handle(async (request) => {
   const user = await requireUser();
+  assertCan(user, "part:create", { type: "site" });
   const { fileName, bytes } = await receiveFile(request, { field: "file", maxBytes: config().UPLOAD_MAX_BYTES });
   const part = await createPartFromFile(user, fileName, bytes);
   return Response.json(

@@ -1,23 +1,40 @@
 import type { Metadata } from "next";
 import { notFound, redirect } from "next/navigation";
+import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query";
 import { getCurrentUser } from "@/lib/auth/session";
 import { AppError } from "@/lib/errors";
 import { loadPart, partDto } from "@/lib/server/parts";
+import { partKeys } from "@/components/score/api/keys";
 import { Workspace } from "@/components/score/workspace";
 
 export const dynamic = "force-dynamic";
-export const metadata: Metadata = { title: "Workspace" };
+
+export async function generateMetadata({ params }: { params: Promise<{ partId: string }> }): Promise<Metadata> {
+  const { partId } = await params;
+  const user = await getCurrentUser();
+  if (!user || !/^[0-9a-f-]{36}$/i.test(partId)) return { title: "Workspace" };
+  const access = await loadPart(user, partId, "part:view").catch(() => null);
+  return { title: access?.part.title ?? "Workspace" };
+}
 
 export default async function PartWorkspacePage({ params }: { params: Promise<{ partId: string }> }) {
   const { partId } = await params;
   const user = await getCurrentUser();
   if (!user) redirect(`/sign-in?callbackUrl=/parts/${encodeURIComponent(partId)}`);
   if (!/^[0-9a-f-]{36}$/i.test(partId)) notFound();
+  let dto;
   try {
-    const access = await loadPart(user, partId, "part:view");
-    return <Workspace partId={partId} initialPart={partDto(access)} />;
+    dto = partDto(await loadPart(user, partId, "part:view"));
   } catch (err) {
     if (err instanceof AppError && (err.status === 404 || err.status === 403)) notFound();
     throw err;
   }
+  // The part's details travel with the page, so the workspace starts without a round trip.
+  const queryClient = new QueryClient();
+  queryClient.setQueryData(partKeys.detail(partId), dto);
+  return (
+    <HydrationBoundary state={dehydrate(queryClient)}>
+      <Workspace partId={partId} />
+    </HydrationBoundary>
+  );
 }

@@ -1,6 +1,7 @@
 import fs from "node:fs/promises";
 import path from "node:path";
 import { handle, parseJson } from "@/lib/http/handler";
+import { assertCan } from "@/lib/auth/policy";
 import { requireUser } from "@/lib/auth/session";
 import { AppError } from "@/lib/errors";
 import { sampleBody } from "@/lib/parts/schemas";
@@ -23,6 +24,7 @@ export const GET = handle(async () => {
 
 export const POST = handle(async (request) => {
   const user = await requireUser();
+  assertCan(user, "part:create", { type: "site" });
   const { name } = await parseJson(request, sampleBody);
   if (!(await sampleNames()).includes(name)) throw new AppError("not_found:sample", `There is no sample called ${name}.`);
   const bytes = new Uint8Array(await fs.readFile(path.join(samplesDir(), name)));

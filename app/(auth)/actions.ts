@@ -1,0 +1,76 @@
+"use server";
+
+import { z } from "zod";
+import {
+  requestPasswordReset, resetPassword, sendVerification, signUp, verifyEmail,
+} from "@/lib/accounts/registration";
+import { newPasswordSchema } from "@/lib/auth/password-rules";
+import { AppError } from "@/lib/errors";
+import { defineAction } from "@/lib/http/action";
+import { clientAddress } from "@/lib/http/client-address";
+import { safeCallbackPath } from "@/lib/http/safe-redirect";
+
+const email = z.string().trim().min(1, "Enter your e-mail address.").max(320).email("Enter a valid e-mail address.");
+
+export const signUpAction = defineAction({
+  name: "signUp",
+  auth: "optional",
+  keep: ["name", "email", "role"],
+  schema: z.object({
+    name: z.string().trim().min(1, "Enter your name.").max(80, "Use at most 80 characters."),
+    email,
+    password: newPasswordSchema,
+    role: z.enum(["player", "teacher"], { message: "Choose player or teacher." }),
+    callbackUrl: z.string().optional(),
+  }),
+  run: async ({ input }) => {
+    const user = await signUp(input);
+    const next = new URLSearchParams({ registered: "1", email: user.email, callbackUrl: safeCallbackPath(input.callbackUrl) });
+    return { redirectTo: `/sign-in?${next}` };
+  },
+});
+
+export const verifyEmailAction = defineAction({
+  name: "verifyEmail",
+  auth: "optional",
+  schema: z.object({ token: z.string().min(1).max(200) }),
+  run: async ({ input }) => {
+    if (!(await verifyEmail({ token: input.token }))) {
+      throw new AppError("bad_request:token", "This confirmation link is not valid any more. Sign in and ask for a new one.");
+    }
+    return { message: "Your e-mail address is confirmed." };
+  },
+});
+
+export const resendVerificationAction = defineAction({
+  name: "resendVerification",
+  schema: z.object({}),
+  run: async ({ user }) => {
+    if (user.emailVerified) return { message: "Your e-mail address is already confirmed." };
+    await sendVerification({ userId: user.id, email: user.email, name: user.name });
+    return { message: `We sent a new link to ${user.email}.` };
+  },
+});
+
+export const forgotPasswordAction = defineAction({
+  name: "forgotPassword",
+  auth: "optional",
+  keep: ["email"],
+  schema: z.object({ email }),
+  run: async ({ input, headers }) => {
+    await requestPasswordReset({ email: input.email, address: clientAddress(headers) });
+    return { message: "If an account uses this address, we sent it a link to choose a new password. The link works for 1 hour." };
+  },
+});
+
+export const resetPasswordAction = defineAction({
+  name: "resetPassword",
+  auth: "optional",
+  schema: z
+    .object({ token: z.string().min(1).max(200), password: newPasswordSchema, confirm: z.string() })
+    .refine((v) => v.password === v.confirm, { message: "The two passwords differ.", path: ["confirm"] }),
+  run: async ({ input }) => {
+    await resetPassword({ token: input.token, password: input.password });
+    return { redirectTo: "/sign-in?reset=1" };
+  },
+});

@@ -1,0 +1,11 @@
+import { queryOptions, useQuery } from "@tanstack/react-query";
+import type { PartAnalysis } from "@/lib/analysis/types";
+import { fetchJson, partUrl } from "./fetch-json";
+import { partKeys } from "./keys";
+
+export const getAnalysis = (partId: string) => fetchJson<PartAnalysis>(`${partUrl(partId)}/analysis`);
+
+export const analysisQueryOptions = (partId: string) =>
+  queryOptions({ queryKey: partKeys.analysis(partId), queryFn: () => getAnalysis(partId), staleTime: 5 * 60_000 });
+
+export const useAnalysis = (partId: string) => useQuery(analysisQueryOptions(partId));

@@ -1,0 +1,27 @@
+import { queryOptions, useQuery } from "@tanstack/react-query";
+import { fetchJson, partUrl } from "./fetch-json";
+import { partKeys } from "./keys";
+
+export type Permission = "owner" | "comment" | "propose";
+
+export interface PartDetail {
+  id: string;
+  title: string;
+  composer: string;
+  keyLabel: string;
+  tempo: number | null;
+  chosenPartId: string;
+  parts: { id: string; name: string }[];
+  measureCount: number;
+  noteCount: number;
+  version: number;
+  updatedAt: string;
+  permission: Permission;
+}
+
+export const getPart = (partId: string) => fetchJson<PartDetail>(partUrl(partId));
+
+export const partQueryOptions = (partId: string) =>
+  queryOptions({ queryKey: partKeys.detail(partId), queryFn: () => getPart(partId) });
+
+export const usePart = (partId: string) => useQuery(partQueryOptions(partId));

@@ -1,0 +1,85 @@
+"use client";
+
+import { useMemo } from "react";
+import type { PhraseResult } from "@/lib/analysis/types";
+import type { MarkingState } from "@/lib/markings/changes";
+import { ROLE_INFO } from "@/lib/markings/roles";
+import { roleShapePath } from "@/lib/markings/glyph-geometry";
+
+export interface PhraseMapProps {
+  /** Note keys of the part in time order (the analysis' notes). */
+  noteOrder: readonly string[];
+  phrases: readonly PhraseResult[];
+  markings: MarkingState;
+  labelOf: (noteKey: string) => string;
+  onJump: (noteKey: string) => void;
+}
+
+const H = 44;
+
+/** A strip of the whole part: each phrase a span with its start, peak and end, and the marked notes. */
+export function PhraseMap({ noteOrder, phrases, markings, labelOf, onJump }: PhraseMapProps) {
+  const index = useMemo(() => new Map(noteOrder.map((k, i) => [k, i])), [noteOrder]);
+  const n = Math.max(1, noteOrder.length - 1);
+  const pct = (key: string) => ((index.get(key) ?? 0) / n) * 100;
+  const marked = Object.values(markings).filter((m) => index.has(m.noteKey));
+  if (noteOrder.length === 0) return null;
+  return (
+    <nav aria-label="Phrase map" className="relative w-full" data-testid="phrase-map">
+      <div className="relative" style={{ height: H }}>
+        <div className="absolute inset-x-0 top-[30px] h-px bg-rule" aria-hidden="true" />
+        {phrases.map((p, i) => {
+          const left = pct(p.start);
+          const right = pct(p.end);
+          return (
+            <div key={`${p.start}-${i}`} className="absolute top-0 h-full" style={{ left: `${left}%`, width: `${Math.max(0.5, right - left)}%` }}>
+              <button
+                type="button"
+                onClick={() => onJump(p.start)}
+                className="absolute inset-x-0 top-[22px] h-4 rounded-sm border border-graphite bg-paper-deep hover:bg-rule"
+                aria-label={`Phrase ${i + 1}: ${labelOf(p.start)} to ${labelOf(p.end)}, peak ${labelOf(p.peak)}`}
+                title={`Phrase ${i + 1}`}
+              />
+              <Mark at={0} role="phrase-start" label={`Phrase ${i + 1} start, ${labelOf(p.start)}`} onClick={() => onJump(p.start)} />
+              <Mark
+                at={right - left > 0 ? ((pct(p.peak) - left) / (right - left)) * 100 : 0}
+                role="peak"
+                label={`Phrase ${i + 1} peak, ${labelOf(p.peak)}`}
+                onClick={() => onJump(p.peak)}
+              />
+              <span className="absolute right-0 top-[20px] h-5 w-[3px] bg-ink" aria-hidden="true" title={`End: ${labelOf(p.end)}`} />
+            </div>
+          );
+        })}
+        {marked.map((m) => (
+          <button
+            key={m.noteKey}
+            type="button"
+            onClick={() => onJump(m.noteKey)}
+            className="absolute top-[38px] h-1.5 w-1.5 -translate-x-1/2 rounded-full bg-ink"
+            style={{ left: `${pct(m.noteKey)}%` }}
+            aria-label={`Marked note, ${labelOf(m.noteKey)}`}
+            tabIndex={-1}
+          />
+        ))}
+      </div>
+    </nav>
+  );
+}
+
+function Mark({ at, role, label, onClick }: { at: number; role: "phrase-start" | "peak"; label: string; onClick: () => void }) {
+  return (
+    <button
+      type="button"
+      onClick={onClick}
+      aria-label={label}
+      title={label}
+      className="absolute top-0 flex h-6 w-6 -translate-x-1/2 items-center justify-center"
+      style={{ left: `${at}%` }}
+    >
+      <svg width="14" height="14" viewBox="0 0 14 14" aria-hidden="true">
+        <path d={roleShapePath(role, 7, 7, 12)} fill={ROLE_INFO[role].color} stroke="#1B1A17" strokeWidth={1} />
+      </svg>
+    </button>
+  );
+}

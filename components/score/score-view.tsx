@@ -1,0 +1,140 @@
+"use client";
+
+import { useCallback, useEffect, useRef, useState, type ReactNode } from "react";
+import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
+import { GLYPH_BAND_HEIGHT, type NoteBox } from "@/lib/markings/glyph-geometry";
+import { measureNoteBoxes } from "./measure-note-boxes";
+import { collectOsmdNotes } from "./osmd-note-keys";
+
+export interface ScoreLayout {
+  boxes: NoteBox[];
+  width: number;
+  height: number;
+}
+
+export interface ScoreViewProps {
+  xml: string;
+  zoom: number;
+  /** Called after every render (load, zoom, resize) with the notes' new positions. */
+  onLayout: (layout: ScoreLayout) => void;
+  /** Drawn over the engraving, in the same coordinates (the marking overlay). */
+  children?: ReactNode;
+}
+
+const RESIZE_DEBOUNCE_MS = 200;
+
+/**
+ * The engraved part. OpenSheetMusicDisplay is imported only here, and only in the browser, so it
+ * is loaded on pages that show a score. Every render rebuilds its SVG; we never attach anything
+ * to it and re-measure the notes instead.
+ */
+export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
+  const stageRef = useRef<HTMLDivElement>(null);
+  const hostRef = useRef<HTMLDivElement>(null);
+  const osmdRef = useRef<OpenSheetMusicDisplay | null>(null);
+  const zoomRef = useRef(zoom);
+  const onLayoutRef = useRef(onLayout);
+  const [status, setStatus] = useState<"loading" | "ready" | "error">("loading");
+  const [error, setError] = useState<string | null>(null);
+
+  useEffect(() => {
+    onLayoutRef.current = onLayout;
+  }, [onLayout]);
+
+  const measure = useCallback(() => {
+    const osmd = osmdRef.current;
+    const stage = stageRef.current;
+    if (!osmd || !stage) return;
+    const boxes = measureNoteBoxes(collectOsmdNotes(osmd), stage, zoomRef.current);
+    onLayoutRef.current({ boxes, width: stage.scrollWidth, height: stage.scrollHeight });
+  }, []);
+
+  const render = useCallback(() => {
+    const osmd = osmdRef.current;
+    if (!osmd) return;
+    osmd.Zoom = zoomRef.current;
+    osmd.render();
+    measure();
+  }, [measure]);
+
+  useEffect(() => {
+    let cancelled = false;
+    const host = hostRef.current;
+    if (!host) return;
+    setStatus("loading");
+    (async () => {
+      const { OpenSheetMusicDisplay } = await import("opensheetmusicdisplay");
+      if (cancelled) return;
+      host.replaceChildren();
+      const osmd = new OpenSheetMusicDisplay(host, {
+        backend: "svg",
+        autoResize: false,
+        drawTitle: false,
+        drawSubtitle: false,
+        drawComposer: false,
+        drawLyricist: false,
+        drawCredits: false,
+        drawPartNames: false,
+        drawMeasureNumbers: true,
+        drawMeasureNumbersOnlyAtSystemStart: true,
+      });
+      // Room above every system for our glyph band (OSMD units: 10 px at zoom 1).
+      const band = GLYPH_BAND_HEIGHT / 10;
+      osmd.EngravingRules.MinSkyBottomDistBetweenSystems = Math.max(osmd.EngravingRules.MinSkyBottomDistBetweenSystems, band + 1);
+      osmd.EngravingRules.PageTopMargin = Math.max(osmd.EngravingRules.PageTopMargin, band);
+      await osmd.load(xml);
+      if (cancelled) return;
+      osmdRef.current = osmd;
+      render();
+      setStatus("ready");
+    })().catch((e: unknown) => {
+      if (cancelled) return;
+      setError(e instanceof Error ? e.message : String(e));
+      setStatus("error");
+    });
+    return () => {
+      cancelled = true;
+      osmdRef.current = null;
+      host.replaceChildren();
+    };
+  }, [xml, render]);
+
+  useEffect(() => {
+    if (zoomRef.current === zoom) return;
+    zoomRef.current = zoom;
+    render();
+  }, [zoom, render]);
+
+  // Re-lay out when the available width changes (debounced: a drag of the window is one render).
+  useEffect(() => {
+    const stage = stageRef.current;
+    if (!stage || typeof ResizeObserver === "undefined") return;
+    let width = stage.clientWidth;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const observer = new ResizeObserver(() => {
+      const next = stage.clientWidth;
+      if (Math.abs(next - width) < 4) return;
+      width = next;
+      clearTimeout(timer);
+      timer = setTimeout(render, RESIZE_DEBOUNCE_MS);
+    });
+    observer.observe(stage);
+    return () => {
+      observer.disconnect();
+      clearTimeout(timer);
+    };
+  }, [render]);
+
+  return (
+    <div ref={stageRef} className="relative w-full" data-score-status={status}>
+      <div ref={hostRef} aria-hidden="true" />
+      {status === "ready" ? children : null}
+      {status === "loading" ? <p className="px-gutter py-12 text-graphite" role="status">Engraving the part…</p> : null}
+      {status === "error" ? (
+        <p className="px-gutter py-12 text-danger" role="alert">
+          The part could not be engraved{error ? `: ${error}` : "."}
+        </p>
+      ) : null}
+    </div>
+  );
+}

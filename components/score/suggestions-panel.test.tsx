@@ -1,0 +1,51 @@
+import { cleanup, fireEvent, render, screen, within } from "@testing-library/react";
+import { afterEach, describe, expect, it, vi } from "vitest";
+import type { Suggestion } from "@/lib/analysis/types";
+import { SuggestionsPanel } from "./suggestions-panel";
+
+afterEach(cleanup);
+
+const s = (note: string, role: Suggestion["role"], confidence: number, reason = "A reason."): Suggestion => ({
+  note, measure: "1", pitch: "A4", role, confidence, resolvesTo: role === "tension" ? "r" : null, reason,
+});
+
+function setup(pending: Suggestion[], canEdit = true) {
+  const handlers = { onAccept: vi.fn(), onDismiss: vi.fn(), onShow: vi.fn() };
+  render(<SuggestionsPanel pending={pending} decidedCount={2} labelOf={(k) => `Note ${k}`} canEdit={canEdit} {...handlers} />);
+  return handlers;
+}
+
+describe("SuggestionsPanel", () => {
+  it("groups by role with reasons and says how sure each one is", () => {
+    setup([s("a", "tension", 0.9, "A is the leading tone."), s("b", "peak", 0.4), s("c", "tension", 0.45)]);
+    const groups = screen.getAllByRole("heading", { level: 3 }).map((h) => h.textContent);
+    expect(groups).toEqual(["Peak (1)", "Tension tone (2)"]);
+    expect(screen.getByText("A is the leading tone.")).toBeTruthy();
+    const a = document.querySelector('[data-suggestion="a"]') as HTMLElement;
+    expect(within(a).getByText(/suggested · 90%/)).toBeTruthy();
+    expect(within(a).getByText(/Resolves to Note r/)).toBeTruthy();
+    const b = document.querySelector('[data-suggestion="b"]') as HTMLElement;
+    expect(within(b).getByText(/possible · 40%/)).toBeTruthy();
+  });
+
+  it("accepts one, all of a kind, dismisses, and shows the note", () => {
+    const h = setup([s("a", "tension", 0.9), s("c", "tension", 0.6), s("b", "peak", 0.8)]);
+    fireEvent.click(screen.getByRole("button", { name: "Accept tension tone at Note a" }));
+    expect(h.onAccept).toHaveBeenLastCalledWith([{ noteKey: "a", role: "tension" }]);
+    fireEvent.click(screen.getByRole("button", { name: "Accept all 2" }));
+    expect(h.onAccept).toHaveBeenLastCalledWith([
+      { noteKey: "a", role: "tension" },
+      { noteKey: "c", role: "tension" },
+    ]);
+    fireEvent.click(screen.getByRole("button", { name: "Dismiss peak at Note b" }));
+    expect(h.onDismiss).toHaveBeenCalledWith({ noteKey: "b", role: "peak" });
+    fireEvent.click(screen.getByRole("button", { name: "Show me Note c" }));
+    expect(h.onShow).toHaveBeenCalledWith("c");
+  });
+
+  it("lets a reader look but not decide", () => {
+    setup([s("a", "tension", 0.9)], false);
+    expect(screen.queryByRole("button", { name: /Accept/ })).toBeNull();
+    expect(screen.getByRole("button", { name: /Show me/ })).toBeTruthy();
+  });
+});

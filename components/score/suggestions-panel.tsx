@@ -1,0 +1,102 @@
+"use client";
+
+import type { Role, Suggestion } from "@/lib/analysis/types";
+import { ROLE_INFO, ROLE_ORDER } from "@/lib/markings/roles";
+import { confidenceLabel, groupByRole } from "@/lib/markings/suggestions";
+import { RoleIcon } from "./role-icon";
+
+export interface SuggestionsPanelProps {
+  /** Suggestions still waiting for a decision (see pendingSuggestions). */
+  pending: Suggestion[];
+  /** How many were decided (accepted or dismissed) already. */
+  decidedCount: number;
+  labelOf: (noteKey: string) => string;
+  canEdit: boolean;
+  onAccept: (items: { noteKey: string; role: Role }[]) => void;
+  onDismiss: (item: { noteKey: string; role: Role }) => void;
+  onShow: (noteKey: string) => void;
+}
+
+/** The analysis' suggestions by role, each with its reason, to accept, dismiss or look at. */
+export function SuggestionsPanel({ pending, decidedCount, labelOf, canEdit, onAccept, onDismiss, onShow }: SuggestionsPanelProps) {
+  const groups = groupByRole(pending, ROLE_ORDER);
+  return (
+    <section aria-label="Suggestions" className="space-y-5" data-testid="suggestions-panel">
+      <header>
+        <h2 className="text-lg font-semibold">Suggestions</h2>
+        <p className="text-sm text-graphite">
+          {pending.length === 0
+            ? "Nothing waiting for a decision."
+            : `${pending.length} waiting; outlined dashed on the score until you decide.`}
+          {decidedCount > 0 ? ` ${decidedCount} decided.` : ""}
+        </p>
+      </header>
+      {groups.map(({ role, items }) => (
+        <section key={role} aria-labelledby={`sg-${role}`} className="space-y-2">
+          <div className="flex items-center justify-between gap-2">
+            <h3 id={`sg-${role}`} className="flex items-center gap-2 font-sans text-base font-semibold">
+              <RoleIcon role={role} hollow size={16} />
+              {ROLE_INFO[role].label} <span className="font-normal text-graphite">({items.length})</span>
+            </h3>
+            {canEdit && items.length > 1 ? (
+              <button
+                type="button"
+                className="h-11 rounded px-2 text-sm font-medium text-accent-strong underline-offset-2 hover:underline"
+                onClick={() => onAccept(items.map((s) => ({ noteKey: s.note, role: s.role })))}
+              >
+                Accept all {items.length}
+              </button>
+            ) : null}
+          </div>
+          <ul className="space-y-2">
+            {items.map((s) => {
+              const kind = confidenceLabel(s.confidence);
+              return (
+                <li key={`${s.note}|${s.role}`} className="rounded-card border border-rule bg-paper-card p-3" data-suggestion={s.note} data-role={s.role}>
+                  <div className="flex items-baseline justify-between gap-2">
+                    <span className="font-semibold">{labelOf(s.note)}</span>
+                    <span className={`text-xs ${kind === "suggested" ? "font-semibold" : "italic text-graphite"}`}>
+                      {kind} · {Math.round(s.confidence * 100)}%
+                    </span>
+                  </div>
+                  <p className="mt-1 text-sm">{s.reason}</p>
+                  {s.resolvesTo ? <p className="mt-1 text-xs text-graphite">Resolves to {labelOf(s.resolvesTo)}.</p> : null}
+                  <div className="mt-2 flex flex-wrap gap-2">
+                    {canEdit ? (
+                      <>
+                        <button
+                          type="button"
+                          onClick={() => onAccept([{ noteKey: s.note, role: s.role }])}
+                          className="h-11 rounded bg-ink px-3 text-sm font-semibold text-paper hover:bg-ink-soft"
+                          aria-label={`Accept ${ROLE_INFO[s.role].label.toLowerCase()} at ${labelOf(s.note)}`}
+                        >
+                          Accept
+                        </button>
+                        <button
+                          type="button"
+                          onClick={() => onDismiss({ noteKey: s.note, role: s.role })}
+                          className="h-11 rounded border border-rule px-3 text-sm hover:border-graphite"
+                          aria-label={`Dismiss ${ROLE_INFO[s.role].label.toLowerCase()} at ${labelOf(s.note)}`}
+                        >
+                          Dismiss
+                        </button>
+                      </>
+                    ) : null}
+                    <button
+                      type="button"
+                      onClick={() => onShow(s.note)}
+                      className="h-11 rounded px-3 text-sm text-accent-strong underline-offset-2 hover:underline"
+                      aria-label={`Show me ${labelOf(s.note)}`}
+                    >
+                      Show me
+                    </button>
+                  </div>
+                </li>
+              );
+            })}
+          </ul>
+        </section>
+      ))}
+    </section>
+  );
+}

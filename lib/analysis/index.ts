@@ -1,0 +1,105 @@
+/**
+ * The analysis of a score, part by part: key, local keys, degrees, tension tones with their
+ * resolutions, phrases, and the suggestions built from them. Pure and deterministic.
+ */
+import type { PartModel, ScoreModel } from "@/lib/musicxml/model";
+import type { AnalyzedNote, LocalKey, PartAnalysis, ScoreAnalysis, Suggestion } from "./types";
+import { degreeOf } from "./degree";
+import { type Key, keyFromSignature, majorOf, toKeyResult } from "./key";
+import { type KeySection, type LocalKeySpan, keySections, localKeysOf } from "./local-keys";
+import { Accompaniment, buildTimeline, extractMelody, frac, fracString, type MelodyNote } from "./melody";
+import { findPhrases } from "./phrases";
+import { asciiName, mod } from "./spelling";
+import { phraseSuggestions, tensionSuggestions } from "./suggestions";
+import { findTensions } from "./tension";
+
+/** Bump whenever results change: stored analyses with another version are recomputed. */
+export const ANALYSIS_VERSION = 1;
+
+const ROLE_ORDER: Record<Suggestion["role"], number> = { "phrase-start": 0, peak: 1, tension: 2, resolution: 3 };
+
+/** Duration-weighted pitch classes (quarter notes) of the other parts, per measure. */
+function accompanimentHistograms(score: ScoreModel, part: PartModel): number[][] {
+  const out = part.measures.map(() => new Array<number>(12).fill(0));
+  for (const p of score.parts) {
+    if (p === part) continue;
+    for (const n of p.notes) {
+      if (n.isRest || n.isCue || n.isGrace || !n.pitch || !out[n.measureIndex]) continue;
+      out[n.measureIndex][mod(n.pitch.midi, 12)] += frac(n.duration) * 4;
+    }
+  }
+  return out;
+}
+
+export function analyzePart(score: ScoreModel, part: PartModel): PartAnalysis {
+  const timeline = buildTimeline(score, part);
+  const melody = extractMelody(part, timeline);
+  const main = melody.filter((n) => !n.grace);
+  const sections: KeySection[] = part.measures.length > 0 ? keySections(part.measures, melody) : [];
+  const acc = accompanimentHistograms(score, part);
+  const spans: LocalKeySpan[] = sections.flatMap((s) => localKeysOf(s, melody, acc));
+
+  const keyAtMeasure: Key[] = part.measures.map(() => majorOf(0));
+  for (const s of sections) for (let i = s.fromIndex; i <= s.toIndex; i++) keyAtMeasure[i] = s.key;
+  for (const sp of spans) for (let i = sp.fromIndex; i <= sp.toIndex; i++) keyAtMeasure[i] = sp.key;
+  const keyAt = (n: MelodyNote) => keyAtMeasure[n.measureIndex];
+  const bar = (n: MelodyNote) => n.note.measureNumber;
+
+  const first = sections[0];
+  const sig = part.measures[0]?.key ?? { fifths: 0, mode: null };
+  const key = first
+    ? toKeyResult(first.key, first.fifths, first.source)
+    : toKeyResult(keyFromSignature(sig.fifths, sig.mode) ?? majorOf(sig.fifths), sig.fifths, sig.mode ? "signature" : "inferred");
+
+  const number = (i: number) => part.measures[i].number;
+  const localKeys: LocalKey[] = [
+    ...sections.slice(1).map((s) => ({ i: s.fromIndex, k: { tonic: asciiName(s.key.tonicLof), mode: s.key.mode, fromMeasure: number(s.fromIndex), toMeasure: number(s.toIndex) } })),
+    ...spans.map((s) => ({ i: s.fromIndex, k: { tonic: asciiName(s.key.tonicLof), mode: s.key.mode, fromMeasure: number(s.fromIndex), toMeasure: number(s.toIndex) } })),
+  ]
+    .sort((a, b) => a.i - b.i)
+    .map((x) => x.k);
+
+  const notes: AnalyzedNote[] = melody.map((m) => ({
+    key: m.note.key,
+    measure: m.note.measureNumber,
+    pitch: m.note.pitch?.name ?? "",
+    midi: m.midi,
+    onset: fracString(m.note.onset),
+    duration: fracString(m.note.duration),
+    degree: degreeOf(m.lof, keyAt(m)),
+  }));
+
+  const accompaniment = new Accompaniment(score, part, timeline, melody);
+  const noChord = new Set<number>();
+  const tensions = findTensions({
+    seq: main,
+    keyAt,
+    chordAt: (n) => (accompaniment.empty ? noChord : accompaniment.soundingAt(n.measureIndex, n.pos)),
+    bar,
+  });
+  const keyStarts = new Set(sections.slice(1).map((s) => s.fromIndex));
+  const phrases = findPhrases(main, part.measures, keyStarts);
+  const ctx = { seq: main, keyAt, bar };
+  // Suggestions in time order, then by role, sorted on one number each.
+  const suggestions = [...phraseSuggestions(phrases, ctx), ...tensionSuggestions(tensions, ctx)]
+    .map(([index, s]) => ({ s, rank: index * 4 + ROLE_ORDER[s.role] }))
+    .sort((a, b) => a.rank - b.rank)
+    .map((x) => x.s);
+
+  return {
+    id: part.id,
+    name: part.name,
+    measureCount: part.measures.length,
+    noteCount: notes.length,
+    key,
+    localKeys,
+    notes,
+    phrases: phrases.map((p) => ({ start: main[p.start].note.key, peak: main[p.peak].note.key, end: main[p.end].note.key })),
+    suggestions,
+  };
+}
+
+/** Analysis of every part of a score, as printed by `npm run analyze`. */
+export function analyzeScore(score: ScoreModel, fileName: string): ScoreAnalysis {
+  return { file: fileName, parts: score.parts.map((p) => analyzePart(score, p)) };
+}

@@ -1,0 +1,53 @@
+/**
+ * Cambouropoulos' Local Boundary Detection Model (LBDM): Cambouropoulos, E. (2001), "The Local
+ * Boundary Detection Model (LBDM) and its application in the study of expressive timing",
+ * Proc. ICMC 2001. Computed as in MIDI Toolbox 1.1 `boundary.m` (Eerola & Toiviainen 2004):
+ * per interval profile x, degree of change r(i,i+1) = |x(i+1) − x(i)| / (x(i) + x(i+1)),
+ * strength s(i) = x(i) · (r(i−1,i) + r(i,i+1)), each profile normalized by its maximum when
+ * that exceeds 0.1, then weighted pitch 0.25, inter-onset interval 0.5, rest 0.25.
+ */
+export const LBDM_WEIGHTS = { pitch: 0.25, ioi: 0.5, rest: 0.25 } as const;
+
+const EPS = 1e-6;
+
+/** Strength profile of one interval sequence (length n − 1 for n notes). */
+export function changeStrength(x: readonly number[]): number[] {
+  const m = x.length;
+  const r = new Array<number>(m).fill(0);
+  for (let i = 0; i < m - 1; i++) r[i] = Math.abs(x[i + 1] - x[i]) / (x[i] + x[i + 1] + EPS);
+  const s = new Array<number>(m).fill(0);
+  for (let i = 1; i < m; i++) s[i] = x[i] * (r[i - 1] + r[i]);
+  let max = 0;
+  for (const v of s) max = Math.max(max, v);
+  if (max > 0.1) for (let i = 0; i < m; i++) s[i] /= max;
+  return s;
+}
+
+export interface LbdmNote {
+  pitch: number;
+  onset: number;
+  offset: number;
+}
+
+/**
+ * Boundary strength before each note: b[0] = 1, b[k] (k ≥ 1) = strength of the boundary between
+ * note k − 1 and note k. Times in any unit (beats in the published examples).
+ */
+export function lbdm(notes: readonly LbdmNote[]): number[] {
+  const n = notes.length;
+  if (n === 0) return [];
+  const pp: number[] = [];
+  const po: number[] = [];
+  const pr: number[] = [];
+  for (let i = 0; i < n - 1; i++) {
+    pp.push(Math.abs(notes[i + 1].pitch - notes[i].pitch));
+    po.push(notes[i + 1].onset - notes[i].onset);
+    pr.push(Math.max(0, notes[i + 1].onset - notes[i].offset));
+  }
+  const sp = changeStrength(pp);
+  const so = changeStrength(po);
+  const sr = changeStrength(pr);
+  const b = [1];
+  for (let i = 0; i < n - 1; i++) b.push(LBDM_WEIGHTS.pitch * sp[i] + LBDM_WEIGHTS.ioi * so[i] + LBDM_WEIGHTS.rest * sr[i]);
+  return b;
+}

@@ -1,0 +1,203 @@
+/**
+ * Tension tones and their resolutions, from common-practice voice leading (sources: Open Music
+ * Theory v1, "Tendency tones and functional harmonic dissonances" and "Applied chords";
+ * Hutchinson, Music Theory for the 21st-Century Classroom, "Minor scales" and "Secondary
+ * dominant chords"). The melody alone is read; other parts only adjust confidence.
+ */
+import { degreeOf, describeDegree, displayKey, inflectionOf, leadingToneLof } from "./degree";
+import type { Key } from "./key";
+import type { MelodyNote } from "./melody";
+import { displayName, mod } from "./spelling";
+
+export type TensionKind =
+  | "leading-tone"
+  | "fourth-to-third"
+  | "lowered-sixth"
+  | "fourth-to-minor-third"
+  | "raised"
+  | "lowered"
+  | "appoggiatura";
+
+export interface TensionFinding {
+  index: number;
+  kind: TensionKind;
+  confidence: number;
+  resolvesTo: number | null;
+  key: Key;
+  reason: string;
+}
+
+/**
+ * Confidences. Resolved tendency tones are what the rules are about; a leading tone the melody
+ * leaves otherwise is still reported (below "we suggest" when it simply passes downward in a
+ * scale, the usual exception). Melodic-only appoggiaturas stay "possible" unless the other parts
+ * show the note is outside the sounding chord.
+ */
+export const TENSION_CONFIDENCE = {
+  leadingToneResolved: 0.9,
+  leadingToneOrnamented: 0.8,
+  leadingToneLeft: 0.6,
+  leadingTonePassingDown: 0.5,
+  fourthToThird: 0.7,
+  fourthToThirdPassing: 0.55,
+  loweredSixth: 0.8,
+  loweredSixthLeft: 0.35,
+  fourthToMinorThird: 0.45,
+  raisedResolved: 0.85,
+  raisedLeft: 0.4,
+  loweredResolved: 0.8,
+  loweredLeft: 0.4,
+  appoggiatura: 0.4,
+  /** Added when the other parts sound a chord without the note, removed when it is in it. */
+  outsideChord: 0.25,
+  insideChord: -0.2,
+  /** Smaller nudge for rule-based tensions: a leading tone inside a dominant chord is still one. */
+  ruleOutsideChord: 0.05,
+} as const;
+
+/** How far ahead (whole notes) and how many ornamental notes a resolution may wait. */
+export const RESOLUTION_WINDOW = { maxNotesBetween: 3, maxSpan: 1 / 2, maxRest: 1 / 4 } as const;
+
+export interface TensionContext {
+  seq: readonly MelodyNote[];
+  keyAt: (n: MelodyNote) => Key;
+  /** Pitch classes the other parts sound at a note's onset (empty set when none). */
+  chordAt: (n: MelodyNote) => Set<number>;
+  bar: (n: MelodyNote) => string;
+}
+
+const clamp = (v: number) => Math.max(0.05, Math.min(0.98, Math.round(v * 100) / 100));
+
+/** The note a tension resolves to: the next note, or one reached after short ornamental notes
+ * hovering around the tension tone (a turn, a repeated note). */
+function findResolution(seq: readonly MelodyNote[], i: number, targetMidi: number): { index: number; direct: boolean } | null {
+  const t = seq[i];
+  const next = seq[i + 1];
+  if (!next) return null;
+  if (next.pos - t.end > RESOLUTION_WINDOW.maxRest + 1e-9) return null;
+  if (next.midi === targetMidi) return { index: i + 1, direct: true };
+  for (let j = i + 1; j < seq.length && j <= i + 1 + RESOLUTION_WINDOW.maxNotesBetween; j++) {
+    const n = seq[j];
+    if (n.pos - t.end > RESOLUTION_WINDOW.maxSpan + 1e-9) return null;
+    if (n.midi === targetMidi) return { index: j, direct: false };
+    if (Math.abs(n.midi - t.midi) > 2 || n.dur > t.dur + 1e-9) return null;
+  }
+  return null;
+}
+
+function motion(from: MelodyNote, to: MelodyNote | undefined): string {
+  if (!to) return "the melody ends on it";
+  const d = to.midi - from.midi;
+  const name = displayName(to.lof);
+  if (d === 0) return `it is repeated`;
+  const dir = d > 0 ? "rising" : "falling";
+  return Math.abs(d) <= 2 ? `the melody moves on by step, ${dir} to ${name}` : `the melody leaps away, ${dir} to ${name}`;
+}
+
+export function findTensions(ctx: TensionContext): TensionFinding[] {
+  const { seq, keyAt, chordAt, bar } = ctx;
+  const C = TENSION_CONFIDENCE;
+  const out: TensionFinding[] = [];
+  for (let i = 0; i < seq.length; i++) {
+    const n = seq[i];
+    const key = keyAt(n);
+    const next = seq[i + 1];
+    const prev = seq[i - 1];
+    const off = n.lof - key.tonicLof;
+    const inf = inflectionOf(n.lof, key);
+    // Most notes are no tension tone: only the rules' candidates go on.
+    const candidate = off === 5 || off === -1 || (key.mode === "minor" && off === -4) || inf !== 0 || (prev && next && n.metric >= 2);
+    if (!candidate) continue;
+    const name = displayName(n.lof);
+    const kname = displayKey(key);
+    const what = describeDegree(n.lof, key);
+    const chord = chordAt(n);
+    // The top of a written chord is a chord tone of its own part's harmony.
+    const inChord = n.chordTop || (chord.size > 0 && chord.has(mod(n.midi, 12)));
+    const ruleNudge = chord.size > 0 && !inChord ? C.ruleOutsideChord : 0;
+    const push = (kind: TensionKind, confidence: number, resolvesTo: number | null, reason: string) =>
+      out.push({ index: i, kind, confidence: clamp(confidence + (kind === "appoggiatura" ? 0 : ruleNudge)), resolvesTo, key, reason });
+    const step = (to: MelodyNote) => `${displayName(to.lof)} in bar ${bar(to)}`;
+
+    if (n.lof === leadingToneLof(key)) {
+      const res = findResolution(seq, i, n.midi + 1);
+      const tonic = displayName(key.tonicLof);
+      if (res) {
+        const how = res.direct ? "it rises a half step to" : "after a short ornament it rises a half step to";
+        push("leading-tone", res.direct ? C.leadingToneResolved : C.leadingToneOrnamented, res.index, `${name} is ${what} of ${kname}; ${how} ${step(seq[res.index])}.`);
+      } else {
+        const passingDown = next && next.midi - n.midi < 0 && next.midi - n.midi >= -2 && prev && prev.midi - n.midi > 0 && prev.midi - n.midi <= 2;
+        push(
+          "leading-tone",
+          passingDown ? C.leadingTonePassingDown : C.leadingToneLeft,
+          null,
+          `${name} in bar ${bar(n)} is ${what} of ${kname}, but it does not resolve: ${motion(n, next)} instead of rising to ${tonic}.`,
+        );
+      }
+      continue;
+    }
+
+    const deg = degreeOf(n.lof, key);
+    if (key.mode === "major" && off === -1) {
+      // 4 → 3: falls a half step to the mediant.
+      if (next && next.midi === n.midi - 1 && next.lof === key.tonicLof + 4 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9) {
+        const stressed = n.metric >= next.metric || n.dur > next.dur + 1e-9;
+        push("fourth-to-third", stressed ? C.fourthToThird : C.fourthToThirdPassing, i + 1, `${name} is ${what} of ${kname}; it falls a half step to ${step(next)}.`);
+      }
+      continue;
+    }
+    if (key.mode === "minor" && off === -4) {
+      // Lowered 6 ("le") tends to 5 ("sol").
+      const res = next && next.midi === n.midi - 1 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9 ? i + 1 : null;
+      if (res !== null) push("lowered-sixth", C.loweredSixth, res, `${name} is the lowered sixth degree of ${kname}; it falls a half step to ${step(next)}.`);
+      else push("lowered-sixth", C.loweredSixthLeft, null, `${name} in bar ${bar(n)} is the lowered sixth degree of ${kname}, but ${motion(n, next)} instead of falling to ${displayName(key.tonicLof + 1)}.`);
+      continue;
+    }
+    if (key.mode === "minor" && off === -1) {
+      if (next && next.midi === n.midi - 2 && next.lof === key.tonicLof - 3 && n.metric >= 2 && n.dur >= next.dur - 1e-9) {
+        push("fourth-to-minor-third", C.fourthToMinorThird, i + 1, `${name} is ${what} of ${kname}; it falls a step to ${step(next)}.`);
+      }
+      continue;
+    }
+    const raisedSixthOfMinor = key.mode === "minor" && off === 3;
+    if (inf > 0 && !raisedSixthOfMinor) {
+      // A chromatically raised note leads up a half step (a secondary leading tone).
+      const target = n.lof - 5;
+      if (next && next.midi === n.midi + 1 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9) {
+        push("raised", C.raisedResolved, i + 1, `${name} is ${what} in ${kname}, a leading tone to ${displayName(target)}; it rises a half step to ${step(next)}.`);
+      } else {
+        push("raised", C.raisedLeft, null, `${name} in bar ${bar(n)} is ${what} in ${kname}, but ${motion(n, next)} instead of rising to ${displayName(target)}.`);
+      }
+      continue;
+    }
+    if (inf < 0) {
+      const target = n.lof + 5;
+      if (next && next.midi === n.midi - 1 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9) {
+        push("lowered", C.loweredResolved, i + 1, `${name} is ${what} in ${kname}; it falls a half step to ${step(next)}.`);
+      } else {
+        push("lowered", C.loweredLeft, null, `${name} in bar ${bar(n)} is ${what} in ${kname}, but ${motion(n, next)} instead of falling to ${displayName(target)}.`);
+      }
+      continue;
+    }
+
+    // A possible appoggiatura: strong beat, reached by leap, left by step the other way, at
+    // least as long as the note it moves to.
+    if (prev && next && n.metric >= 2 && next.pos - n.end <= 1e-9) {
+      const inIv = n.midi - prev.midi;
+      const outIv = next.midi - n.midi;
+      if (Math.abs(inIv) >= 3 && Math.abs(outIv) >= 1 && Math.abs(outIv) <= 2 && Math.sign(inIv) !== Math.sign(outIv) && n.dur >= next.dur - 1e-9) {
+        let conf: number = C.appoggiatura;
+        if (inChord) conf += C.insideChord;
+        else if (chord.size > 0) conf += C.outsideChord;
+        else if (inf === 0 && (deg === 1 || deg === 3 || deg === 5)) conf -= 0.1;
+        push(
+          "appoggiatura",
+          conf,
+          i + 1,
+          `${name} in bar ${bar(n)}, ${what} of ${kname}, falls on a strong beat after a leap and moves by step to ${displayName(next.lof)}: possibly an appoggiatura.`,
+        );
+      }
+    }
+  }
+  return out;
+}

@@ -1,0 +1,182 @@
+import { AppError } from "@/lib/errors";
+import type { CurrentUser } from "./types";
+
+/**
+ * The one authorization policy. Every route handler and server action asks it before touching
+ * data; it is pure (the caller loads the resource and, for parts, the viewer's share), so it is
+ * tested as a table.
+ *
+ * Decisions recorded here:
+ * - Admins manage accounts (roles, disabling) and nothing else: they do not read players'
+ *   parts, markings or studios. A part is visible only to its owner and to people it is shared with.
+ * - A resource that is not visible answers 404, never 403, so its existence does not leak.
+ * - Sending mail on someone's behalf (studio invitations) needs a confirmed e-mail address, so an
+ *   unconfirmed account cannot use Ondula to mail strangers.
+ * - Admins do not join studios (an invitation to an admin's address cannot be accepted).
+ * - Admins cannot change their own role or disable themselves (no lock-out by accident).
+ */
+
+export type SharePermission = "comment" | "propose";
+
+export interface PartRef {
+  id: string;
+  ownerId: string;
+}
+
+/** The viewer's accepted, unrevoked share of the part (null when there is none). */
+export interface ShareRef {
+  permission: SharePermission;
+}
+
+export interface StudioRef {
+  id: string;
+  teacherId: string;
+}
+
+export type Resource =
+  | { type: "site" }
+  | { type: "account"; account: { id: string } }
+  | { type: "studio"; studio: StudioRef; isMember: boolean }
+  | { type: "studio_member"; studio: StudioRef; playerId: string }
+  | { type: "invitation"; invitation: { email: string }; studio: StudioRef }
+  | { type: "part"; part: PartRef; share?: ShareRef | null };
+
+export type Action =
+  | "admin:list_users"
+  | "account:edit"
+  | "account:change_role"
+  | "account:set_status"
+  | "studio:own"
+  | "studio:view"
+  | "studio:invite"
+  | "studio:remove_member"
+  | "studio:leave"
+  | "invitation:accept"
+  | "part:create"
+  | "part:view"
+  | "part:edit"
+  | "part:delete"
+  | "part:share"
+  | "part:comment"
+  | "part:propose"
+  | "marking:write";
+
+type ResourceType = Resource["type"];
+
+/** Which resource each action applies to; a mismatch is a programming error, caught in tests. */
+export const ACTION_RESOURCE: Record<Action, ResourceType> = {
+  "admin:list_users": "site",
+  "account:edit": "account",
+  "account:change_role": "account",
+  "account:set_status": "account",
+  "studio:own": "site",
+  "studio:view": "studio",
+  "studio:invite": "studio",
+  "studio:remove_member": "studio_member",
+  "studio:leave": "studio",
+  "invitation:accept": "invitation",
+  "part:create": "site",
+  "part:view": "part",
+  "part:edit": "part",
+  "part:delete": "part",
+  "part:share": "part",
+  "part:comment": "part",
+  "part:propose": "part",
+  "marking:write": "part",
+};
+
+const isAdmin = (u: CurrentUser) => u.role === "admin";
+const sameEmail = (a: string, b: string) => a.trim().toLowerCase() === b.trim().toLowerCase();
+
+/** Whether the resource exists as far as this user may know. */
+function visible(user: CurrentUser, action: Action, resource: Resource): boolean {
+  switch (resource.type) {
+    case "site":
+      if (action === "admin:list_users") return isAdmin(user);
+      if (action === "studio:own") return user.role === "teacher";
+      return true;
+    case "account":
+      return isAdmin(user) || resource.account.id === user.id;
+    case "studio":
+      return resource.studio.teacherId === user.id || resource.isMember;
+    case "studio_member":
+      return resource.studio.teacherId === user.id || resource.playerId === user.id;
+    case "invitation":
+      // Whoever holds the token may see where it leads; acceptance checks the address.
+      return true;
+    case "part":
+      return resource.part.ownerId === user.id || !!resource.share;
+  }
+}
+
+function allowed(user: CurrentUser, action: Action, resource: Resource): boolean {
+  switch (action) {
+    case "admin:list_users":
+      return isAdmin(user);
+    case "account:edit":
+      return resource.type === "account" && resource.account.id === user.id;
+    case "account:change_role":
+    case "account:set_status":
+      return resource.type === "account" && isAdmin(user) && resource.account.id !== user.id;
+    case "studio:own":
+      return user.role === "teacher";
+    case "studio:view":
+      return resource.type === "studio" && (resource.studio.teacherId === user.id || resource.isMember);
+    case "studio:invite":
+      return (
+        resource.type === "studio" && user.role === "teacher" && resource.studio.teacherId === user.id && user.emailVerified
+      );
+    case "studio:remove_member":
+      return resource.type === "studio_member" && user.role === "teacher" && resource.studio.teacherId === user.id;
+    case "studio:leave":
+      return resource.type === "studio" && resource.isMember && resource.studio.teacherId !== user.id;
+    case "invitation:accept":
+      return (
+        resource.type === "invitation" && !isAdmin(user) && sameEmail(resource.invitation.email, user.email) &&
+        resource.studio.teacherId !== user.id
+      );
+    case "part:create":
+      // Admins keep to accounts; players and teachers both work on their own parts.
+      return !isAdmin(user);
+    case "part:view":
+    case "part:comment":
+      return resource.type === "part" && (resource.part.ownerId === user.id || !!resource.share);
+    case "part:edit":
+    case "part:delete":
+    case "part:share":
+    case "marking:write":
+      return resource.type === "part" && resource.part.ownerId === user.id;
+    case "part:propose":
+      return resource.type === "part" && resource.part.ownerId !== user.id && resource.share?.permission === "propose";
+  }
+}
+
+export function can(user: CurrentUser | null, action: Action, resource: Resource): boolean {
+  if (!user) return false;
+  if (ACTION_RESOURCE[action] !== resource.type) return false;
+  return visible(user, action, resource) && allowed(user, action, resource);
+}
+
+const FORBIDDEN_MESSAGES: Partial<Record<Action, string>> = {
+  "account:change_role": "Admins cannot change their own role.",
+  "account:set_status": "Admins cannot disable their own account.",
+  "studio:invite": "Only the studio's teacher can invite, once their e-mail address is confirmed.",
+  "invitation:accept": "This invitation was sent to a different e-mail address.",
+  "part:propose": "Proposals need a share with the propose permission.",
+};
+
+/**
+ * Throws when `can` is false: 401 without a session, 404 when the resource is not visible to the
+ * user (existence does not leak), 403 when it is visible but the action is not allowed.
+ */
+export function assertCan(user: CurrentUser | null, action: Action, resource: Resource): asserts user is CurrentUser {
+  if (!user) throw new AppError("unauthorized:session", "Sign in to continue.");
+  if (ACTION_RESOURCE[action] !== resource.type) {
+    throw new Error(`policy: action ${action} does not apply to a ${resource.type}`);
+  }
+  const noun = resource.type === "site" ? "page" : resource.type;
+  if (!visible(user, action, resource)) throw new AppError(`not_found:${noun}`, "Not found.");
+  if (!allowed(user, action, resource)) {
+    throw new AppError(`forbidden:${noun}`, FORBIDDEN_MESSAGES[action] ?? "You do not have permission to do that.");
+  }
+}

@@ -1,0 +1,75 @@
+import { describe, expect, it, vi } from "vitest";
+import { z } from "zod";
+import { AppError } from "@/lib/errors";
+import { clientAddress } from "./client-address";
+import { handle, parseJson, parseParams } from "./handler";
+import { safeCallbackPath } from "./safe-redirect";
+
+const ctx = { params: Promise.resolve({}) };
+const req = (body?: string) => new Request("http://app.test/api/x", { method: "POST", body });
+
+describe("handle()", () => {
+  it("turns an AppError into its status and { code, message, field }", async () => {
+    const res = await handle(async () => {
+      throw new AppError("forbidden:part", "Only the owner can do that.", { field: "partId" });
+    })(req(), ctx);
+    expect(res.status).toBe(403);
+    expect(await res.json()).toEqual({ code: "forbidden:part", message: "Only the owner can do that.", field: "partId" });
+  });
+
+  it("answers 400 naming the field for a zod error", async () => {
+    const res = await handle(async (r) => {
+      await parseJson(r, z.object({ title: z.string().min(1, "Give a title.") }));
+      return Response.json({});
+    })(req(JSON.stringify({ title: "" })), ctx);
+    expect(res.status).toBe(400);
+    expect(await res.json()).toMatchObject({ code: "bad_request:validation", field: "title", message: "title: Give a title." });
+  });
+
+  it("answers 400 for a body that is not JSON", async () => {
+    const res = await handle(async (r) => Response.json(await parseJson(r, z.unknown())))(req("{oops"), ctx);
+    expect(res.status).toBe(400);
+    expect((await res.json()).code).toBe("bad_request:json");
+  });
+
+  it("hides unexpected errors behind a generic 500 and logs them", async () => {
+    const log = vi.spyOn(console, "error").mockImplementation(() => {});
+    const res = await handle(async () => {
+      throw new Error("connection string postgres://secret");
+    })(req(), ctx);
+    expect(res.status).toBe(500);
+    expect(JSON.stringify(await res.json())).not.toContain("secret");
+    expect(log).toHaveBeenCalled();
+    log.mockRestore();
+  });
+
+  it("passes Retry-After and other AppError headers through", async () => {
+    const res = await handle(async () => {
+      throw new AppError("rate_limited:sign_in", "Too many.", { headers: { "Retry-After": "60" } });
+    })(req(), ctx);
+    expect(res.status).toBe(429);
+    expect(res.headers.get("retry-after")).toBe("60");
+  });
+
+  it("validates params", async () => {
+    await expect(parseParams(Promise.resolve({ partId: "x" }), z.object({ partId: z.string().uuid() }))).rejects.toBeInstanceOf(z.ZodError);
+  });
+});
+
+describe("clientAddress()", () => {
+  it("trusts the last X-Forwarded-For entry (the one the nearest proxy appended)", () => {
+    expect(clientAddress(new Headers({ "x-forwarded-for": "1.2.3.4, 10.0.0.7" }))).toBe("10.0.0.7");
+    expect(clientAddress({ "x-forwarded-for": "198.51.100.2" })).toBe("198.51.100.2");
+    expect(clientAddress(new Headers())).toBe("unknown");
+  });
+});
+
+describe("safeCallbackPath()", () => {
+  it("keeps same-site paths and refuses other origins", () => {
+    expect(safeCallbackPath("/studio?joined=1")).toBe("/studio?joined=1");
+    expect(safeCallbackPath("//evil.example/x")).toBe("/parts");
+    expect(safeCallbackPath("https://evil.example/")).toBe("/parts");
+    expect(safeCallbackPath("/\\evil.example")).toBe("/parts");
+    expect(safeCallbackPath(undefined, "")).toBe("");
+  });
+});

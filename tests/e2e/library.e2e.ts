@@ -1,0 +1,92 @@
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { BrowserContext, Page } from "playwright-core";
+import { launchContext, screenshotPath } from "../helpers/browser";
+import { APP_URL } from "../helpers/env";
+import { signUpAndSignIn } from "../helpers/pages";
+import { SAMPLES_DIR } from "../helpers/parts";
+import { uniqueSuffix } from "../helpers/session";
+
+const rowTitles = (page: Page) => page.locator("tbody tr td:first-child a").allTextContents();
+
+async function backToLibrary(page: Page) {
+  await page.goto(`${APP_URL}/parts`);
+  await page.locator("tbody tr").first().waitFor();
+}
+
+describe("the library in the browser", () => {
+  let context: BrowserContext;
+  let page: Page;
+
+  beforeAll(async () => {
+    context = await launchContext();
+    page = await context.newPage();
+  });
+  afterAll(async () => {
+    await context?.close();
+  });
+
+  it("a new player signs up, meets the empty library and uploads a file", async () => {
+    await signUpAndSignIn(page, {
+      name: "Lior Vantane",
+      email: `e2e-library-${uniqueSuffix()}@test.ondula.test`,
+      password: "reed-and-breath-daily",
+      callbackUrl: "/parts",
+    });
+    await page.getByText("No parts yet.").waitFor();
+
+    await page.getByLabel("Choose a file").setInputFiles(path.join(SAMPLES_DIR, "harbour-song.musicxml"));
+    await page.waitForURL(/\/parts\/[0-9a-f-]{36}$/);
+    await backToLibrary(page);
+    expect(await rowTitles(page)).toHaveLength(1);
+  });
+
+  it("shows the reader's message next to a file it cannot use", async () => {
+    await page.getByLabel("Choose a file").setInputFiles({ name: "photo.musicxml", mimeType: "image/png", buffer: Buffer.from("89504e470d0a1a0a0000000d49484452", "hex") });
+    const alert = page.getByRole("alert").filter({ hasText: "photo.musicxml could not be used" });
+    await alert.waitFor();
+    expect(await alert.textContent()).toMatch(/Error code: unsupported:/);
+  });
+
+  it("brings in samples, sorts, searches, renames and deletes", async () => {
+    for (const sample of ["lantern waltz", "morning ferry", "quiet orchard", "evening duet"]) {
+      await page.getByLabel("Sample part").selectOption({ label: sample });
+      await page.getByRole("button", { name: "Try this sample" }).click();
+      if (sample === "evening duet") {
+        // A flute-and-piano score asks which part the player plays, the flute chosen first.
+        const flute = page.getByRole("radio", { name: /Flute/ });
+        await flute.waitFor();
+        expect(await flute.isChecked()).toBe(true);
+        await page.getByRole("button", { name: "Open this part" }).click();
+      }
+      await page.waitForURL(/\/parts\/[0-9a-f-]{36}$/);
+      await backToLibrary(page);
+    }
+    expect(await rowTitles(page)).toHaveLength(5);
+    await page.screenshot({ path: screenshotPath("library-five-parts"), fullPage: true });
+
+    await page.getByRole("button", { name: /^Title/ }).click();
+    await page.waitForFunction(() => document.querySelector("th[aria-sort='ascending']") !== null);
+    const ascending = await rowTitles(page);
+    expect(ascending).toEqual([...ascending].sort((a, b) => a.toLowerCase().localeCompare(b.toLowerCase())));
+    await page.getByRole("button", { name: /^Title/ }).click();
+    await page.waitForFunction(() => document.querySelector("th[aria-sort='descending']") !== null);
+    expect(await rowTitles(page)).toEqual([...ascending].reverse());
+
+    const target = ascending[0];
+    await page.getByLabel("Search title or composer").fill(target.split(" ")[0]);
+    await page.waitForFunction((n) => document.querySelectorAll("tbody tr").length === n, 1);
+    expect(await rowTitles(page)).toEqual([target]);
+
+    await page.getByRole("button", { name: `Rename ${target}` }).click();
+    await page.getByLabel("New title").fill("Audition copy");
+    await page.getByRole("button", { name: "Save" }).click();
+    await page.getByLabel("Search title or composer").fill("");
+    await page.getByRole("link", { name: "Audition copy" }).waitFor();
+
+    await page.getByRole("button", { name: "Delete Audition copy" }).click();
+    await page.getByRole("button", { name: "Delete for good" }).click();
+    await page.waitForFunction((n) => document.querySelectorAll("tbody tr").length === n, 4);
+    expect(await rowTitles(page)).not.toContain("Audition copy");
+  });
+});

@@ -1,0 +1,101 @@
+import fs from "node:fs";
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { BrowserContext } from "playwright-core";
+import { readScoreFile } from "@/lib/musicxml";
+import { scoreNoteKeys } from "@/lib/musicxml/key-order";
+import { launchContext, screenshotPath } from "../helpers/browser";
+import { APP_URL } from "../helpers/env";
+
+// A marking attaches to a note through its key; if the browser's key (from the engraving
+// library's model) differed from the server's (from the MusicXML reader), markings would land on
+// the wrong notes. Every sample is engraved in Chromium and the two lists must be identical.
+const samplesDir = path.resolve(import.meta.dirname, "../../samples");
+const files = fs.readdirSync(samplesDir).filter((f) => /\.(musicxml|mxl)$/.test(f)).sort();
+
+function serverKeys(file: string): string[] {
+  const bytes = new Uint8Array(fs.readFileSync(path.join(samplesDir, file)));
+  return scoreNoteKeys(readScoreFile(bytes, file).score);
+}
+
+/**
+ * Keys worked out by hand from the files (common practice of reading MusicXML: the pickup bar is
+ * measure index 0, a tie chain is keyed by its first note, a grace note by the onset of the note
+ * it leads into). They catch a mistake both sides might share.
+ */
+const HAND_CHECKED: Record<string, { present: string[]; absent: string[] }> = {
+  // Anacrusis D4 (measure number "0"), then G4 on the downbeat of measure "1".
+  "harbour-song.musicxml": { present: ["P1:m0:s1:v1:0/1:62", "P1:m1:s1:v1:0/1:67", "P1:m1:s1:v1:3/8:69"], absent: [] },
+  // E5 tied from bar 2 (three eighths in) into bar 3: one key, on the first note.
+  "morning-ferry.musicxml": { present: ["P1:m2:s1:v1:3/8:76", "P1:m7:s1:v1:3/8:81"], absent: ["P1:m3:s1:v1:0/1:76", "P1:m8:s1:v1:0/1:81"] },
+  // Grace F5 before the G5 that opens bar 6 (measure index 5).
+  "lantern-waltz.musicxml": { present: ["P1:m5:s1:v1:0/1:77:g1", "P1:m5:s1:v1:0/1:79"], absent: [] },
+  // Piano right-hand chord F4 A4 C5 on staff 1, bass F3 on staff 2 in voice 5 after <backup>.
+  "evening-duet.musicxml": {
+    present: ["P2:m0:s1:v1:0/1:65", "P2:m0:s1:v1:0/1:69", "P2:m0:s1:v1:0/1:72", "P2:m0:s2:v5:0/1:53", "P1:m0:s1:v1:7/8:79"],
+    absent: [],
+  },
+  // F double-sharp (MIDI 79) as the leading tone of G-sharp minor.
+  "moth-and-candle.musicxml": { present: ["P1:m4:s1:v1:1/8:79"], absent: [] },
+};
+
+describe("note keys: server and browser agree", () => {
+  let context: BrowserContext;
+  beforeAll(async () => {
+    context = await launchContext({ width: 1400, height: 1000 });
+  });
+  afterAll(async () => {
+    await context?.close();
+  });
+
+  it("covers every sample", () => {
+    expect(files.length).toBeGreaterThanOrEqual(14);
+    expect(files).toContain("willow-round.mxl");
+  });
+
+  for (const file of files) {
+    it(`${file}: the engraving gives the server's keys, note for note`, async () => {
+      const expected = serverKeys(file);
+      expect(expected.length).toBeGreaterThan(20);
+
+      const page = await context.newPage();
+      const pageErrors: string[] = [];
+      page.on("pageerror", (err) => pageErrors.push(err.message));
+      try {
+        const response = await page.goto(`${APP_URL}/dev/engrave?sample=${encodeURIComponent(file)}`);
+        expect(response?.status()).toBe(200);
+        await page.waitForSelector('[data-state="ready"], [data-state="error"]', { timeout: 60_000 });
+        // Next.js keeps an empty route announcer with role=alert; only the wrapper's own counts.
+        const alert = await page.locator('[data-state] [role="alert"]').allTextContents();
+        expect({ alert, pageErrors }).toEqual({ alert: [], pageErrors: [] });
+        expect(await page.getAttribute("[data-state]", "data-ready")).toBe("true");
+
+        const actual = await page.evaluate(() => window.__ondulaKeys ?? null);
+        expect(actual).toEqual(expected);
+
+        const hand = HAND_CHECKED[file];
+        if (hand) {
+          for (const key of hand.present) expect(expected).toContain(key);
+          for (const key of hand.absent) expect(expected).not.toContain(key);
+        }
+        if (file === "evening-duet.musicxml") {
+          await page.screenshot({ path: screenshotPath("engraved-evening-duet"), fullPage: true });
+        }
+      } finally {
+        await page.close();
+      }
+    });
+  }
+
+  it("answers 404 for a name that is not a sample", async () => {
+    const page = await context.newPage();
+    try {
+      for (const sample of ["../package.json", "missing.musicxml"]) {
+        const response = await page.goto(`${APP_URL}/dev/engrave?sample=${encodeURIComponent(sample)}`);
+        expect(response?.status()).toBe(404);
+      }
+    } finally {
+      await page.close();
+    }
+  });
+});

@@ -1,0 +1,134 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { BrowserContext, Page } from "playwright-core";
+import { launchContext, screenshotPath } from "../helpers/browser";
+import { APP_URL } from "../helpers/env";
+import { signInThroughForm } from "../helpers/pages";
+import { createUser } from "../helpers/session";
+
+const hit = (page: Page, key: string) => page.locator(`[data-layer="hits"] [data-note-key="${key}"]`);
+const glyph = (page: Page, kind: string, key: string) => page.locator(`[data-glyph="${kind}"][data-note-key="${key}"]`);
+
+async function openWorkspace(page: Page, partId: string) {
+  await page.goto(`${APP_URL}/parts/${partId}`);
+  await page.locator('[data-score-status="ready"]').waitFor({ timeout: 60_000 });
+  await page.locator('[data-layer="hits"] [data-note-key]').first().waitFor();
+}
+
+async function saved(page: Page) {
+  await page.waitForFunction(() => /saved/i.test(document.querySelector('[data-testid="save-state"]')?.textContent ?? ""));
+}
+
+/** Marks one note through the panel: depth and speed typed, role chosen. */
+async function markNote(page: Page, key: string, m: { depth: number; speed: number; role: string }) {
+  await hit(page, key).click();
+  const panel = page.getByTestId("marking-panel");
+  await panel.waitFor();
+  await panel.getByLabel("Depth", { exact: true }).fill(String(m.depth));
+  await panel.getByLabel("Depth", { exact: true }).press("Enter");
+  await panel.getByLabel("Speed", { exact: true }).fill(String(m.speed));
+  await panel.getByLabel("Speed", { exact: true }).press("Enter");
+  await panel.getByRole("radio", { name: m.role }).check();
+  await glyph(page, "wave", key).waitFor();
+  await saved(page);
+}
+
+describe("the marking workspace", () => {
+  let context: BrowserContext;
+  let page: Page;
+  let partId: string;
+  let keys: string[];
+
+  beforeAll(async () => {
+    context = await launchContext();
+    page = await context.newPage();
+    const user = await createUser({ role: "player" });
+    await signInThroughForm(page, user.email, user.password, "/parts");
+    const created = await page.evaluate(async () => {
+      const res = await fetch("/api/parts/samples", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ name: "stone-bridge.musicxml" }) });
+      return res.json();
+    });
+    partId = created.id;
+    await openWorkspace(page, partId);
+    keys = await page.locator('[data-layer="hits"] [data-note-key]').evaluateAll((els) => els.map((e) => e.getAttribute("data-note-key")!));
+    expect(keys.length).toBeGreaterThan(10);
+  });
+  afterAll(async () => {
+    await context?.close();
+  });
+
+  it("marks three notes, and after a reload they are there, drawn above their notes", async () => {
+    const chosen = [keys[1], keys[4], keys[8]];
+    const values = [
+      { depth: 12, speed: 5, role: "Phrase start" },
+      { depth: 35, speed: 6.5, role: "Peak" },
+      { depth: 0, speed: 5.5, role: "Resolution" },
+    ];
+    for (let i = 0; i < 3; i++) await markNote(page, chosen[i], values[i]);
+    await page.screenshot({ path: screenshotPath("workspace-desktop"), fullPage: false });
+
+    await openWorkspace(page, partId);
+    const markings = (await page.evaluate(async (id) => (await fetch(`/api/parts/${id}/markings`)).json(), partId)).markings as Array<{ noteKey: string; depthCents: number; speedHz: number; role: string }>;
+    for (let i = 0; i < 3; i++) {
+      const m = markings.find((x) => x.noteKey === chosen[i])!;
+      expect(m).toMatchObject({ depthCents: values[i].depth, speedHz: values[i].speed, role: values[i].role.toLowerCase().replace(" ", "-") });
+      const note = (await hit(page, chosen[i]).boundingBox())!;
+      const wave = (await glyph(page, "wave", chosen[i]).boundingBox())!;
+      const role = (await glyph(page, "role", chosen[i]).boundingBox())!;
+      const noteCentre = note.x + note.width / 2;
+      // Glyphs sit over their own note (horizontally centred on it) and above the notehead.
+      expect(Math.abs(wave.x + wave.width / 2 - noteCentre)).toBeLessThan(note.width / 2 + 2);
+      expect(Math.abs(role.x + role.width / 2 - noteCentre)).toBeLessThan(note.width / 2 + 2);
+      expect(wave.y + wave.height).toBeLessThan(note.y + note.height - 8);
+    }
+    // Depth 0 is drawn as a flat line: "deliberately none".
+    expect(await glyph(page, "wave", chosen[2]).getAttribute("data-kind")).toMatch(/none|flat/);
+  });
+
+  it("accepts a suggested leading tone and undoes it", async () => {
+    await page.getByRole("button", { name: "Suggestions" }).click();
+    const accept = page.getByRole("button", { name: /^Accept tension tone at / }).first();
+    await accept.waitFor();
+    const label = (await accept.getAttribute("aria-label"))!.replace(/^Accept tension tone at /, "");
+    const before = (await page.evaluate(async (id) => (await fetch(`/api/parts/${id}/markings`)).json(), partId)).markings.length;
+    await accept.click();
+    await saved(page);
+    const after = (await page.evaluate(async (id) => (await fetch(`/api/parts/${id}/markings`)).json(), partId)).markings;
+    expect(after.length).toBe(before + 1);
+    const accepted = after.find((m: { role: string }) => m.role === "tension");
+    expect(accepted, `tension tone at ${label}`).toBeTruthy();
+    await glyph(page, "role", accepted.noteKey).waitFor();
+
+    await page.keyboard.press("Control+z");
+    await glyph(page, "role", accepted.noteKey).waitFor({ state: "detached" });
+    const undone = (await page.evaluate(async (id) => (await fetch(`/api/parts/${id}/markings`)).json(), partId)).markings;
+    expect(undone.find((m: { noteKey: string }) => m.noteKey === accepted.noteKey)).toBeUndefined();
+  });
+
+  it("shows the conflict prompt to the second of two tabs editing the same note", async () => {
+    const key = keys[12];
+    await markNote(page, key, { depth: 20, speed: 5, role: "Peak" });
+    const second = await context.newPage();
+    await openWorkspace(second, partId);
+    // The first tab changes the note; the second still holds the older version.
+    await markNote(page, key, { depth: 25, speed: 5, role: "Peak" });
+    await hit(second, key).click();
+    const panel = second.getByTestId("marking-panel");
+    await panel.getByLabel("Depth", { exact: true }).fill("40");
+    await panel.getByLabel("Depth", { exact: true }).press("Enter");
+    const prompt = second.getByTestId("conflict-prompt");
+    await prompt.waitFor();
+    expect(await prompt.textContent()).toContain("Mine");
+    expect(await prompt.textContent()).toContain("Current");
+    await second.screenshot({ path: screenshotPath("workspace-conflict") });
+    await prompt.getByRole("button", { name: "Take current" }).click();
+    await second.close();
+  });
+
+  it("fits a tablet", async () => {
+    await page.setViewportSize({ width: 820, height: 1180 });
+    await openWorkspace(page, partId);
+    await hit(page, keys[4]).click();
+    await page.getByTestId("marking-panel").waitFor();
+    await page.screenshot({ path: screenshotPath("workspace-tablet") });
+  });
+});

@@ -1,0 +1,31 @@
+import { APP_URL } from "./env";
+
+export interface MailSummary {
+  id: string;
+  to: string[];
+  subject: string;
+  text: string;
+  links: string[];
+  date: string;
+}
+
+/** Polls the app's GET /api/dev/mail for the newest message to `to` matching `subject`. */
+export async function waitForMail(to: string, subject: RegExp, timeoutMs = 10_000): Promise<MailSummary> {
+  const started = Date.now();
+  for (;;) {
+    const res = await fetch(`${APP_URL}/api/dev/mail?to=${encodeURIComponent(to)}`);
+    if (res.ok) {
+      const found = ((await res.json()) as MailSummary[]).find((m) => subject.test(m.subject));
+      if (found) return found;
+    }
+    if (Date.now() - started > timeoutMs) throw new Error(`no mail to ${to} matching ${subject} within ${timeoutMs} ms`);
+    await new Promise((r) => setTimeout(r, 150));
+  }
+}
+
+/** The first link in the message that points at `path` of the app. */
+export function linkTo(mail: MailSummary, path: string): string {
+  const link = mail.links.find((l) => l.startsWith(`${APP_URL}${path}`) || new URL(l).pathname === path);
+  if (!link) throw new Error(`no link to ${path} in "${mail.subject}": ${mail.links.join(", ")}`);
+  return link;
+}
