@@ -34,7 +34,7 @@ export default async function PartWorkspacePage({ params }: { params: Promise<{ 
   queryClient.setQueryData(partKeys.detail(partId), dto);
   return (
     <HydrationBoundary state={dehydrate(queryClient)}>
-      <Workspace partId={partId} />
+      <Workspace partId={partId} viewerId={user.id} />
     </HydrationBoundary>
   );
 }
