@@ -92,6 +92,10 @@ export async function lookUpInvitation(token: string, viewer: CurrentUser | null
  * be the account with that address. A refusal leaves the token unused.
  */
 export async function acceptInvitation(token: string, viewer: CurrentUser): Promise<{ partId: string }> {
+  // Admins keep to accounts and never read players' parts (see the policy module).
+  if (viewer.role === "admin") {
+    throw new AppError("forbidden:invitation_admin", "Admin accounts do not take part in sharing. Sign in with a player or teacher account.");
+  }
   const found = await lookUpInvitation(token, viewer);
   switch (found.state) {
     case "invalid":
