@@ -458,7 +458,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
           ref={railRef}
           aria-label="Marking and suggestions"
           data-open={panelOpen ? "true" : "false"}
-          className="no-print fixed inset-x-0 bottom-0 z-20 max-h-[45dvh] overflow-y-auto border-t border-ink/20 bg-paper p-4 shadow-[0_-4px_16px_rgba(27,26,23,0.12)] data-[open=false]:hidden lg:static lg:z-auto lg:block lg:max-h-none lg:w-rail lg:shrink-0 lg:border-l lg:border-t-0 lg:border-rule lg:shadow-none lg:data-[open=false]:block"
+          className="no-print fixed inset-x-0 bottom-0 z-20 max-h-[45dvh] overflow-y-auto border-t border-ink/20 bg-paper p-4 shadow-[0_-4px_16px_rgba(27,26,23,0.12)] data-[open=false]:hidden lg:relative lg:z-auto lg:block lg:max-h-none lg:w-rail lg:shrink-0 lg:border-l lg:border-t-0 lg:border-rule lg:shadow-none lg:data-[open=false]:block"
         >
           <div className="mb-3 flex gap-1 border-b border-rule" role="tablist" aria-label="Side panel">
             <Tab selected={sideView === "marking" && keys.length > 0} onClick={() => actions.setSideView("marking")} disabled={keys.length === 0}>

@@ -11,6 +11,7 @@ import {
   acceptShareById, getLiveShareByEmail, getShareByTokenHash, insertShare, renewShareTokenById, type ShareByToken,
 } from "@/db/shares";
 import type { Part, Share } from "@/db/schema";
+import { markEmailVerified } from "@/db/users";
 
 /** An invitation link works for 14 days. */
 export const SHARE_TTL_MS = 14 * 24 * 3600_000;
@@ -120,6 +121,8 @@ export async function acceptInvitation(token: string, viewer: CurrentUser): Prom
     case "ready": {
       const ok = await acceptShareById({ shareId: found.invitation.share.id, userId: viewer.id });
       if (!ok) throw new AppError("conflict:invitation_used", "This invitation has just been used or withdrawn.");
+      // The link reached this mailbox, so the address is confirmed (as with studio invitations).
+      if (!viewer.emailVerified) await markEmailVerified({ userId: viewer.id });
       return { partId: found.invitation.share.partId };
     }
   }
