@@ -49,7 +49,7 @@ export function PartsTable() {
             type="search"
             value={search}
             onChange={(e) => setSearch(e.target.value)}
-            className="mt-1 w-64 rounded-card border border-rule bg-paper-card px-3 py-2"
+            className="mt-1 w-64 max-w-full rounded-card border border-rule bg-paper-card px-3 py-2"
           />
         </label>
       </div>
@@ -71,7 +71,7 @@ export function PartsTable() {
 
       {data && data.total > 0 && (
         <div className="mt-4 overflow-x-auto rounded-card border border-rule bg-paper-card">
-          <table className="w-full text-left text-sm">
+          <table className={`w-full text-left text-sm ${list.isFetching ? "opacity-70" : ""}`} aria-busy={list.isFetching}>
             <thead className="border-b border-rule bg-paper-deep">
               <tr>
                 {COLUMNS.map((c) => {
@@ -140,7 +140,7 @@ function PartRow({ part }: { part: ListedPart }) {
             <button type="button" onClick={() => setEditing(false)} className="px-2 text-graphite">Cancel</button>
           </form>
         ) : (
-          <Link href={`/parts/${part.id}`} className="font-semibold text-ink underline decoration-rule underline-offset-4 hover:decoration-ink">
+          <Link href={`/parts/${part.id}`} className="min-w-32 inline-block font-semibold text-ink underline decoration-rule underline-offset-4 hover:decoration-ink">
             {part.title}
           </Link>
         )}

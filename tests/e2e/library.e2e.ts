@@ -65,13 +65,14 @@ describe("the library in the browser", () => {
     expect(await rowTitles(page)).toHaveLength(5);
     await page.screenshot({ path: screenshotPath("library-five-parts"), fullPage: true });
 
+    const byTitle = [...(await rowTitles(page))].sort((a, b) => a.toLowerCase().localeCompare(b.toLowerCase()));
     await page.getByRole("button", { name: /^Title/ }).click();
-    await page.waitForFunction(() => document.querySelector("th[aria-sort='ascending']") !== null);
+    await page.locator("table[aria-busy='false'] th[aria-sort='ascending']").waitFor();
     const ascending = await rowTitles(page);
-    expect(ascending).toEqual([...ascending].sort((a, b) => a.toLowerCase().localeCompare(b.toLowerCase())));
+    expect(ascending).toEqual(byTitle);
     await page.getByRole("button", { name: /^Title/ }).click();
-    await page.waitForFunction(() => document.querySelector("th[aria-sort='descending']") !== null);
-    expect(await rowTitles(page)).toEqual([...ascending].reverse());
+    await page.locator("table[aria-busy='false'] th[aria-sort='descending']").waitFor();
+    expect(await rowTitles(page)).toEqual([...byTitle].reverse());
 
     const target = ascending[0];
     await page.getByLabel("Search title or composer").fill(target.split(" ")[0]);
@@ -82,7 +83,7 @@ describe("the library in the browser", () => {
     await page.getByLabel("New title").fill("Audition copy");
     await page.getByRole("button", { name: "Save" }).click();
     await page.getByLabel("Search title or composer").fill("");
-    await page.getByRole("link", { name: "Audition copy" }).waitFor();
+    await page.getByRole("link", { name: "Audition copy", exact: true }).waitFor();
 
     await page.getByRole("button", { name: "Delete Audition copy" }).click();
     await page.getByRole("button", { name: "Delete for good" }).click();

@@ -27,7 +27,9 @@ async function markNote(page: Page, key: string, m: { depth: number; speed: numb
   await panel.getByLabel("Depth", { exact: true }).press("Enter");
   await panel.getByLabel("Speed", { exact: true }).fill(String(m.speed));
   await panel.getByLabel("Speed", { exact: true }).press("Enter");
-  await panel.getByRole("radio", { name: m.role }).check();
+  // The radio itself is visually hidden behind its label, as people click the label.
+  await panel.locator("fieldset", { hasText: "Role in the phrase" }).locator("label", { hasText: m.role }).click();
+  await expect.poll(() => panel.getByRole("radio", { name: m.role }).isChecked()).toBe(true);
   await glyph(page, "wave", key).waitFor();
   await saved(page);
 }
@@ -86,22 +88,22 @@ describe("the marking workspace", () => {
 
   it("accepts a suggested leading tone and undoes it", async () => {
     await page.getByRole("button", { name: "Suggestions" }).click();
-    const accept = page.getByRole("button", { name: /^Accept tension tone at / }).first();
-    await accept.waitFor();
-    const label = (await accept.getAttribute("aria-label"))!.replace(/^Accept tension tone at /, "");
-    const before = (await page.evaluate(async (id) => (await fetch(`/api/parts/${id}/markings`)).json(), partId)).markings.length;
+    const item = page.getByTestId("suggestions-panel").locator('li[data-role="tension"]', { hasText: "leading tone" }).first();
+    await item.waitFor();
+    const suggested = (await item.getAttribute("data-suggestion"))!;
+    const accept = item.getByRole("button", { name: /^Accept tension tone at / });
+    const markingsNow = async () =>
+      (await page.evaluate(async (id) => (await fetch(`/api/parts/${id}/markings`)).json(), partId)).markings as Array<{ noteKey: string; role: string | null }>;
+    expect((await markingsNow()).some((m) => m.role === "tension")).toBe(false);
     await accept.click();
-    await saved(page);
-    const after = (await page.evaluate(async (id) => (await fetch(`/api/parts/${id}/markings`)).json(), partId)).markings;
-    expect(after.length).toBe(before + 1);
-    const accepted = after.find((m: { role: string }) => m.role === "tension");
-    expect(accepted, `tension tone at ${label}`).toBeTruthy();
+    await expect.poll(async () => (await markingsNow()).filter((m) => m.role === "tension").length, { timeout: 15_000 }).toBe(1);
+    const accepted = (await markingsNow()).find((m) => m.role === "tension")!;
+    expect(accepted.noteKey).toBe(suggested);
     await glyph(page, "role", accepted.noteKey).waitFor();
 
     await page.keyboard.press("Control+z");
     await glyph(page, "role", accepted.noteKey).waitFor({ state: "detached" });
-    const undone = (await page.evaluate(async (id) => (await fetch(`/api/parts/${id}/markings`)).json(), partId)).markings;
-    expect(undone.find((m: { noteKey: string }) => m.noteKey === accepted.noteKey)).toBeUndefined();
+    await expect.poll(async () => (await markingsNow()).some((m) => m.noteKey === accepted.noteKey), { timeout: 15_000 }).toBe(false);
   });
 
   it("shows the conflict prompt to the second of two tabs editing the same note", async () => {
