@@ -88,7 +88,8 @@ describe("sharing a part with a teacher", () => {
     await form.getByLabel(/Why/).fill("This is the peak of the phrase.");
     await form.getByRole("button", { name: "Send proposal" }).click();
     await tPanel.getByTestId("proposal-card").waitFor();
-    expect(await t.locator(`[data-glyph="comment"][data-note-key="${noteKey}"]`).getAttribute("data-count")).toBe("2");
+    // The note's marker counts the comment and the open proposal.
+    await t.locator(`[data-glyph="comment"][data-note-key="${noteKey}"][data-count="2"]`).waitFor();
     await t.screenshot({ path: screenshotPath("sharing-teacher-proposes"), fullPage: false });
 
     // ——— the player is notified (in the app and by e-mail with a link to the note) ———
