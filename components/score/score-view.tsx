@@ -24,6 +24,14 @@ export interface ScoreViewProps {
 const RESIZE_DEBOUNCE_MS = 200;
 
 /**
+ * The engraving library, fetched as soon as this module runs in the browser, so its download
+ * overlaps the page's own hydration instead of waiting for the first effect.
+ */
+let engraver: Promise<typeof import("opensheetmusicdisplay")> | null = null;
+const loadEngraver = () => (engraver ??= import("opensheetmusicdisplay"));
+if (typeof window !== "undefined") void loadEngraver();
+
+/**
  * The engraved part. OpenSheetMusicDisplay is imported only here, and only in the browser, so it
  * is loaded on pages that show a score. Every render rebuilds its SVG; we never attach anything
  * to it and re-measure the notes instead.
@@ -53,8 +61,12 @@ export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
     const osmd = osmdRef.current;
     if (!osmd) return;
     osmd.Zoom = zoomRef.current;
+    // Marks let the benchmark split the time to a selectable score into its stages.
+    performance.mark("ondula:render-start");
     osmd.render();
+    performance.mark("ondula:rendered");
     measure();
+    performance.mark("ondula:measured");
   }, [measure]);
 
   useEffect(() => {
@@ -63,7 +75,9 @@ export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
     if (!host) return;
     setStatus("loading");
     (async () => {
-      const { OpenSheetMusicDisplay } = await import("opensheetmusicdisplay");
+      performance.mark("ondula:engraver-import");
+      const { OpenSheetMusicDisplay } = await loadEngraver();
+      performance.mark("ondula:engraver-loaded");
       if (cancelled) return;
       host.replaceChildren();
       const osmd = new OpenSheetMusicDisplay(host, {
@@ -83,6 +97,7 @@ export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
       osmd.EngravingRules.MinSkyBottomDistBetweenSystems = Math.max(osmd.EngravingRules.MinSkyBottomDistBetweenSystems, band + 1);
       osmd.EngravingRules.PageTopMargin = Math.max(osmd.EngravingRules.PageTopMargin, band);
       await osmd.load(xml);
+      performance.mark("ondula:loaded");
       if (cancelled) return;
       osmdRef.current = osmd;
       render();
