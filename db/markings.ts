@@ -1,8 +1,11 @@
 import "server-only";
 import { and, asc, desc, eq, isNotNull, isNull, sql } from "drizzle-orm";
 import type { MarkingDto, MarkingValues } from "@/lib/markings/schema";
+import { alias } from "drizzle-orm/pg-core";
 import { db, type Db } from "./client";
-import { markingHistory, markings, parts, users, type Marking } from "./schema";
+import { markingHistory, markings, parts, proposals, users, type Marking } from "./schema";
+
+const proposers = alias(users, "proposers");
 
 type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
@@ -190,11 +193,15 @@ export async function historyStateByPartId({ partId, limit = 50 }: { partId: str
         action: markingHistory.action,
         actorName: users.name,
         proposalId: markingHistory.proposalId,
+        /** Who proposed the change, when it came from an accepted proposal. */
+        proposedByName: proposers.name,
         undone: sql<boolean>`${markingHistory.undoneAt} is not null`,
         createdAt: markingHistory.createdAt,
       })
       .from(markingHistory)
       .innerJoin(users, eq(users.id, markingHistory.actorId))
+      .leftJoin(proposals, eq(proposals.id, markingHistory.proposalId))
+      .leftJoin(proposers, eq(proposers.id, proposals.authorId))
       .where(and(eq(markingHistory.partId, partId), isNull(markingHistory.discardedAt)))
       .orderBy(desc(markingHistory.id))
       .limit(limit),

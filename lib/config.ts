@@ -19,6 +19,8 @@ const schema = z.object({
   /** HTTP API of the local mailbox (development and test only). */
   MAIL_API_URL: z.string().url().optional(),
   APP_URL: z.string().url(),
+  /** Bearer secret a production scheduler sends to POST /api/internal/flush-notifications. */
+  NOTIFY_FLUSH_SECRET: z.string().min(32, "must be at least 32 characters").optional(),
   DEMO_PASSWORD: z.string().min(10).default("ondula-demo-2026"),
   SEED_DEMO: z.enum(["yes", "no"]).optional(),
   UPLOAD_MAX_BYTES: intFromEnv(10 * 1024 * 1024),

@@ -2,6 +2,7 @@
 
 import Link from "next/link";
 import { useEffect, useState } from "react";
+import { PartUnreadBadge } from "@/components/sharing/unread-badge";
 import { usePartList, useDeletePart, useRenamePart, type ListedPart } from "./api";
 
 const COLUMNS: Array<{ key: string; label: string; sortable: boolean; numeric?: boolean }> = [
@@ -143,8 +144,9 @@ function PartRow({ part }: { part: ListedPart }) {
             {part.title}
           </Link>
         )}
+        <PartUnreadBadge partId={part.id} />
         {rename.isError && <p role="alert" className="text-xs text-danger">{rename.error.message}</p>}
-        {!part.isOwner && <p className="text-xs text-graphite">Shared by {part.ownerName} · you may {part.permission}</p>}
+        {!part.isOwner && <p className="text-xs text-graphite">Shared by {part.ownerName} · you may {part.permission === "propose" ? "comment and propose" : "comment"}</p>}
       </td>
       <td className="px-3 py-2">{part.composer || <span className="text-graphite">—</span>}</td>
       <td className="px-3 py-2 whitespace-nowrap">{part.keyLabel}</td>

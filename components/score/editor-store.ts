@@ -24,7 +24,7 @@ export interface Conflict {
   current: MarkingDto | null;
 }
 
-export type SideView = "marking" | "suggestions";
+export type SideView = "marking" | "suggestions" | "discussion";
 export type SelectMode = "only" | "toggle" | "extend";
 
 export const ZOOM = { min: 0.5, max: 2, step: 0.1 } as const;

@@ -85,10 +85,37 @@ export function MarkingOverlay(props: MarkingOverlayProps) {
         commentCounts={props.commentCounts}
         focus={props.selection.focus}
       />
+      <CommentMarkerLayer placed={placed} scale={props.scale} markings={props.markings} commentCounts={props.commentCounts} />
       <HitLayer placed={placed} scale={props.scale} onNoteClick={props.onNoteClick} />
     </svg>
   );
 }
+
+/** Comment markers on notes that carry no marking (marked notes draw theirs with their glyphs). */
+const CommentMarkerLayer = memo(function CommentMarkerLayer({
+  placed, scale, markings, commentCounts,
+}: { placed: Map<string, Placed>; scale: number; markings: MarkingState; commentCounts?: Readonly<Record<string, number>> }) {
+  if (!commentCounts) return null;
+  const size = GLYPH.roleSize * scale;
+  return (
+    <g data-layer="comments">
+      {Object.entries(commentCounts).map(([key, count]) => {
+        const p = placed.get(key);
+        if (!p || markings[key] || count <= 0) return null;
+        const slots = glyphSlots(p.box, scale, p.rowTop);
+        const marker = commentMarker(p.box.x + p.box.width / 2 + size * 0.7, slots.commentY, count, scale);
+        return (
+          <g key={key} data-glyph="comment" data-note-key={key} data-count={count}>
+            <path d={marker.path} fill={PAPER} stroke={INK} strokeWidth={0.9} strokeLinejoin="round" />
+            <text x={marker.textX} y={marker.textY} fontSize={7 * scale} textAnchor="middle" fill={INK}>
+              {count}
+            </text>
+          </g>
+        );
+      })}
+    </g>
+  );
+});
 
 const HitLayer = memo(function HitLayer({
   placed, scale, onNoteClick,

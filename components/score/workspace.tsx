@@ -33,12 +33,17 @@ import { SaveIndicator } from "./save-indicator";
 import { ScoreView, type ScoreLayout } from "./score-view";
 import { SuggestionsPanel } from "./suggestions-panel";
 import { fitZoom } from "./zoom";
+import { useCommentCounts, useNotifications } from "@/components/sharing/api";
+import { DiscussionPanel } from "@/components/sharing/discussion-panel";
+import { ShareButton } from "@/components/sharing/share-dialog";
+import { UnreadBadge } from "@/components/sharing/unread-badge";
 
 /** The marking workspace of one part: the engraved score with our overlay, and its panels. */
-export function Workspace({ partId }: { partId: string }) {
+/** `viewerId`: the signed-in person, so the discussion knows which comments are theirs. */
+export function Workspace({ partId, viewerId = "" }: { partId: string; viewerId?: string }) {
   return (
     <EditorStoreProvider partId={partId}>
-      <WorkspaceScreen partId={partId} />
+      <WorkspaceScreen partId={partId} viewerId={viewerId} />
     </EditorStoreProvider>
   );
 }
@@ -62,7 +67,7 @@ function prefersReducedMotion(): boolean {
   return typeof window !== "undefined" && window.matchMedia?.("(prefers-reduced-motion: reduce)").matches === true;
 }
 
-function WorkspaceScreen({ partId }: { partId: string }) {
+function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: string }) {
   const part = usePart(partId);
   const xml = useMusicXml(partId);
   const analysis = useAnalysis(partId);
@@ -95,6 +100,8 @@ function WorkspaceScreen({ partId }: { partId: string }) {
   const [size, setSize] = useState({ width: 0, height: 0 });
 
   const canEdit = part.data?.permission === "owner";
+  const commentCounts = useCommentCounts(partId);
+  const unread = useNotifications(partId).data?.unread ?? 0;
   const tempo = part.data?.tempo ?? null;
   const markings = useMemo(() => toState(markingsQuery.data?.markings ?? []), [markingsQuery.data]);
 
@@ -111,6 +118,24 @@ function WorkspaceScreen({ partId }: { partId: string }) {
     () => pending.map((s) => ({ noteKey: s.note, role: s.role, confidence: s.confidence, resolvesTo: s.resolvesTo })),
     [pending],
   );
+
+  // A link from a notification (`?note=<key>` or `?thread=part`) opens that discussion once the
+  // notes are laid out; people the part is shared with start on the discussion.
+  const deepLinked = useRef(false);
+  const permission = part.data?.permission;
+  useEffect(() => {
+    if (deepLinked.current || boxes.length === 0 || !permission) return;
+    deepLinked.current = true;
+    const params = new URLSearchParams(window.location.search);
+    const note = params.get("note");
+    if (note && boxes.some((b) => b.key === note)) {
+      actions.select(note);
+      actions.reveal(note);
+      actions.setSideView("discussion");
+    } else if (params.get("thread") || permission !== "owner") {
+      actions.setSideView("discussion");
+    }
+  }, [boxes, permission, actions]);
 
   const onLayout = useCallback(
     (layout: ScoreLayout) => {
@@ -222,10 +247,12 @@ function WorkspaceScreen({ partId }: { partId: string }) {
   const onNoteClick = useCallback(
     (key: string, mode: "only" | "toggle" | "extend") => {
       actions.select(key, mode);
-      actions.setPanelOpen(true);
+      // While reading the discussion, another note opens its discussion rather than the marking.
+      if (store.getState().sideView === "discussion") actions.setSideView("discussion");
+      else actions.setPanelOpen(true);
       scoreRef.current?.focus({ preventScroll: true });
     },
-    [actions],
+    [actions, store],
   );
 
   // Keep the focused note in view when the keyboard moves it.
@@ -274,7 +301,18 @@ function WorkspaceScreen({ partId }: { partId: string }) {
   }
 
   const rail =
-    sideView === "suggestions" || keys.length === 0 ? (
+    sideView === "discussion" && part.data ? (
+      <DiscussionPanel
+        key={selection.focus ?? "part"}
+        partId={partId}
+        permission={part.data.permission}
+        viewerId={viewerId}
+        noteKey={selection.focus}
+        currentMarking={focusMarking ?? null}
+        labelOf={labelOf}
+        onShowNote={show}
+      />
+    ) : sideView === "suggestions" || keys.length === 0 ? (
       <SuggestionsPanel
         pending={pending}
         decidedCount={decisions.length}
@@ -336,6 +374,7 @@ function WorkspaceScreen({ partId }: { partId: string }) {
           </ToolButton>
         </div>
         <div className="flex items-center gap-1">
+          {canEdit && part.data ? <ShareButton partId={partId} partTitle={part.data.title} /> : null}
           <ToolButton onClick={() => actions.setSideView("suggestions")} label="Suggestions" pressed={panelOpen && (sideView === "suggestions" || keys.length === 0)}>
             Suggestions{pending.length ? ` (${pending.length})` : ""}
           </ToolButton>
@@ -395,6 +434,7 @@ function WorkspaceScreen({ partId }: { partId: string }) {
                   suggestions={overlaySuggestions}
                   resolutions={resolutions}
                   durations={durations}
+                  commentCounts={commentCounts}
                   selection={selection}
                   onNoteClick={onNoteClick}
                 />
@@ -414,13 +454,17 @@ function WorkspaceScreen({ partId }: { partId: string }) {
           ref={railRef}
           aria-label="Marking and suggestions"
           data-open={panelOpen ? "true" : "false"}
-          className="no-print fixed inset-x-0 bottom-0 z-20 max-h-[45dvh] overflow-y-auto border-t border-ink/20 bg-paper p-4 shadow-[0_-4px_16px_rgba(27,26,23,0.12)] data-[open=false]:hidden lg:static lg:z-auto lg:block lg:max-h-none lg:w-rail lg:shrink-0 lg:border-l lg:border-t-0 lg:border-rule lg:shadow-none lg:data-[open=false]:block"
+          className="no-print fixed inset-x-0 bottom-0 z-20 max-h-[45dvh] overflow-y-auto border-t border-ink/20 bg-paper p-4 shadow-[0_-4px_16px_rgba(27,26,23,0.12)] data-[open=false]:hidden lg:relative lg:z-auto lg:block lg:max-h-none lg:w-rail lg:shrink-0 lg:border-l lg:border-t-0 lg:border-rule lg:shadow-none lg:data-[open=false]:block"
         >
           <div className="mb-3 flex gap-1 border-b border-rule" role="tablist" aria-label="Side panel">
             <Tab selected={sideView === "marking" && keys.length > 0} onClick={() => actions.setSideView("marking")} disabled={keys.length === 0}>
               Marking
             </Tab>
-            <Tab selected={sideView === "suggestions" || keys.length === 0} onClick={() => actions.setSideView("suggestions")}>
+            <Tab selected={sideView === "discussion"} onClick={() => actions.setSideView("discussion")}>
+              Discussion
+              <UnreadBadge count={unread} className="ml-1" />
+            </Tab>
+            <Tab selected={sideView === "suggestions" || (keys.length === 0 && sideView !== "discussion")} onClick={() => actions.setSideView("suggestions")}>
               Suggestions{pending.length ? ` (${pending.length})` : ""}
             </Tab>
             <button

@@ -1,9 +1,11 @@
+import { sql } from "drizzle-orm";
 import { index, jsonb, integer, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { users } from "./auth";
 import { parts } from "./parts";
 
 export const sharePermission = pgEnum("share_permission", ["comment", "propose"]);
-export const proposalStatus = pgEnum("proposal_status", ["open", "accepted", "declined"]);
+/** `stale`: the marking changed after the proposal was made, so it was not applied. */
+export const proposalStatus = pgEnum("proposal_status", ["open", "accepted", "declined", "stale"]);
 
 export const shares = pgTable(
   "shares",
@@ -90,7 +92,11 @@ export const notifications = pgTable(
     emailedAt: timestamp("emailed_at", { withTimezone: true }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index("notifications_user_part_idx").on(t.userId, t.partId, t.readAt)],
+  (t) => [
+    index("notifications_user_part_idx").on(t.userId, t.partId, t.readAt),
+    // Batching looks for e-mail not yet sent per recipient and part.
+    index("notifications_pending_email_idx").on(t.userId, t.partId).where(sql`${t.emailedAt} is null`),
+  ],
 );
 
 export type Share = typeof shares.$inferSelect;

@@ -8,7 +8,7 @@ export interface MailContent {
 const escapeHtml = (s: string) =>
   s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
 
-function compose({ subject, greeting, lines, action, after }: {
+export function compose({ subject, greeting, lines, action, after }: {
   subject: string;
   greeting: string;
   lines: string[];

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { listOpenInvitations, listStudioMembers, listStudiosByPlayerId } from "@/db/studios";
 import { ActionForm, Field } from "@/components/ui/action-form";
+import { SharedWithMe } from "@/components/sharing/shared-with-me";
 import { Notice, PageShell, Panel } from "@/components/ui/page-shell";
 import { ownStudio } from "@/lib/accounts/studio";
 import { requirePageUser } from "@/lib/auth/require-page-user";
@@ -47,6 +48,7 @@ export default async function StudioPage({ searchParams }: { searchParams: Searc
   return (
     <PageShell width="wide" title={studio.name} lead="Your students, and the invitations still open.">
       {joined ? <Notice>You joined the studio.</Notice> : null}
+      <SharedWithMe />
       <div className="grid gap-8 lg:grid-cols-[2fr_1fr]">
         <Panel title={`Members (${members.length})`} id="members">
           {members.length === 0 ? <p className="text-graphite">No students yet. Invite them by e-mail.</p> : (

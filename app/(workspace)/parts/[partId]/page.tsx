@@ -47,7 +47,7 @@ export default async function PartWorkspacePage({ params }: { params: Promise<{ 
   queryClient.setQueryData(decisionKeys.list(partId), { decisions });
   return (
     <HydrationBoundary state={dehydrate(queryClient)}>
-      <Workspace partId={partId} />
+      <Workspace partId={partId} viewerId={user.id} />
     </HydrationBoundary>
   );
 }

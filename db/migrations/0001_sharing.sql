@@ -1,0 +1,2 @@
+ALTER TYPE "public"."proposal_status" ADD VALUE 'stale';--> statement-breakpoint
+CREATE INDEX "notifications_pending_email_idx" ON "notifications" USING btree ("user_id","part_id") WHERE "notifications"."emailed_at" is null;

@@ -1,0 +1,20 @@
+import { PART_THREAD } from "./schemas";
+
+/**
+ * A person's name for a thread: "the whole part", or the bar of the note. Note keys look like
+ * `P1:m12:s1:v1:3/8:70` (0-based measure index), so bar numbers count from 1 in written order;
+ * a key we cannot read is named "a note".
+ */
+export function threadLabel(threadKey: string): string {
+  if (threadKey === PART_THREAD) return "the whole part";
+  const m = /(?:^|:)m(\d+)(?::|$)/.exec(threadKey);
+  return m ? `bar ${Number(m[1]) + 1}` : "a note";
+}
+
+/** The workspace address that opens a note's thread (or the part's). */
+export function threadPath(partId: string, threadKey: string | null): string {
+  const base = `/parts/${partId}`;
+  if (!threadKey) return base;
+  if (threadKey === PART_THREAD) return `${base}?thread=${PART_THREAD}`;
+  return `${base}?note=${encodeURIComponent(threadKey)}`;
+}
