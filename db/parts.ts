@@ -1,11 +1,13 @@
 import "server-only";
 import { and, asc, desc, eq, ilike, isNotNull, isNull, or, sql, type SQL } from "drizzle-orm";
 import { AppError } from "@/lib/errors";
+import type { ListedPart, PartPermission, PartSort } from "@/lib/parts/dto";
+
+export type { PartPermission };
 import type { AnyPgColumn } from "drizzle-orm/pg-core";
 import { db } from "./client";
 import { markings, parts, shares, users, type NewPart, type Part } from "./schema";
 
-export type PartPermission = "owner" | "comment" | "propose";
 
 export interface PartAccess {
   part: Part;
@@ -85,23 +87,6 @@ export async function insertPart({ values, quota }: { values: NewPart; quota: Qu
   });
 }
 
-export type PartSort = "title" | "-title" | "composer" | "-composer" | "key" | "-key" | "bars" | "-bars" | "markings" | "-markings" | "updated" | "-updated";
-
-export interface ListedPart {
-  id: string;
-  title: string;
-  composer: string;
-  keyLabel: string;
-  measureCount: number;
-  noteCount: number;
-  markingCount: number;
-  sharedWith: string[];
-  ownerName: string;
-  isOwner: boolean;
-  permission: PartPermission;
-  sourceFileName: string;
-  updatedAt: string;
-}
 
 /** The parts a viewer owns or has been shared, searched, sorted and paged in the database. */
 export async function listPartsForViewer({

@@ -2,21 +2,8 @@
 
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 
-export interface ListedPart {
-  id: string;
-  title: string;
-  composer: string;
-  keyLabel: string;
-  measureCount: number;
-  noteCount: number;
-  markingCount: number;
-  sharedWith: string[];
-  ownerName: string;
-  isOwner: boolean;
-  permission: "owner" | "comment" | "propose";
-  sourceFileName: string;
-  updatedAt: string;
-}
+export type { ListedPart } from "@/lib/parts/dto";
+import type { ListedPart } from "@/lib/parts/dto";
 
 export interface PartListPage {
   items: ListedPart[];

@@ -1,5 +1,6 @@
 "use client";
 
+import { ENGRAVING_OPTIONS } from "./engraving-options";
 import { useEffect, useRef, useState } from "react";
 
 /**
@@ -15,18 +16,7 @@ export function BareScore({ xml }: { xml: string }) {
       const { OpenSheetMusicDisplay } = await import("opensheetmusicdisplay");
       const el = host.current;
       if (cancelled || !el) return;
-      const osmd = new OpenSheetMusicDisplay(el, {
-        backend: "svg",
-        autoResize: false,
-        drawTitle: false,
-        drawSubtitle: false,
-        drawComposer: false,
-        drawLyricist: false,
-        drawCredits: false,
-        drawPartNames: false,
-        drawMeasureNumbers: true,
-        drawMeasureNumbersOnlyAtSystemStart: true,
-      });
+      const osmd = new OpenSheetMusicDisplay(el, { ...ENGRAVING_OPTIONS });
       await osmd.load(xml);
       if (cancelled) return;
       osmd.render();

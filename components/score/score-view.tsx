@@ -1,5 +1,6 @@
 "use client";
 
+import { ENGRAVING_OPTIONS } from "./engraving-options";
 import { useCallback, useEffect, useRef, useState, type ReactNode } from "react";
 import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
 import { GLYPH_BAND_HEIGHT, type NoteBox } from "@/lib/markings/glyph-geometry";
@@ -84,18 +85,7 @@ export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
       performance.mark("ondula:engraver-loaded");
       if (cancelled) return;
       host.replaceChildren();
-      const osmd = new OpenSheetMusicDisplay(host, {
-        backend: "svg",
-        autoResize: false,
-        drawTitle: false,
-        drawSubtitle: false,
-        drawComposer: false,
-        drawLyricist: false,
-        drawCredits: false,
-        drawPartNames: false,
-        drawMeasureNumbers: true,
-        drawMeasureNumbersOnlyAtSystemStart: true,
-      });
+      const osmd = new OpenSheetMusicDisplay(host, { ...ENGRAVING_OPTIONS });
       // Room above every system for our glyph band (OSMD units: 10 px at zoom 1).
       const band = GLYPH_BAND_HEIGHT / 10;
       osmd.EngravingRules.MinSkyBottomDistBetweenSystems = Math.max(osmd.EngravingRules.MinSkyBottomDistBetweenSystems, band + 1);
