@@ -1,10 +1,9 @@
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
 import { requireUser } from "@/lib/auth/session";
-import { can } from "@/lib/auth/policy";
 import { partIdParams } from "@/lib/parts/schemas";
 import { practiceEntryBodySchema, type PracticeLogDto } from "@/lib/practice/schema";
 import { loadPart } from "@/lib/server/parts";
-import { assertNoteOfPart } from "@/lib/server/practice";
+import { assertNoteOfPart, canWritePractice } from "@/lib/server/practice";
 import { insertPracticeEntry, listPracticeEntriesByPartId } from "@/db/practice";
 
 export const dynamic = "force-dynamic";
@@ -16,8 +15,7 @@ export const GET = handle(async (_request, { params }) => {
   const access = await loadPart(user, partId, "practice:view");
   const { part } = access;
   const log = await listPracticeEntriesByPartId({ partId, userId: part.ownerId });
-  const canWrite = can(user, "practice:write", { type: "part", part: { id: part.id, ownerId: part.ownerId }, share: access.permission === "owner" ? null : { permission: access.permission } });
-  return Response.json({ ...log, canWrite } satisfies PracticeLogDto);
+  return Response.json({ ...log, canWrite: canWritePractice(user, access) } satisfies PracticeLogDto);
 });
 
 export const POST = handle(async (request, { params }) => {
