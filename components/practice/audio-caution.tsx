@@ -2,7 +2,7 @@
 export function AudioCaution() {
   return (
     <p className="text-sm text-graphite" data-testid="audio-caution">
-      <span aria-hidden="true">🎧 </span>Audio starts quiet; keep headphone volume moderate.
+      Audio starts quiet; keep headphone volume moderate.
     </p>
   );
 }

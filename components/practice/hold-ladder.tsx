@@ -77,16 +77,16 @@ export function HoldLadder({ tempo, writtenBeats, markedHz }: { tempo: number; w
                 onClick={() => start(i)}
                 aria-current={current ? "step" : undefined}
                 aria-label={`Start at hold ${i + 1}: ${s.beats} beats, ${fmt(s.seconds)} seconds`}
-                className="grid min-h-11 w-full grid-cols-[4.5rem_1fr_1fr_1fr] items-center gap-2 rounded-card border border-transparent px-3 text-left text-sm hover:bg-paper-deep aria-[current=step]:border-accent aria-[current=step]:bg-paper-deep aria-[current=step]:font-semibold"
+                className="grid min-h-11 w-full grid-cols-[4.5rem_1fr_1fr_1fr] items-center gap-2 whitespace-nowrap max-sm:grid-cols-[3.5rem_auto_auto_1fr] max-sm:gap-3 rounded-card border border-transparent px-3 text-left text-sm hover:bg-paper-deep aria-[current=step]:border-accent aria-[current=step]:bg-paper-deep aria-[current=step]:font-semibold"
               >
                 <span className="text-graphite">Hold {i + 1}</span>
                 <span className="tabular-nums">
                   {fmt(s.beats, s.beats % 1 ? 2 : 0)} {s.beats === 1 ? "beat" : "beats"}
                 </span>
                 <span className="tabular-nums">{fmt(s.seconds)} s</span>
-                <span className="tabular-nums text-graphite">{s.pulses ? `≈ ${fmt(s.pulses, 0)} pulses` : "no vibrato"}</span>
+                <span className="text-right tabular-nums text-graphite sm:text-left">{s.pulses ? `≈ ${fmt(s.pulses, 0)} pulses` : "no vibrato"}</span>
               </button>
-              {s.restSeconds > 0 ? <p className="pl-[5.25rem] text-xs text-graphite">then breathe {fmt(s.restSeconds, 0)} s</p> : null}
+              {s.restSeconds > 0 ? <p className="pl-[5.25rem] text-xs text-graphite max-sm:pl-[4.25rem]">then breathe {fmt(s.restSeconds, 0)} s</p> : null}
             </li>
           );
         })}

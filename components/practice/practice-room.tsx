@@ -89,7 +89,7 @@ export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, canWri
 
       <section aria-labelledby="note-heading" className="rounded-card border border-rule bg-paper-card p-5">
         <h2 id="note-heading" className="sr-only">
-          Note to practise
+          The chosen note
         </h2>
         {notes.length === 0 ? (
           <p>This part has no notes to practise.</p>

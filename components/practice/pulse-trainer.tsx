@@ -104,13 +104,16 @@ export function PulseTrainer({ tempo, markedHz, volume, onVolume }: { tempo: num
                   onClick={() => choose(i)}
                   aria-current={i === current ? "step" : undefined}
                   data-testid="pulse-step"
-                  className="grid min-h-11 w-full grid-cols-[5.5rem_1fr_1fr_1fr] items-center gap-2 rounded-card border border-transparent px-3 text-left text-sm hover:bg-paper-deep aria-[current=step]:border-accent aria-[current=step]:bg-paper-deep aria-[current=step]:font-semibold"
+                  className="grid min-h-11 w-full grid-cols-[5.5rem_1fr_1fr_1fr] items-center gap-2 whitespace-nowrap max-sm:grid-cols-[4.75rem_1fr_auto_auto] max-sm:gap-3 rounded-card border border-transparent px-3 text-left text-sm hover:bg-paper-deep aria-[current=step]:border-accent aria-[current=step]:bg-paper-deep aria-[current=step]:font-semibold"
                 >
                   <span className="text-graphite">
                     {i + 1}. {STEP_NAMES[s.kind]}
                   </span>
                   <span className="tabular-nums">♩ = {fmt(s.bpm, s.bpm % 1 ? 1 : 0)}</span>
-                  <span className="tabular-nums">{s.pulses} per beat</span>
+                  <span className="tabular-nums">
+                    {s.pulses} <span className="max-sm:hidden">per beat</span>
+                    <span className="sm:hidden">/ beat</span>
+                  </span>
                   <span className="tabular-nums">{fmt(s.hz, 2)} Hz</span>
                 </button>
               </li>

@@ -22,9 +22,13 @@ describe("pulse trainer: the target step", () => {
     expect(targetStep((4 * 92) / 60, 92).bpm).toBeCloseTo(92, 6);
   });
 
-  it("chooses the subdivision whose tempo lies nearest the working tempo", () => {
-    // 5.5 Hz near ♩ = 72: five pulses at 66 (6 away) beats four at 82.5 (10.5 away).
-    expect(targetStep(5.5, 72)).toMatchObject({ pulses: 5, bpm: 66 });
+  it("chooses the easy subdivision whose tempo lies nearest the working tempo", () => {
+    // 6 Hz near ♩ = 76: four pulses at 90, not five at 72 (quintuplets are hard to keep even; common practice).
+    expect(targetStep(6, 76)).toMatchObject({ pulses: 4, bpm: 90 });
+    // 5.5 Hz near ♩ = 72: four at 82.5 (10.5 away) beats three at 110 (38 away).
+    expect(targetStep(5.5, 72)).toMatchObject({ pulses: 4, bpm: 82.5 });
+    // 1.2 Hz is reached only by a single pulse per beat at ♩ = 72.
+    expect(targetStep(1.2, 60)).toMatchObject({ pulses: 1, bpm: 72 });
   });
 });
 

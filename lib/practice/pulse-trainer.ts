@@ -39,21 +39,35 @@ export const MAX_BPM = 208;
 export const MIN_TARGET_HZ = 1;
 export const MAX_TARGET_HZ = 12;
 const MAX_PULSES = 8;
+/**
+ * Subdivisions a player feels evenly without counting: twos, threes and their doubles
+ * (common practice: quintuplets and septuplets are hard to keep even). Others are used only when
+ * none of these reaches the speed within the metronome's range.
+ */
+export const EASY_PULSES = [2, 3, 4, 6, 8];
 
 /**
- * The final step: the whole number of pulses per beat whose tempo (within the metronome's range)
- * lies closest to the working tempo, at the tempo that gives exactly the target speed
+ * The final step: the easy subdivision whose tempo (within the metronome's range) lies closest
+ * to the working tempo, at the tempo that gives exactly the target speed
  * (6 Hz near ♩ = 90 → 4 pulses at 90; 6 Hz near ♩ = 120 → 3 pulses at 120).
  */
 export function targetStep(targetHz: number, bpm: number): PulseStep {
+  const all = Array.from({ length: MAX_PULSES }, (_, i) => i + 1);
+  return closest(targetHz, bpm, EASY_PULSES) ?? closest(targetHz, bpm, all) ?? fail();
+}
+
+function fail(): never {
+  throw new RangeError("no metronome setting reaches that speed");
+}
+
+function closest(targetHz: number, bpm: number, choices: number[]): PulseStep | null {
   let best: PulseStep | null = null;
-  for (let pulses = 1; pulses <= MAX_PULSES; pulses++) {
+  for (const pulses of choices) {
     const tempo = (targetHz * 60) / pulses;
     if (tempo < MIN_BPM || tempo > MAX_BPM) continue;
     const step = { kind: "target" as const, bpm: tempo, pulses, hz: targetHz };
     if (!best || Math.abs(Math.log(tempo / bpm)) < Math.abs(Math.log(best.bpm / bpm))) best = step;
   }
-  if (!best) throw new RangeError("no metronome setting reaches that speed");
   return best;
 }
 
