@@ -1,6 +1,7 @@
 "use client";
 
 import { useEffect, useMemo, useState } from "react";
+import { formatNumber } from "@/lib/markings/pulses";
 import { holdLadder } from "@/lib/practice/hold-ladder";
 import { Button, fmt, Section } from "./ui";
 
@@ -64,7 +65,7 @@ export function HoldLadder({ tempo, writtenBeats, markedHz }: { tempo: number; w
     <Section title="Hold ladder" id="hold-ladder">
       <HoldCaution />
       <p className="mb-3 text-sm text-graphite">
-        Hold the note with its vibrato, long first, then shorter until it fits its written length ({fmt(writtenBeats, writtenBeats % 1 ? 2 : 0)}{" "}
+        Hold the note with its vibrato, long first, then shorter until it fits its written length ({formatNumber(writtenBeats)}{" "}
         {writtenBeats === 1 ? "beat" : "beats"} at ♩ = {fmt(tempo, 0)}). Breathe normally in every rest.
       </p>
       <ol className="grid gap-1" aria-label="Hold ladder steps">
@@ -81,7 +82,7 @@ export function HoldLadder({ tempo, writtenBeats, markedHz }: { tempo: number; w
               >
                 <span className="text-graphite">Hold {i + 1}</span>
                 <span className="tabular-nums">
-                  {fmt(s.beats, s.beats % 1 ? 2 : 0)} {s.beats === 1 ? "beat" : "beats"}
+                  {formatNumber(s.beats)} {s.beats === 1 ? "beat" : "beats"}
                 </span>
                 <span className="tabular-nums">{fmt(s.seconds)} s</span>
                 <span className="text-right tabular-nums text-graphite sm:text-left">{s.pulses ? `≈ ${fmt(s.pulses, 0)} pulses` : "no vibrato"}</span>

@@ -121,7 +121,7 @@ export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, canWri
                 <Figure label="Depth" value={m ? `±${fmt(m.depthCents, 0)}` : "–"} unit="c" />
                 <Figure label="Speed" value={m && m.depthCents > 0 ? fmt(m.speedHz, 1) : "–"} unit="Hz" />
                 <Figure label="Pulses per beat" value={markedHz ? fmt(pulsesPerBeat(markedHz, tempo), 2) : "–"} unit={`at ♩ = ${fmt(tempo, 0)}`} />
-                <Figure label="Written length" value={fmt(note.beats, note.beats % 1 ? 2 : 0)} unit={note.beats === 1 ? "beat" : "beats"} />
+                <Figure label="Written length" value={formatNumber(note.beats)} unit={note.beats === 1 ? "beat" : "beats"} />
               </dl>
             ) : null}
             {note ? (
