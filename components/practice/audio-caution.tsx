@@ -1,8 +1,11 @@
-/** The product's caution beside every sound control. */
+import { AUDITION_CAUTION } from "@/components/score/audition-control";
+import { MAX_VOLUME } from "@/lib/export/audition";
+
+/** The product's caution beside every sound control (the same words as the workspace's audition). */
 export function AudioCaution() {
   return (
     <p className="text-sm text-graphite" data-testid="audio-caution">
-      Audio starts quiet; keep headphone volume moderate.
+      {AUDITION_CAUTION}
     </p>
   );
 }
@@ -18,13 +21,13 @@ export function VolumeControl({ value, onChange, id }: { value: number; onChange
         id={id}
         type="range"
         min={0}
-        max={0.6}
+        max={MAX_VOLUME}
         step={0.05}
         value={value}
         onChange={(e) => onChange(Number(e.target.value))}
         className="h-11 w-32 accent-accent"
       />
-      <span className="w-10 text-sm tabular-nums text-graphite">{Math.round((value / 0.6) * 100)}%</span>
+      <span className="w-10 text-sm tabular-nums text-graphite">{Math.round((value / MAX_VOLUME) * 100)}%</span>
     </div>
   );
 }

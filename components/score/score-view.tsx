@@ -4,12 +4,15 @@ import { useCallback, useEffect, useRef, useState, type ReactNode } from "react"
 import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
 import { GLYPH_BAND_HEIGHT, type NoteBox } from "@/lib/markings/glyph-geometry";
 import { measureNoteBoxes } from "./measure-note-boxes";
+import { measureSystems, type SystemBox } from "./measure-systems";
 import { collectOsmdNotes } from "./osmd-note-keys";
 
 export interface ScoreLayout {
   boxes: NoteBox[];
   width: number;
   height: number;
+  /** Each line of music, top to bottom (the stand copy keeps each on one page). */
+  systems: SystemBox[];
 }
 
 export interface ScoreViewProps {
@@ -22,6 +25,14 @@ export interface ScoreViewProps {
 }
 
 const RESIZE_DEBOUNCE_MS = 200;
+
+/**
+ * The engraving library, fetched as soon as this module runs in the browser, so its download
+ * overlaps the page's own hydration instead of waiting for the first effect.
+ */
+let engraver: Promise<typeof import("opensheetmusicdisplay")> | null = null;
+const loadEngraver = () => (engraver ??= import("opensheetmusicdisplay"));
+if (typeof window !== "undefined") void loadEngraver();
 
 /**
  * The engraved part. OpenSheetMusicDisplay is imported only here, and only in the browser, so it
@@ -46,15 +57,20 @@ export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
     const stage = stageRef.current;
     if (!osmd || !stage) return;
     const boxes = measureNoteBoxes(collectOsmdNotes(osmd), stage, zoomRef.current);
-    onLayoutRef.current({ boxes, width: stage.scrollWidth, height: stage.scrollHeight });
+    const systems = measureSystems(osmd, stage, zoomRef.current);
+    onLayoutRef.current({ boxes, width: stage.scrollWidth, height: stage.scrollHeight, systems });
   }, []);
 
   const render = useCallback(() => {
     const osmd = osmdRef.current;
     if (!osmd) return;
     osmd.Zoom = zoomRef.current;
+    // Marks let the benchmark split the time to a selectable score into its stages.
+    performance.mark("ondula:render-start");
     osmd.render();
+    performance.mark("ondula:rendered");
     measure();
+    performance.mark("ondula:measured");
   }, [measure]);
 
   useEffect(() => {
@@ -63,7 +79,9 @@ export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
     if (!host) return;
     setStatus("loading");
     (async () => {
-      const { OpenSheetMusicDisplay } = await import("opensheetmusicdisplay");
+      performance.mark("ondula:engraver-import");
+      const { OpenSheetMusicDisplay } = await loadEngraver();
+      performance.mark("ondula:engraver-loaded");
       if (cancelled) return;
       host.replaceChildren();
       const osmd = new OpenSheetMusicDisplay(host, {
@@ -83,6 +101,7 @@ export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
       osmd.EngravingRules.MinSkyBottomDistBetweenSystems = Math.max(osmd.EngravingRules.MinSkyBottomDistBetweenSystems, band + 1);
       osmd.EngravingRules.PageTopMargin = Math.max(osmd.EngravingRules.PageTopMargin, band);
       await osmd.load(xml);
+      performance.mark("ondula:loaded");
       if (cancelled) return;
       osmdRef.current = osmd;
       render();

@@ -10,7 +10,7 @@ import { K, fakeBoxes } from "./test-fixtures";
 // The engraving library cannot run in jsdom: the score view reports a fixed layout instead.
 vi.mock("./score-view", () => ({
   ScoreView: ({ onLayout, children }: ScoreViewProps) => {
-    useEffect(() => onLayout({ boxes: fakeBoxes, width: 800, height: 400 }), [onLayout]);
+    useEffect(() => onLayout({ boxes: fakeBoxes, width: 800, height: 400, systems: [] }), [onLayout]);
     return <div data-testid="score">{children}</div>;
   },
 }));

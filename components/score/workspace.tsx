@@ -6,6 +6,7 @@ import type { Role } from "@/lib/analysis/types";
 import {
   acceptSuggestions, clearSelection, patchSelection, setSelection, toState, valuesOf, sameValues,
 } from "@/lib/markings/changes";
+import { noteDurations, resolutionsOf } from "@/lib/markings/durations";
 import { noteLabel, selectionLabel } from "@/lib/markings/note-labels";
 import { formatNumber } from "@/lib/markings/pulses";
 import { ROLE_INFO } from "@/lib/markings/roles";
@@ -21,7 +22,9 @@ import { useCommitMarkings } from "./api/save-marking";
 import { useSaveStateSync } from "./api/save-state";
 import { useDecide, useDecisions } from "./api/suggestion-decisions";
 import { useHistoryStep } from "./api/undo-redo";
+import { AuditionControl } from "./audition-control";
 import { ConflictPrompt } from "./conflict-prompt";
+import { ExportMenu } from "./export-menu";
 import { EditorStoreProvider, useEditorActions, useEditorStore, useEditorStoreApi, type Conflict } from "./editor-store";
 import { Legend } from "./legend";
 import { MarkingOverlay } from "./marking-overlay";
@@ -98,20 +101,8 @@ function WorkspaceScreen({ partId }: { partId: string }) {
 
   const notesByKey = useMemo(() => new Map((analysis.data?.notes ?? []).map((n) => [n.key, n])), [analysis.data]);
   const labelOf = useCallback((key: string) => noteLabel(key, notesByKey.get(key)), [notesByKey]);
-  const durations = useMemo(() => {
-    const out: Record<string, number> = {};
-    if (!tempo || !analysis.data) return out;
-    for (const n of analysis.data.notes) {
-      const [num, den] = n.duration.split("/").map(Number);
-      if (den > 0) out[n.key] = ((num / den) * 4 * 60) / tempo;
-    }
-    return out;
-  }, [analysis.data, tempo]);
-  const resolutions = useMemo(() => {
-    const out: Record<string, string> = {};
-    for (const s of analysis.data?.suggestions ?? []) if (s.role === "tension" && s.resolvesTo) out[s.note] = s.resolvesTo;
-    return out;
-  }, [analysis.data]);
+  const durations = useMemo(() => noteDurations(analysis.data?.notes ?? [], tempo), [analysis.data, tempo]);
+  const resolutions = useMemo(() => resolutionsOf(analysis.data?.suggestions ?? []), [analysis.data]);
   const decisions = useMemo(() => decisionsQuery.data?.decisions ?? [], [decisionsQuery.data]);
   const pending = useMemo(
     () => pendingSuggestions(analysis.data?.suggestions ?? [], decisions, markings),
@@ -355,7 +346,12 @@ function WorkspaceScreen({ partId }: { partId: string }) {
           <Link href={`/parts/${partId}/practice`} className="flex h-11 items-center rounded px-2.5 text-sm font-medium text-ink underline-offset-4 hover:bg-paper-deep hover:underline">
             Practise
           </Link>
+          <ExportMenu partId={partId} />
         </div>
+      </div>
+
+      <div className="no-print border-b border-rule px-gutter">
+        <AuditionControl keys={keys} notes={analysis.data?.notes ?? []} phrases={analysis.data?.phrases ?? []} markings={markings} tempo={tempo} />
       </div>
 
       {analysis.data && analysis.data.phrases.length > 0 ? (

@@ -7,8 +7,11 @@ import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { readScoreFile } from "@/lib/musicxml";
 import { ingestScore } from "@/lib/parts/ingest";
+import { extractMarkingsWithReport, stripMarkings } from "@/lib/export/musicxml-markings";
 import { getPartAccessById, insertPart, storeAnalysisById, type PartAccess } from "@/db/parts";
+import { writeMarking } from "@/db/markings";
 import type { Part } from "@/db/schema";
+import { randomUUID } from "node:crypto";
 
 export function readLimits() {
   const c = config();
@@ -36,8 +39,38 @@ export async function loadPart(user: CurrentUser, partId: string, action: Action
   return access;
 }
 
-export async function createPartFromFile(user: CurrentUser, fileName: string, bytes: Uint8Array): Promise<Part> {
+export interface CreatedPart {
+  part: Part;
+  /** Markings read back from an Ondula export and written to the new part. */
+  importedMarkings: number;
+  /** Marking records in the file that could not be read (named, never guessed). */
+  unreadableMarkings: Array<{ noteKey: string; reason: string }>;
+}
+
+/**
+ * Stores an uploaded file as a new part. A file exported by Ondula carries its markings in hidden
+ * records (lib/export/README.md); those on the chosen part's notes become the new part's markings,
+ * written by the uploader as one history step, so importing an export recovers every marking.
+ */
+export async function createPartFromFile(user: CurrentUser, fileName: string, bytes: Uint8Array): Promise<CreatedPart> {
   const ingested = ingestScore(bytes, fileName, readLimits());
+  const { markings, problems } = extractMarkingsWithReport(ingested.partwiseXml);
+  // The markings live in the database from now on; their printed copies would go stale on the
+  // engraving, so the stored text is the file without them (the uploaded bytes stay as they were).
+  const hasRecords = markings.size > 0 || problems.length > 0;
+  const part = await insertPartFrom(user, fileName, bytes, hasRecords ? { ...ingested, partwiseXml: stripMarkings(ingested.partwiseXml) } : ingested);
+  const known = new Set(ingested.summary.noteKeys);
+  const groupId = randomUUID();
+  let importedMarkings = 0;
+  for (const [noteKey, values] of markings) {
+    if (!known.has(noteKey)) continue;
+    const result = await writeMarking({ partId: part.id, noteKey, values, expectedVersion: undefined, actorId: user.id, groupId });
+    if (result.ok) importedMarkings += 1;
+  }
+  return { part, importedMarkings, unreadableMarkings: problems };
+}
+
+function insertPartFrom(user: CurrentUser, fileName: string, bytes: Uint8Array, ingested: ReturnType<typeof ingestScore>): Promise<Part> {
   const c = config();
   return insertPart({
     quota: { maxParts: c.QUOTA_PARTS, maxBytes: c.QUOTA_BYTES },

@@ -13,6 +13,7 @@ const sections: Array<() => Promise<{ default: BenchSection }>> = [
   () => import("./reader"),
   () => import("./analysis"),
   () => import("./library"),
+  () => import("./workspace"),
 ];
 
 async function main() {

@@ -20,9 +20,9 @@ export const POST = handle(async (request) => {
   const user = await requireUser();
   assertCan(user, "part:create", { type: "site" });
   const { fileName, bytes } = await receiveFile(request, { field: "file", maxBytes: config().UPLOAD_MAX_BYTES });
-  const part = await createPartFromFile(user, fileName, bytes);
+  const { part, importedMarkings, unreadableMarkings } = await createPartFromFile(user, fileName, bytes);
   return Response.json(
-    { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId },
+    { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId, importedMarkings, unreadableMarkings },
     { status: 201 },
   );
 });

@@ -94,6 +94,7 @@ export const accessModule: AccessModule = {
     viewRow("/history", "/history"),
     viewRow("/suggestions/decisions", "/suggestions/decisions"),
     viewRow("/export", "/export?format=musicxml", "MusicXML"),
+    viewRow("/export", "/export?format=midi", "MIDI"),
     {
       method: "PUT",
       route: "/api/parts/[partId]/markings/[noteKey]",

@@ -3,8 +3,11 @@ import { notFound, redirect } from "next/navigation";
 import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query";
 import { getCurrentUser } from "@/lib/auth/session";
 import { AppError } from "@/lib/errors";
-import { loadPart, partDto } from "@/lib/server/parts";
-import { partKeys } from "@/components/score/api/keys";
+import { selectPartsXml } from "@/lib/musicxml";
+import { chosenPartAnalysis, loadPart, partDto } from "@/lib/server/parts";
+import { listMarkingsByPartId } from "@/db/markings";
+import { listDecisionsByPartId } from "@/db/suggestion-decisions";
+import { decisionKeys, markingKeys, partKeys } from "@/components/score/api/keys";
 import { Workspace } from "@/components/score/workspace";
 
 export const dynamic = "force-dynamic";
@@ -22,16 +25,26 @@ export default async function PartWorkspacePage({ params }: { params: Promise<{ 
   const user = await getCurrentUser();
   if (!user) redirect(`/sign-in?callbackUrl=/parts/${encodeURIComponent(partId)}`);
   if (!/^[0-9a-f-]{36}$/i.test(partId)) notFound();
-  let dto;
+  let access;
   try {
-    dto = partDto(await loadPart(user, partId, "part:view"));
+    access = await loadPart(user, partId, "part:view");
   } catch (err) {
     if (err instanceof AppError && (err.status === 404 || err.status === 403)) notFound();
     throw err;
   }
-  // The part's details travel with the page, so the workspace starts without a round trip.
+  // What the workspace needs first travels with the page, so engraving starts without a round
+  // trip; the client keeps it fresh through the same query keys.
+  const [analysis, markings, decisions] = await Promise.all([
+    chosenPartAnalysis(access.part),
+    listMarkingsByPartId({ partId }),
+    listDecisionsByPartId({ partId }),
+  ]);
   const queryClient = new QueryClient();
-  queryClient.setQueryData(partKeys.detail(partId), dto);
+  queryClient.setQueryData(partKeys.detail(partId), partDto(access));
+  queryClient.setQueryData(partKeys.musicxml(partId), selectPartsXml(access.part.musicxml, [access.part.chosenPartId]));
+  queryClient.setQueryData(partKeys.analysis(partId), analysis);
+  queryClient.setQueryData(markingKeys.list(partId), { markings });
+  queryClient.setQueryData(decisionKeys.list(partId), { decisions });
   return (
     <HydrationBoundary state={dehydrate(queryClient)}>
       <Workspace partId={partId} />

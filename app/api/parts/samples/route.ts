@@ -28,6 +28,6 @@ export const POST = handle(async (request) => {
   const { name } = await parseJson(request, sampleBody);
   if (!(await sampleNames()).includes(name)) throw new AppError("not_found:sample", `There is no sample called ${name}.`);
   const bytes = new Uint8Array(await fs.readFile(path.join(samplesDir(), name)));
-  const part = await createPartFromFile(user, name, bytes);
+  const { part } = await createPartFromFile(user, name, bytes);
   return Response.json({ id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId }, { status: 201 });
 });

@@ -1,0 +1,40 @@
+"use client";
+
+import { useEffect, useRef, useState } from "react";
+
+/**
+ * The benchmark's baseline: the same normalized text engraved by OpenSheetMusicDisplay with the
+ * workspace's options, and nothing of ours (no keys, overlay, store or panels).
+ */
+export function BareScore({ xml }: { xml: string }) {
+  const host = useRef<HTMLDivElement>(null);
+  const [ready, setReady] = useState(false);
+  useEffect(() => {
+    let cancelled = false;
+    (async () => {
+      const { OpenSheetMusicDisplay } = await import("opensheetmusicdisplay");
+      const el = host.current;
+      if (cancelled || !el) return;
+      const osmd = new OpenSheetMusicDisplay(el, {
+        backend: "svg",
+        autoResize: false,
+        drawTitle: false,
+        drawSubtitle: false,
+        drawComposer: false,
+        drawLyricist: false,
+        drawCredits: false,
+        drawPartNames: false,
+        drawMeasureNumbers: true,
+        drawMeasureNumbersOnlyAtSystemStart: true,
+      });
+      await osmd.load(xml);
+      if (cancelled) return;
+      osmd.render();
+      setReady(true);
+    })();
+    return () => {
+      cancelled = true;
+    };
+  }, [xml]);
+  return <div ref={host} data-bare-ready={ready ? "true" : "false"} />;
+}

@@ -1,0 +1,41 @@
+/**
+ * Where OpenSheetMusicDisplay put each system (one line of music), relative to the score stage:
+ * the top line of its first staff and the bottom line of its last, in CSS pixels.
+ */
+import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
+
+export interface SystemBox {
+  staffTop: number;
+  staffBottom: number;
+  /** Written measure numbers of the system's first and last bar. */
+  firstBar: number;
+  lastBar: number;
+}
+
+/** OSMD's unit: 10 px at zoom 1. */
+const UNIT_PX = 10;
+
+export function measureSystems(osmd: OpenSheetMusicDisplay, stage: HTMLElement, zoom: number): SystemBox[] {
+  const origin = stage.getBoundingClientRect();
+  const svg = stage.querySelector("svg");
+  const svgTop = (svg?.getBoundingClientRect().top ?? origin.top) - origin.top;
+  const out: SystemBox[] = [];
+  for (const page of osmd.GraphicSheet?.MusicPages ?? []) {
+    for (const system of page.MusicSystems ?? []) {
+      const lines = system.StaffLines ?? [];
+      if (lines.length === 0) continue;
+      const first = lines[0];
+      const last = lines[lines.length - 1];
+      const top = first.PositionAndShape.AbsolutePosition.y;
+      const bottom = last.PositionAndShape.AbsolutePosition.y + last.StaffHeight;
+      const measures = first.Measures ?? [];
+      out.push({
+        staffTop: svgTop + top * UNIT_PX * zoom,
+        staffBottom: svgTop + bottom * UNIT_PX * zoom,
+        firstBar: measures[0]?.MeasureNumber ?? 0,
+        lastBar: measures[measures.length - 1]?.MeasureNumber ?? 0,
+      });
+    }
+  }
+  return out.sort((a, b) => a.staffTop - b.staffTop);
+}

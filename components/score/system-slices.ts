@@ -1,0 +1,161 @@
+/**
+ * Cuts the engraved part and our glyph layer into one standalone SVG per system, so a printed
+ * page (CSS `break-inside: avoid`) or a PDF page (one `svg2pdf` call per system) never splits a
+ * line of music. Each slice holds clones of only the drawing elements that reach into its band,
+ * clipped to the band, in the stage's pixel coordinates.
+ */
+import type { SystemBox } from "./measure-systems";
+
+const SVG_NS = "http://www.w3.org/2000/svg";
+
+export interface SliceBand {
+  top: number;
+  bottom: number;
+}
+
+interface Extent {
+  top: number;
+  bottom: number;
+}
+
+/** Elements drawn as one piece: never split between slices, only cloned into each they touch. */
+const ATOMIC = /(^|\s)vf-(stavenote|stave|beam|clef|keysignature|timesignature)(\s|$)/;
+
+function rectIn(el: Element, origin: DOMRect): Extent | null {
+  const r = el.getBoundingClientRect();
+  if (r.width === 0 && r.height === 0) return null;
+  return { top: r.top - origin.top, bottom: r.bottom - origin.top };
+}
+
+function nearestSystem(systems: readonly SystemBox[], e: Extent): number {
+  const centre = (e.top + e.bottom) / 2;
+  let best = 0;
+  let distance = Infinity;
+  systems.forEach((s, i) => {
+    const d = centre < s.staffTop ? s.staffTop - centre : centre > s.staffBottom ? centre - s.staffBottom : 0;
+    if (d < distance) {
+      distance = d;
+      best = i;
+    }
+  });
+  return best;
+}
+
+/**
+ * Bands that hold each system whole: from the highest to the lowest thing drawn for it (notes,
+ * slurs, our glyphs), plus `pad`, never overlapping the next system's band.
+ */
+export function systemBands(systems: readonly SystemBox[], extents: readonly Extent[], pad: number, height: number): SliceBand[] {
+  const reach = systems.map((s) => ({ top: s.staffTop, bottom: s.staffBottom }));
+  for (const e of extents) {
+    const r = reach[nearestSystem(systems, e)];
+    r.top = Math.min(r.top, e.top);
+    r.bottom = Math.max(r.bottom, e.bottom);
+  }
+  const bands = reach.map((r) => ({ top: Math.max(0, r.top - pad), bottom: Math.min(height, r.bottom + pad) }));
+  for (let i = 0; i + 1 < bands.length; i++) {
+    if (bands[i].bottom > bands[i + 1].top) {
+      // Padding (or a reach) overlaps the next system: cut in the middle of the free space.
+      const cut = (Math.min(reach[i].bottom, reach[i + 1].top) + Math.max(reach[i].bottom, reach[i + 1].top)) / 2;
+      bands[i].bottom = cut;
+      bands[i + 1].top = cut;
+    }
+  }
+  return bands;
+}
+
+/** Top-level drawing elements (descending into groups that span several systems). */
+function leaves(root: Element, origin: DOMRect, systems: readonly SystemBox[]): { el: Element; extent: Extent | null }[] {
+  const out: { el: Element; extent: Extent | null }[] = [];
+  const walk = (parent: Element) => {
+    for (const el of Array.from(parent.children)) {
+      const tag = el.tagName.toLowerCase();
+      if (tag === "defs" || tag === "style") {
+        out.push({ el, extent: null });
+        continue;
+      }
+      const extent = rectIn(el, origin);
+      if (!extent) continue;
+      const spansSeveral = systems.filter((s, i) => {
+        const next = systems[i + 1];
+        return extent.top < (next ? next.staffTop : Infinity) && extent.bottom > s.staffTop;
+      }).length > 1;
+      if (tag === "g" && spansSeveral && !ATOMIC.test(el.getAttribute("class") ?? "") && el.children.length > 0) walk(el);
+      else out.push({ el, extent });
+    }
+  };
+  walk(root);
+  return out;
+}
+
+export interface SliceSource {
+  stage: HTMLElement;
+  /** The engraving's own <svg>. */
+  engraving: SVGSVGElement;
+  /** Our glyph layer (a <g> in stage coordinates). */
+  glyphs: Element | null;
+  systems: readonly SystemBox[];
+  width: number;
+  height: number;
+  /** Free space kept around each system. */
+  pad: number;
+  /** Prefix of the clip-path ids (unique on the page). */
+  idPrefix: string;
+}
+
+/** Builds the slices; call after the engraving and the overlay are in the document. */
+export function buildSystemSlices(src: SliceSource): SVGSVGElement[] {
+  if (src.systems.length === 0) return [];
+  const origin = src.stage.getBoundingClientRect();
+  const svgRect = src.engraving.getBoundingClientRect();
+  const viewBox = src.engraving.viewBox?.baseVal;
+  const scale = viewBox && viewBox.width > 0 ? svgRect.width / viewBox.width : 1;
+  const offsetX = svgRect.left - origin.left - (viewBox?.x ?? 0) * scale;
+  const offsetY = svgRect.top - origin.top - (viewBox?.y ?? 0) * scale;
+
+  const engraved = leaves(src.engraving, origin, src.systems);
+  const glyphs = src.glyphs ? leaves(src.glyphs, origin, src.systems) : [];
+  const extents = [...engraved, ...glyphs].map((l) => l.extent).filter((e): e is Extent => e !== null);
+  const bands = systemBands(src.systems, extents, src.pad, src.height);
+
+  return bands.map((band, i) => {
+    const h = band.bottom - band.top;
+    const svg = document.createElementNS(SVG_NS, "svg");
+    svg.setAttribute("xmlns", SVG_NS);
+    svg.setAttribute("width", String(src.width));
+    svg.setAttribute("height", String(Math.ceil(h)));
+    svg.setAttribute("viewBox", `0 ${band.top} ${src.width} ${h}`);
+    svg.setAttribute("class", "stand-system");
+    svg.setAttribute("data-system", String(i));
+    svg.setAttribute("role", "img");
+    const sys = src.systems[i];
+    svg.setAttribute("aria-label", sys.firstBar === sys.lastBar ? `Bar ${sys.firstBar}` : `Bars ${sys.firstBar} to ${sys.lastBar}`);
+
+    const defs = document.createElementNS(SVG_NS, "defs");
+    const clip = document.createElementNS(SVG_NS, "clipPath");
+    const clipId = `${src.idPrefix}-${i}`;
+    clip.setAttribute("id", clipId);
+    const rect = document.createElementNS(SVG_NS, "rect");
+    rect.setAttribute("x", "0");
+    rect.setAttribute("y", String(band.top));
+    rect.setAttribute("width", String(src.width));
+    rect.setAttribute("height", String(h));
+    clip.appendChild(rect);
+    defs.appendChild(clip);
+    svg.appendChild(defs);
+
+    const clipped = document.createElementNS(SVG_NS, "g");
+    clipped.setAttribute("clip-path", `url(#${clipId})`);
+    const music = document.createElementNS(SVG_NS, "g");
+    music.setAttribute("transform", `translate(${offsetX} ${offsetY}) scale(${scale})`);
+    const touches = (e: Extent | null) => e === null || (e.top < band.bottom && e.bottom > band.top);
+    for (const { el, extent } of engraved) if (touches(extent)) music.appendChild(el.cloneNode(true));
+    clipped.appendChild(music);
+    const marks = document.createElementNS(SVG_NS, "g");
+    marks.setAttribute("data-layer", "glyphs");
+    for (const { el, extent } of glyphs) if (touches(extent)) marks.appendChild(el.cloneNode(true));
+    clipped.appendChild(marks);
+    svg.appendChild(clipped);
+    return svg;
+  });
+}

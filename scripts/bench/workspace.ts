@@ -1,0 +1,148 @@
+/**
+ * The workspace in Chromium: for parts of 10, 100 and 300 bars, the time from navigation until
+ * the score is drawn and its notes are selectable, next to a bare page that only engraves the
+ * same text (measured in the same run); the time from a click on a note to the marking panel
+ * showing it; and the bytes of JavaScript the page loads besides the engraving library.
+ */
+import zlib from "node:zlib";
+import type { BrowserContext, Page } from "playwright-core";
+import type { BenchSection } from "./index";
+import { generatePartXml } from "./generate-part";
+import { launchContext } from "../../tests/helpers/browser";
+import { multipartFile } from "../../tests/helpers/parts";
+import { createSignedInUser } from "../../tests/helpers/session";
+
+const APP_URL = process.env.APP_URL ?? "http://127.0.0.1:3000";
+const RUNS = 5;
+
+/** Records, inside the page, the moment (ms since navigation start) a condition first holds. */
+const READY_PROBE = `
+  (() => {
+    const check = () => {
+      if (window.__benchReadyAt) return;
+      const workspace = document.querySelector('[data-score-status="ready"]') && document.querySelector('[data-layer="hits"] [data-note-key]');
+      const bare = document.querySelector('[data-bare-ready="true"] svg');
+      if (workspace || bare) window.__benchReadyAt = performance.now();
+    };
+    new MutationObserver(check).observe(document, { subtree: true, childList: true, attributes: true });
+  })();
+`;
+
+async function timeToReady(page: Page, url: string): Promise<number> {
+  await page.goto(url, { waitUntil: "commit" });
+  await page.waitForFunction(() => (window as unknown as { __benchReadyAt?: number }).__benchReadyAt !== undefined, null, { timeout: 120_000 });
+  return page.evaluate(() => (window as unknown as { __benchReadyAt: number }).__benchReadyAt);
+}
+
+/** In the page: click a note and wait for the panel to name it, then for the next frame. */
+async function clickToPanel(page: Page, index: number): Promise<number> {
+  return page.evaluate(async (i) => {
+    const hits = [...document.querySelectorAll('[data-layer="hits"] [data-note-key]')];
+    const target = hits[i % hits.length] as SVGElement;
+    const panelNames = () => document.querySelector('[data-testid="marking-panel"] h2')?.textContent ?? null;
+    const before = panelNames();
+    const t0 = performance.now();
+    target.dispatchEvent(new MouseEvent("click", { bubbles: true }));
+    // Two notes can share a label (same pitch in a bar): such a click is not counted.
+    const changed = await new Promise<boolean>((resolve) => {
+      const done = () => (panelNames() !== before ? resolve(true) : performance.now() - t0 > 1000 ? resolve(false) : requestAnimationFrame(done));
+      done();
+    });
+    if (!changed) return Number.NaN;
+    await new Promise((r) => requestAnimationFrame(() => r(null)));
+    return performance.now() - t0;
+  }, index);
+}
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+async function scriptBytes(context: BrowserContext, url: string) {
+  const page = await context.newPage();
+  const bodies: Array<{ url: string; gz: number; osmd: boolean }> = [];
+  page.on("response", async (res) => {
+    if (res.request().resourceType() !== "script") return;
+    try {
+      const body = await res.body();
+      const text = body.toString("utf8");
+      bodies.push({ url: res.url(), gz: zlib.gzipSync(body).length, osmd: /OpenSheetMusicDisplay|VexFlow|Vex\.Flow/.test(text) && body.length > 300_000 });
+    } catch {
+      /* a redirected or aborted script has no body */
+    }
+  });
+  await timeToReady(page, url);
+  await page.waitForLoadState("networkidle");
+  await page.close();
+  const own = bodies.filter((b) => !b.osmd).reduce((a, b) => a + b.gz, 0);
+  const engraving = bodies.filter((b) => b.osmd).reduce((a, b) => a + b.gz, 0);
+  return { own, engraving, files: bodies.length };
+}
+
+const section: BenchSection = {
+  name: "workspace",
+  async run() {
+    const { client } = await createSignedInUser({ role: "player" });
+    const context = await launchContext({ width: 1280, height: 900 });
+    await context.addCookies(
+      client.cookie.split("; ").filter(Boolean).map((pair) => {
+        const [name, ...rest] = pair.split("=");
+        return { name, value: rest.join("="), url: APP_URL };
+      }),
+    );
+    // tsx names functions with an `__name` helper that does not exist inside the page.
+    await context.addInitScript("window.__name = (fn) => fn;");
+    await context.addInitScript(READY_PROBE);
+    const rows: Array<Record<string, string | number>> = [];
+    let firstPartId = "";
+    for (const bars of [10, 100, 300]) {
+      const xml = new TextEncoder().encode(generatePartXml({ measures: bars, seed: bars }));
+      const res = await client.fetch("/api/parts", { method: "POST", body: multipartFile(`bench-${bars}.musicxml`, xml) });
+      const { id } = (await res.json()) as { id: string };
+      firstPartId ||= id;
+      const page = await context.newPage();
+      // Warm both pages once (server caches, compiled chunks), then alternate runs.
+      await timeToReady(page, `${APP_URL}/dev/bare-score/${id}`);
+      await timeToReady(page, `${APP_URL}/parts/${id}`);
+      const bare: number[] = [];
+      const workspace: number[] = [];
+      for (let i = 0; i < RUNS; i++) {
+        bare.push(await timeToReady(page, `${APP_URL}/dev/bare-score/${id}`));
+        workspace.push(await timeToReady(page, `${APP_URL}/parts/${id}`));
+      }
+      const stages = await page.evaluate(() => {
+        const nav = performance.getEntriesByType("navigation")[0] as PerformanceNavigationTiming;
+        return {
+          firstByte: Math.round(nav.responseStart),
+          html: Math.round(nav.responseEnd),
+          domReady: Math.round(nav.domContentLoadedEventEnd),
+          ...Object.fromEntries(performance.getEntriesByType("mark").filter((m) => m.name.startsWith("ondula:")).map((m) => [m.name.slice(7), Math.round(m.startTime)])),
+        };
+      });
+      console.log(`${bars} bars, last workspace run, ms since navigation:`, JSON.stringify(stages), `ready ${Math.round(workspace[workspace.length - 1])}`);
+      const clicks: number[] = [];
+      for (let i = 0; i < 15; i++) {
+        const ms = await clickToPanel(page, i * 7 + 1);
+        if (Number.isFinite(ms)) clicks.push(ms);
+      }
+      await page.close();
+      rows.push({
+        bars,
+        "bare OSMD page ms": Math.round(median(bare)),
+        "workspace ms": Math.round(median(workspace)),
+        "workspace ÷ bare": +(median(workspace) / median(bare)).toFixed(2),
+        "click → panel ms (median)": +median(clicks).toFixed(1),
+        "click → panel ms (max)": +Math.max(...clicks).toFixed(1),
+      });
+    }
+    console.table(rows);
+    const js = await scriptBytes(context, `${APP_URL}/parts/${firstPartId}`);
+    console.log(
+      `JavaScript loaded by the workspace page (gzipped): ours ${(js.own / 1024).toFixed(0)} KB, engraving library ${(js.engraving / 1024).toFixed(0)} KB, ${js.files} files (goal: ours under 250 KB).`,
+    );
+    await context.close();
+  },
+};
+
+export default section;
