@@ -60,5 +60,7 @@ export function Figure({ label, value, unit, testId }: { label: string; value: s
 
 export function fmt(value: number | null | undefined, decimals = 1): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return "–";
-  return value.toFixed(decimals);
+  const text = value.toFixed(decimals);
+  // A tiny negative rounds to "-0.0", which reads as a measurement below zero.
+  return /^-0(\.0*)?$/.test(text) ? text.slice(1) : text;
 }
