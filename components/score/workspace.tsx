@@ -1,5 +1,6 @@
 "use client";
 
+import Link from "next/link";
 import { useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent } from "react";
 import type { Role } from "@/lib/analysis/types";
 import {
@@ -381,6 +382,9 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
           <ToolButton onClick={() => actions.setLegendOpen(!legendOpen)} label="Legend" pressed={legendOpen}>
             Legend
           </ToolButton>
+          <Link href={`/parts/${partId}/practice`} className="flex h-11 items-center rounded px-2.5 text-sm font-medium text-ink underline-offset-4 hover:bg-paper-deep hover:underline">
+            Practise
+          </Link>
           <ExportMenu partId={partId} />
         </div>
       </div>

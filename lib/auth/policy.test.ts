@@ -36,6 +36,8 @@ const partTable: Array<[Action, Expect[]]> = [
   ["marking:write", [401, "ok", 404, 403, 403, 404, 404]],
   ["part:comment", [401, "ok", 404, "ok", "ok", 404, 404]],
   ["part:propose", [401, 403, 404, 403, "ok", 404, 404]],
+  ["practice:view", [401, "ok", 404, "ok", "ok", 404, 404]],
+  ["practice:write", [401, "ok", 404, 403, 403, 404, 404]],
 ];
 
 function outcome(user: CurrentUser | null, action: Action, resource: Resource): Expect {

@@ -14,6 +14,8 @@ import type { CurrentUser } from "./types";
  *   unconfirmed account cannot use Ondula to mail strangers.
  * - Admins do not join studios (an invitation to an admin's address cannot be accepted).
  * - Admins cannot change their own role or disable themselves (no lock-out by accident).
+ * - A part's practice log and takes are the owner's: only the owner writes them; a teacher the
+ *   part is shared with may read them (following progress is part of teaching), nobody else.
  */
 
 export type SharePermission = "comment" | "propose";
@@ -59,7 +61,9 @@ export type Action =
   | "part:share"
   | "part:comment"
   | "part:propose"
-  | "marking:write";
+  | "marking:write"
+  | "practice:view"
+  | "practice:write";
 
 type ResourceType = Resource["type"];
 
@@ -83,6 +87,8 @@ export const ACTION_RESOURCE: Record<Action, ResourceType> = {
   "part:comment": "part",
   "part:propose": "part",
   "marking:write": "part",
+  "practice:view": "part",
+  "practice:write": "part",
 };
 
 const isAdmin = (u: CurrentUser) => u.role === "admin";
@@ -140,11 +146,13 @@ function allowed(user: CurrentUser, action: Action, resource: Resource): boolean
       return !isAdmin(user);
     case "part:view":
     case "part:comment":
+    case "practice:view":
       return resource.type === "part" && (resource.part.ownerId === user.id || !!resource.share);
     case "part:edit":
     case "part:delete":
     case "part:share":
     case "marking:write":
+    case "practice:write":
       return resource.type === "part" && resource.part.ownerId === user.id;
     case "part:propose":
       return resource.type === "part" && resource.part.ownerId !== user.id && resource.share?.permission === "propose";
@@ -163,6 +171,7 @@ const FORBIDDEN_MESSAGES: Partial<Record<Action, string>> = {
   "studio:invite": "Only the studio's teacher can invite, once their e-mail address is confirmed.",
   "invitation:accept": "This invitation was sent to a different e-mail address.",
   "part:propose": "Proposals need a share with the propose permission.",
+  "practice:write": "Only the part's owner keeps its practice log and takes.",
 };
 
 /**

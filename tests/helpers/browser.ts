@@ -17,13 +17,16 @@ export const CHROMIUM_FLAGS = [
 
 export const OUTPUT_DIR = path.resolve("test-results", "e2e");
 
-/** A fresh Chromium profile per context; close it with `context.close()`. */
-export async function launchContext(options: { width?: number; height?: number } = {}): Promise<BrowserContext> {
+/**
+ * A fresh Chromium profile per context; close it with `context.close()`. `args` adds flags, e.g.
+ * the fake microphone ones (`--use-file-for-fake-audio-capture=<wav>`).
+ */
+export async function launchContext(options: { width?: number; height?: number; args?: string[] } = {}): Promise<BrowserContext> {
   const profile = fs.mkdtempSync(path.join(os.tmpdir(), "ondula-chromium-"));
   const context = await chromium.launchPersistentContext(profile, {
     executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
     headless: true,
-    args: CHROMIUM_FLAGS,
+    args: [...CHROMIUM_FLAGS, ...(options.args ?? [])],
     viewport: { width: options.width ?? 1280, height: options.height ?? 860 },
   });
   // Chromium may still be flushing its profile when the context closes; retry, never throw.
