@@ -4,7 +4,7 @@ import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query
 import { getCurrentUser } from "@/lib/auth/session";
 import { AppError } from "@/lib/errors";
 import { selectPartsXml } from "@/lib/musicxml";
-import { chosenPartAnalysis, loadPart, partDto } from "@/lib/server/parts";
+import { loadPart, partDto } from "@/lib/server/parts";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import { decisionKeys, markingKeys, partKeys } from "@/components/score/api/keys";
@@ -32,17 +32,13 @@ export default async function PartWorkspacePage({ params }: { params: Promise<{ 
     if (err instanceof AppError && (err.status === 404 || err.status === 403)) notFound();
     throw err;
   }
-  // What the workspace needs first travels with the page, so engraving starts without a round
-  // trip; the client keeps it fresh through the same query keys.
-  const [analysis, markings, decisions] = await Promise.all([
-    chosenPartAnalysis(access.part),
-    listMarkingsByPartId({ partId }),
-    listDecisionsByPartId({ partId }),
-  ]);
+  // The text to engrave and the markings travel with the page, so engraving starts without a
+  // round trip; the analysis (as large as the text) follows through its own request while the
+  // engraver works. The client keeps all of it fresh through the same query keys.
+  const [markings, decisions] = await Promise.all([listMarkingsByPartId({ partId }), listDecisionsByPartId({ partId })]);
   const queryClient = new QueryClient();
   queryClient.setQueryData(partKeys.detail(partId), partDto(access));
   queryClient.setQueryData(partKeys.musicxml(partId), selectPartsXml(access.part.musicxml, [access.part.chosenPartId]));
-  queryClient.setQueryData(partKeys.analysis(partId), analysis);
   queryClient.setQueryData(markingKeys.list(partId), { markings });
   queryClient.setQueryData(decisionKeys.list(partId), { decisions });
   return (
