@@ -165,7 +165,8 @@ async function startServices({ recreateDatabase }) {
   log("migrating…");
   run(process.execPath, [...tsx, "db/migrate.ts"], { env });
   log("seeding the demo…");
-  run(process.execPath, [...tsx, "db/seed.ts"], { env });
+  // The seed uses the server's data layer, whose modules are marked server-only.
+  run(process.execPath, [...tsx, "db/seed.ts"], { env: { ...env, NODE_OPTIONS: `${env.NODE_OPTIONS ?? ""} --conditions=react-server`.trim() } });
   return env;
 }
 
