@@ -2,6 +2,7 @@ import "server-only";
 import { and, asc, desc, eq, ilike, isNotNull, isNull, or, sql, type SQL } from "drizzle-orm";
 import { AppError } from "@/lib/errors";
 import type { ListedPart, PartPermission, PartSort } from "@/lib/parts/dto";
+import type { IngestedScore } from "@/lib/parts/ingest";
 
 export type { PartPermission };
 import type { AnyPgColumn } from "drizzle-orm/pg-core";
@@ -57,6 +58,26 @@ export async function getPartAccessById({ partId, viewerId }: { partId: string; 
 export async function getPartOwnerById({ partId }: { partId: string }): Promise<{ id: string; ownerId: string } | null> {
   const [row] = await db().select({ id: parts.id, ownerId: parts.ownerId }).from(parts).where(eq(parts.id, partId));
   return row ?? null;
+}
+
+/** The row of a new part, from a read and analysed file. */
+export function newPartValues(o: { ownerId: string; fileName: string; bytes: Uint8Array; ingested: IngestedScore }): NewPart {
+  const { ingested } = o;
+  return {
+    ownerId: o.ownerId,
+    title: ingested.title,
+    composer: ingested.composer,
+    sourceFileName: o.fileName.slice(0, 255),
+    sourceFormat: ingested.format,
+    sourceBytes: Buffer.from(o.bytes),
+    sizeBytes: o.bytes.byteLength,
+    musicxml: ingested.partwiseXml,
+    partList: ingested.partList,
+    chosenPartId: ingested.chosenPartId,
+    analysis: ingested.analysis,
+    analysisVersion: ingested.analysisVersion,
+    ...ingested.summary,
+  };
 }
 
 export interface Quota {

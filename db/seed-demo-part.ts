@@ -6,7 +6,7 @@ import { DEFAULT_MARKING, type MarkingValues } from "@/lib/markings/schema";
 import { ingestScore } from "@/lib/parts/ingest";
 import { db } from "./client";
 import { writeMarking } from "./markings";
-import { insertPart } from "./parts";
+import { insertPart, newPartValues } from "./parts";
 import { parts, shares, type User } from "./schema";
 
 const DEMO_SAMPLE = "harbour-song.musicxml";
@@ -26,21 +26,7 @@ export async function seedDemoPart({ player, teacher }: { player: User; teacher:
   const ingested = ingestScore(bytes, DEMO_SAMPLE, {});
   const part = await insertPart({
     quota: { maxParts: Number.MAX_SAFE_INTEGER, maxBytes: Number.MAX_SAFE_INTEGER },
-    values: {
-      ownerId: player.id,
-      title: ingested.title,
-      composer: ingested.composer,
-      sourceFileName: DEMO_SAMPLE,
-      sourceFormat: ingested.format,
-      sourceBytes: Buffer.from(bytes),
-      sizeBytes: bytes.byteLength,
-      musicxml: ingested.partwiseXml,
-      partList: ingested.partList,
-      chosenPartId: ingested.chosenPartId,
-      analysis: ingested.analysis,
-      analysisVersion: ingested.analysisVersion,
-      ...ingested.summary,
-    },
+    values: newPartValues({ ownerId: player.id, fileName: DEMO_SAMPLE, bytes, ingested }),
   });
 
   const suggestions = ingested.analysis.parts.find((p) => p.id === part.chosenPartId)?.suggestions ?? [];

@@ -6,9 +6,9 @@ import type { CurrentUser } from "@/lib/auth/types";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { readScoreFile } from "@/lib/musicxml";
-import { ingestScore } from "@/lib/parts/ingest";
+import { ingestScore, type IngestedScore } from "@/lib/parts/ingest";
 import { extractMarkingsWithReport, stripMarkings } from "@/lib/export/musicxml-markings";
-import { getPartAccessById, insertPart, storeAnalysisById, type PartAccess } from "@/db/parts";
+import { getPartAccessById, insertPart, newPartValues, storeAnalysisById, type PartAccess } from "@/db/parts";
 import { writeMarking } from "@/db/markings";
 import type { Part } from "@/db/schema";
 import { randomUUID } from "node:crypto";
@@ -70,25 +70,11 @@ export async function createPartFromFile(user: CurrentUser, fileName: string, by
   return { part, importedMarkings, unreadableMarkings: problems };
 }
 
-function insertPartFrom(user: CurrentUser, fileName: string, bytes: Uint8Array, ingested: ReturnType<typeof ingestScore>): Promise<Part> {
+function insertPartFrom(user: CurrentUser, fileName: string, bytes: Uint8Array, ingested: IngestedScore): Promise<Part> {
   const c = config();
   return insertPart({
     quota: { maxParts: c.QUOTA_PARTS, maxBytes: c.QUOTA_BYTES },
-    values: {
-      ownerId: user.id,
-      title: ingested.title,
-      composer: ingested.composer,
-      sourceFileName: fileName.slice(0, 255),
-      sourceFormat: ingested.format,
-      sourceBytes: Buffer.from(bytes),
-      sizeBytes: bytes.byteLength,
-      musicxml: ingested.partwiseXml,
-      partList: ingested.partList,
-      chosenPartId: ingested.chosenPartId,
-      analysis: ingested.analysis,
-      analysisVersion: ingested.analysisVersion,
-      ...ingested.summary,
-    },
+    values: newPartValues({ ownerId: user.id, fileName, bytes, ingested }),
   });
 }
 
