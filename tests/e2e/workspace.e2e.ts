@@ -81,6 +81,15 @@ describe("the marking workspace", () => {
       expect(Math.abs(wave.x + wave.width / 2 - noteCentre)).toBeLessThan(note.width / 2 + 2);
       expect(Math.abs(role.x + role.width / 2 - noteCentre)).toBeLessThan(note.width / 2 + 2);
       expect(wave.y + wave.height).toBeLessThan(note.y + note.height - 8);
+      // And independently of our own measuring: the engraved notehead itself lies right under them.
+      const heads = await page.locator("svg .vf-notehead").evaluateAll((els) =>
+        els.map((e) => {
+          const r = e.getBoundingClientRect();
+          return { x: r.x + r.width / 2, top: r.y };
+        }),
+      );
+      const under = heads.filter((h) => Math.abs(h.x - noteCentre) < 3 && h.top > wave.y + wave.height && h.top - (wave.y + wave.height) < 120);
+      expect(under.length, `a notehead under the wave of ${chosen[i]}`).toBeGreaterThan(0);
     }
     // Depth 0 is drawn as a flat line: "deliberately none".
     expect(await glyph(page, "wave", chosen[2]).getAttribute("data-kind")).toMatch(/none|flat/);
