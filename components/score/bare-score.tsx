@@ -1,7 +1,7 @@
 "use client";
 
 import { ENGRAVING_OPTIONS } from "./engraving-options";
-import { useEffect, useRef, useState } from "react";
+import { useLayoutEffect, useRef, useState } from "react";
 
 /**
  * The benchmark's baseline: the same normalized text engraved by OpenSheetMusicDisplay with the
@@ -10,7 +10,8 @@ import { useEffect, useRef, useState } from "react";
 export function BareScore({ xml }: { xml: string }) {
   const host = useRef<HTMLDivElement>(null);
   const [ready, setReady] = useState(false);
-  useEffect(() => {
+  // The same start as the workspace (a layout effect), so the two differ only by our own work.
+  useLayoutEffect(() => {
     let cancelled = false;
     (async () => {
       const { OpenSheetMusicDisplay } = await import("opensheetmusicdisplay");

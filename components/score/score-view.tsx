@@ -1,7 +1,7 @@
 "use client";
 
 import { ENGRAVING_OPTIONS } from "./engraving-options";
-import { useCallback, useEffect, useRef, useState, type ReactNode } from "react";
+import { useCallback, useEffect, useLayoutEffect, useRef, useState, type ReactNode } from "react";
 import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
 import { GLYPH_BAND_HEIGHT, type NoteBox } from "@/lib/markings/glyph-geometry";
 import { measureNoteBoxes } from "./measure-note-boxes";
@@ -74,7 +74,9 @@ export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
     performance.mark("ondula:measured");
   }, [measure]);
 
-  useEffect(() => {
+  // A layout effect: it runs right after the first commit, before the browser paints, while a
+  // passive effect after hydration can wait a frame or more — engraving is the slow part.
+  useLayoutEffect(() => {
     let cancelled = false;
     const host = hostRef.current;
     if (!host) return;
