@@ -1,26 +1,8 @@
 import "server-only";
 import { and, asc, eq, isNull, sql } from "drizzle-orm";
+import type { CommentDto, ThreadDto, ThreadSummary } from "@/lib/sharing/dto";
 import { db } from "./client";
 import { commentThreads, comments, users, type Comment } from "./schema";
-
-export interface CommentDto {
-  id: string;
-  threadKey: string;
-  authorId: string;
-  authorName: string;
-  body: string;
-  createdAt: string;
-  updatedAt: string;
-  edited: boolean;
-}
-
-export interface ThreadDto {
-  threadKey: string;
-  resolved: boolean;
-  resolvedAt: string | null;
-  resolvedByName: string | null;
-  comments: CommentDto[];
-}
 
 export async function getThreadByKey({ partId, threadKey }: { partId: string; threadKey: string }): Promise<ThreadDto> {
   const [thread] = await db()
@@ -125,12 +107,6 @@ export async function setThreadResolved({ partId, threadKey, resolved, userId }:
   return rows.length === 1;
 }
 
-export interface ThreadSummary {
-  threadKey: string;
-  count: number;
-  unresolved: boolean;
-}
-
 /** One row per thread with live comments: what the score's comment markers draw. */
 export async function summarizeThreadsByPartId({ partId }: { partId: string }): Promise<ThreadSummary[]> {
   const rows = await db()
@@ -145,4 +121,16 @@ export async function summarizeThreadsByPartId({ partId }: { partId: string }): 
     .groupBy(commentThreads.id)
     .orderBy(asc(commentThreads.threadKey));
   return rows;
+}
+
+/** Every comment still standing on a part (deleted ones left out), oldest first: the stand copy prints them. */
+export async function listCommentsByPartId({ partId }: { partId: string }): Promise<CommentDto[]> {
+  const rows = await db()
+    .select({ comment: comments, threadKey: commentThreads.threadKey, authorName: users.name })
+    .from(comments)
+    .innerJoin(commentThreads, eq(commentThreads.id, comments.threadId))
+    .innerJoin(users, eq(users.id, comments.authorId))
+    .where(and(eq(comments.partId, partId), isNull(comments.deletedAt)))
+    .orderBy(asc(comments.createdAt), asc(comments.id));
+  return rows.map((r) => toCommentDto(r.comment, r.threadKey, r.authorName));
 }

@@ -1,20 +1,10 @@
 import "server-only";
 import { and, desc, eq, inArray, isNull, sql } from "drizzle-orm";
+import type { NotificationDto } from "@/lib/sharing/dto";
 import { db } from "./client";
 import { notifications, parts, users } from "./schema";
 
 export type NotificationKind = "comment" | "proposal" | "proposal_accepted" | "proposal_declined";
-
-export interface NotificationDto {
-  id: string;
-  partId: string;
-  kind: string;
-  threadKey: string | null;
-  actorName: string | null;
-  summary: string;
-  read: boolean;
-  createdAt: string;
-}
 
 export async function insertNotifications(rows: {
   userId: string;

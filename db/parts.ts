@@ -55,11 +55,6 @@ export async function getPartAccessById({ partId, viewerId }: { partId: string; 
   return null;
 }
 
-export async function getPartOwnerById({ partId }: { partId: string }): Promise<{ id: string; ownerId: string } | null> {
-  const [row] = await db().select({ id: parts.id, ownerId: parts.ownerId }).from(parts).where(eq(parts.id, partId));
-  return row ?? null;
-}
-
 /** The row of a new part, from a read and analysed file. */
 export function newPartValues(o: { ownerId: string; fileName: string; bytes: Uint8Array; ingested: IngestedScore }): NewPart {
   const { ingested } = o;
@@ -213,6 +208,3 @@ export async function deletePartById({ partId }: { partId: string }): Promise<vo
   await db().delete(parts).where(eq(parts.id, partId));
 }
 
-export async function touchPartById({ partId }: { partId: string }): Promise<void> {
-  await db().update(parts).set({ updatedAt: new Date() }).where(eq(parts.id, partId));
-}

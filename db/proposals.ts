@@ -1,24 +1,11 @@
 import "server-only";
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
 import type { MarkingValues } from "@/lib/markings/schema";
+import type { ProposalDto, ProposalStatus } from "@/lib/sharing/dto";
 import { db } from "./client";
+
+export type { ProposalDto, ProposalStatus };
 import { proposals, users, type Proposal } from "./schema";
-
-export type ProposalStatus = Proposal["status"];
-
-export interface ProposalDto {
-  id: string;
-  noteKey: string;
-  authorId: string;
-  authorName: string;
-  baseVersion: number | null;
-  proposed: MarkingValues;
-  comment: string;
-  status: ProposalStatus;
-  reply: string | null;
-  decidedAt: string | null;
-  createdAt: string;
-}
 
 const columns = { proposal: proposals, authorName: users.name };
 

@@ -1,21 +1,8 @@
 import "server-only";
 import { and, asc, desc, eq, isNotNull, isNull, sql } from "drizzle-orm";
+import type { ShareDto, ShareStatus } from "@/lib/sharing/dto";
 import { db } from "./client";
 import { comments, notifications, parts, proposals, shares, users, type Share } from "./schema";
-
-export type ShareStatus = "pending" | "accepted" | "expired";
-
-export interface ShareDto {
-  id: string;
-  email: string;
-  permission: "comment" | "propose";
-  status: ShareStatus;
-  userName: string | null;
-  acceptedAt: string | null;
-  expiresAt: string;
-  lastSentAt: string;
-  createdAt: string;
-}
 
 export function shareStatus(s: Pick<Share, "acceptedAt" | "expiresAt">, now = new Date()): ShareStatus {
   if (s.acceptedAt) return "accepted";

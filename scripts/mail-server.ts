@@ -6,17 +6,7 @@
 import http from "node:http";
 import { SMTPServer } from "smtp-server";
 import { simpleParser } from "mailparser";
-
-export interface CaughtMessage {
-  id: string;
-  to: string[];
-  from: string;
-  subject: string;
-  text: string;
-  html: string | null;
-  links: string[];
-  date: string;
-}
+import type { CaughtMessage } from "../lib/mail/caught-message";
 
 const smtpPort = Number(process.env.SMTP_PORT ?? 2525);
 const apiPort = Number(process.env.MAIL_API_PORT ?? 2526);

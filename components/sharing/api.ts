@@ -3,74 +3,16 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { apiFetch } from "@/components/library/api";
 import type { MarkingDto, MarkingValues } from "@/lib/markings/schema";
+import type { CommentDto, NotificationDto, ProposalWithCurrent, ShareDto, SharePermission, ThreadDto, ThreadMarker } from "@/lib/sharing/dto";
 import type { StudentGroup } from "@/lib/sharing/attention";
 
-export type SharePermission = "comment" | "propose";
-
-export interface ShareItem {
-  id: string;
-  email: string;
-  permission: SharePermission;
-  status: "pending" | "accepted" | "expired";
-  userName: string | null;
-  acceptedAt: string | null;
-  expiresAt: string;
-  lastSentAt: string;
-}
-
-export interface CommentItem {
-  id: string;
-  threadKey: string;
-  authorId: string;
-  authorName: string;
-  body: string;
-  createdAt: string;
-  updatedAt: string;
-  edited: boolean;
-}
-
-export interface Thread {
-  threadKey: string;
-  resolved: boolean;
-  resolvedAt: string | null;
-  resolvedByName: string | null;
-  comments: CommentItem[];
-}
-
-export interface ThreadSummary {
-  threadKey: string;
-  count: number;
-  unresolved: boolean;
-  openProposals: number;
-}
-
-export interface ProposalItem {
-  id: string;
-  noteKey: string;
-  authorId: string;
-  authorName: string;
-  baseVersion: number | null;
-  proposed: MarkingValues;
-  comment: string;
-  status: "open" | "accepted" | "declined" | "stale";
-  reply: string | null;
-  decidedAt: string | null;
-  createdAt: string;
-  current: MarkingDto | null;
-  stale: boolean;
-}
-
-export interface NotificationItem {
-  id: string;
-  partId: string;
-  kind: string;
-  threadKey: string | null;
-  actorName: string | null;
-  summary: string;
-  read: boolean;
-  createdAt: string;
-  url: string;
-}
+export type { SharePermission } from "@/lib/sharing/dto";
+export type ShareItem = ShareDto;
+export type CommentItem = CommentDto;
+export type Thread = ThreadDto;
+export type ThreadSummary = ThreadMarker;
+export type ProposalItem = ProposalWithCurrent;
+export type NotificationItem = NotificationDto & { url: string };
 
 export interface NotificationsPage {
   unread: number;

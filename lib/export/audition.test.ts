@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it, vi } from "vitest";
-import type { MarkingValues } from "@/lib/markings/schema";
+import { DEFAULT_MARKING, type MarkingValues } from "@/lib/markings/schema";
 import {
   auditionNotes,
   DEFAULT_VOLUME,
@@ -11,15 +11,7 @@ import {
 } from "./audition";
 import { DELAYED_ONSET_FRACTION, midiToHz } from "./vibrato-curve";
 
-const base: MarkingValues = {
-  depthCents: 20,
-  speedHz: 5.5,
-  placement: "centered",
-  onset: "immediate",
-  shape: "steady",
-  role: null,
-  comment: "",
-};
+const base: MarkingValues = DEFAULT_MARKING;
 
 const A4 = 440;
 const cents = (f: number, f0: number) => 1200 * Math.log2(f / f0);

@@ -1,20 +1,12 @@
 import { Midi } from "@tonejs/midi";
 import { describe, expect, it } from "vitest";
-import type { MarkingValues } from "@/lib/markings/schema";
+import { DEFAULT_MARKING, type MarkingValues } from "@/lib/markings/schema";
 import type { Measure, Note, PartModel } from "@/lib/musicxml/model";
 import { BEND_POINTS_PER_CYCLE, renderMidi } from "./midi";
 import { bend14ToCents, centsToBend14, centsToSignedBend, readBendToCents } from "./pitch-bend";
 import { DELAYED_ONSET_FRACTION, ENVELOPE_RAMP } from "./vibrato-curve";
 
-const base: MarkingValues = {
-  depthCents: 20,
-  speedHz: 5.5,
-  placement: "centered",
-  onset: "immediate",
-  shape: "steady",
-  role: null,
-  comment: "",
-};
+const base: MarkingValues = DEFAULT_MARKING;
 
 /** Bars 1–3 at ♩=120 (2 s a bar), bars 4–6 at ♩=60 (4 s a bar), all 4/4. */
 function measures(): Measure[] {

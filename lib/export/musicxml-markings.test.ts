@@ -3,7 +3,7 @@ import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { validateMusicXml } from "@/tests/helpers/musicxml-xsd";
 import { readScoreFile } from "@/lib/musicxml";
-import type { MarkingValues } from "@/lib/markings/schema";
+import { DEFAULT_MARKING, type MarkingValues } from "@/lib/markings/schema";
 import { decodeCarrier, encodeCarrier, markingLabel } from "./marking-text";
 import {
   embedMarkings,
@@ -16,15 +16,7 @@ import { scanNoteSites } from "./note-sites";
 
 const duet = readFileSync(path.join(import.meta.dirname, "fixtures/duet.musicxml"), "utf8");
 
-const base: MarkingValues = {
-  depthCents: 20,
-  speedHz: 5.5,
-  placement: "centered",
-  onset: "immediate",
-  shape: "steady",
-  role: null,
-  comment: "",
-};
+const base: MarkingValues = DEFAULT_MARKING;
 
 /** Markings on a grace note, a plain note, a tie chain across a barline and two chord notes. */
 const markings = new Map<string, MarkingValues>([

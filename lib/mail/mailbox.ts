@@ -1,17 +1,8 @@
 import "server-only";
 import { config, isProduction } from "@/lib/config";
+import type { CaughtMessage } from "./caught-message";
 
-/** A message caught by the local mail server (development and test only). */
-export interface CaughtMessage {
-  id: string;
-  to: string[];
-  from: string;
-  subject: string;
-  text: string;
-  html: string | null;
-  links: string[];
-  date: string;
-}
+export type { CaughtMessage };
 
 /** The local mailbox, newest first; null in production or when no mailbox is configured. */
 export async function listCaughtMessages({ to }: { to?: string } = {}): Promise<CaughtMessage[] | null> {

@@ -2,6 +2,8 @@ import "server-only";
 import { analyzeScore, ANALYSIS_VERSION } from "@/lib/analysis";
 import type { PartAnalysis, ScoreAnalysis } from "@/lib/analysis/types";
 import { assertCan, type Action } from "@/lib/auth/policy";
+import { notFound, redirect } from "next/navigation";
+import { getCurrentUser } from "@/lib/auth/session";
 import type { CurrentUser } from "@/lib/auth/types";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
@@ -52,6 +54,32 @@ export interface CreatedPart {
  * records (lib/export/README.md); those on the chosen part's notes become the new part's markings,
  * written by the uploader as one history step, so importing an export recovers every marking.
  */
+/**
+ * For a page about one part: sends a visitor without a session to sign in (and back to `path`),
+ * and answers "not found" for a part the viewer may not see, exactly as for one that is not there.
+ */
+export async function loadPartForPage({ partId, action, path }: { partId: string; action: Action; path: string }): Promise<{ user: CurrentUser; access: PartAccess }> {
+  const user = await getCurrentUser();
+  if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(path)}`);
+  if (!UUID.test(partId)) notFound();
+  try {
+    return { user, access: await loadPart(user, partId, action) };
+  } catch (err) {
+    if (err instanceof AppError && (err.status === 404 || err.status === 403)) notFound();
+    throw err;
+  }
+}
+
+/** The part's title for the page's <title>, or null when the viewer may not see it. */
+export async function partTitleForViewer(partId: string): Promise<string | null> {
+  const user = await getCurrentUser();
+  if (!user || !UUID.test(partId)) return null;
+  const access = await loadPart(user, partId, "part:view").catch(() => null);
+  return access?.part.title ?? null;
+}
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
 export async function createPartFromFile(user: CurrentUser, fileName: string, bytes: Uint8Array): Promise<CreatedPart> {
   const ingested = ingestScore(bytes, fileName, readLimits());
   const { markings, problems } = extractMarkingsWithReport(ingested.partwiseXml);

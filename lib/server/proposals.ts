@@ -1,6 +1,7 @@
 import "server-only";
 import { AppError } from "@/lib/errors";
 import type { MarkingDto } from "@/lib/markings/schema";
+import type { ProposalWithCurrent } from "@/lib/sharing/dto";
 import { getProposalById, type ProposalDto } from "@/db/proposals";
 
 export async function loadProposal(partId: string, proposalId: string): Promise<ProposalDto> {
@@ -13,8 +14,7 @@ export async function loadProposal(partId: string, proposalId: string): Promise<
  * A proposal beside the note's current marking. An open proposal whose base version no longer
  * matches is reported stale at once, before anyone tries to accept it.
  */
-export function proposalView(p: ProposalDto, current: MarkingDto | null) {
+export function proposalView(p: ProposalDto, current: MarkingDto | null): ProposalWithCurrent {
   const outdated = p.status === "open" && (current?.version ?? null) !== p.baseVersion;
   return { ...p, current, stale: p.status === "stale" || outdated };
 }
-export type ProposalView = ReturnType<typeof proposalView>;

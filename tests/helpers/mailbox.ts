@@ -1,13 +1,7 @@
 import { APP_URL } from "./env";
+import type { CaughtMessage } from "@/lib/mail/caught-message";
 
-export interface MailSummary {
-  id: string;
-  to: string[];
-  subject: string;
-  text: string;
-  links: string[];
-  date: string;
-}
+export type MailSummary = CaughtMessage;
 
 /** Polls the app's GET /api/dev/mail for the newest message to `to` matching `subject`. */
 export async function waitForMail(to: string, subject: RegExp, timeoutMs = 10_000): Promise<MailSummary> {

@@ -1,15 +1,9 @@
 import { createHash } from "node:crypto";
 import { MAIL_API_URL } from "./env";
 import type { Client } from "./parts";
+import type { CaughtMessage } from "@/lib/mail/caught-message";
 
-export interface CaughtMail {
-  id: string;
-  to: string[];
-  subject: string;
-  text: string;
-  links: string[];
-  date: string;
-}
+export type CaughtMail = CaughtMessage;
 
 /** Every message the local mailbox holds for this address, newest first. */
 export async function mailTo(address: string): Promise<CaughtMail[]> {

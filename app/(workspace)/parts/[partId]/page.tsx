@@ -1,10 +1,7 @@
 import type { Metadata } from "next";
-import { notFound, redirect } from "next/navigation";
 import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query";
-import { getCurrentUser } from "@/lib/auth/session";
-import { AppError } from "@/lib/errors";
 import { selectPartsXml } from "@/lib/musicxml";
-import { loadPart, partDto } from "@/lib/server/parts";
+import { loadPartForPage, partDto, partTitleForViewer } from "@/lib/server/parts";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import { decisionKeys, markingKeys, partKeys } from "@/components/score/api/keys";
@@ -14,24 +11,12 @@ export const dynamic = "force-dynamic";
 
 export async function generateMetadata({ params }: { params: Promise<{ partId: string }> }): Promise<Metadata> {
   const { partId } = await params;
-  const user = await getCurrentUser();
-  if (!user || !/^[0-9a-f-]{36}$/i.test(partId)) return { title: "Workspace" };
-  const access = await loadPart(user, partId, "part:view").catch(() => null);
-  return { title: access?.part.title ?? "Workspace" };
+  return { title: (await partTitleForViewer(partId)) ?? "Workspace" };
 }
 
 export default async function PartWorkspacePage({ params }: { params: Promise<{ partId: string }> }) {
   const { partId } = await params;
-  const user = await getCurrentUser();
-  if (!user) redirect(`/sign-in?callbackUrl=/parts/${encodeURIComponent(partId)}`);
-  if (!/^[0-9a-f-]{36}$/i.test(partId)) notFound();
-  let access;
-  try {
-    access = await loadPart(user, partId, "part:view");
-  } catch (err) {
-    if (err instanceof AppError && (err.status === 404 || err.status === 403)) notFound();
-    throw err;
-  }
+  const { user, access } = await loadPartForPage({ partId, action: "part:view", path: `/parts/${partId}` });
   // The text to engrave and the markings travel with the page, so engraving starts without a
   // round trip; the analysis (as large as the text) follows through its own request while the
   // engraver works. The client keeps all of it fresh through the same query keys.

@@ -1,11 +1,8 @@
 import type { Metadata } from "next";
-import { notFound, redirect } from "next/navigation";
 import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query";
-import { getCurrentUser } from "@/lib/auth/session";
-import { AppError } from "@/lib/errors";
 import { noteLabel } from "@/lib/markings/note-labels";
 import { beatsOfDuration } from "@/lib/practice/hold-ladder";
-import { chosenPartAnalysis, loadPart } from "@/lib/server/parts";
+import { chosenPartAnalysis, loadPartForPage } from "@/lib/server/parts";
 import { canWritePractice } from "@/lib/server/practice";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listPracticeEntriesByPartId, listTakesByPartId } from "@/db/practice";
@@ -20,16 +17,7 @@ const ASSUMED_TEMPO = 72;
 
 export default async function PracticePage({ params }: { params: Promise<{ partId: string }> }) {
   const { partId } = await params;
-  const user = await getCurrentUser();
-  if (!user) redirect(`/sign-in?callbackUrl=/parts/${encodeURIComponent(partId)}/practice`);
-  if (!/^[0-9a-f-]{36}$/i.test(partId)) notFound();
-  let access;
-  try {
-    access = await loadPart(user, partId, "practice:view");
-  } catch (err) {
-    if (err instanceof AppError && (err.status === 404 || err.status === 403)) notFound();
-    throw err;
-  }
+  const { user, access } = await loadPartForPage({ partId, action: "practice:view", path: `/parts/${partId}/practice` });
   const { part } = access;
   const [analysis, markings, log, takes] = await Promise.all([
     chosenPartAnalysis(part),

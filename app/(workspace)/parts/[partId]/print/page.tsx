@@ -1,29 +1,23 @@
 import type { Metadata } from "next";
-import { notFound, redirect } from "next/navigation";
-import { getCurrentUser } from "@/lib/auth/session";
-import { AppError } from "@/lib/errors";
 import { toState } from "@/lib/markings/changes";
 import { resolutionsOf } from "@/lib/markings/durations";
 import { pendingSuggestions } from "@/lib/markings/suggestions";
 import { selectPartsXml } from "@/lib/musicxml";
-import { chosenPartAnalysis, loadPart } from "@/lib/server/parts";
+import { chosenPartAnalysis, loadPartForPage, partTitleForViewer } from "@/lib/server/parts";
 import { parseStandCopyOptions } from "@/lib/stand-copy/options";
 import { listMarkingsByPartId } from "@/db/markings";
-import { listCommentsForPrint } from "@/db/stand-copy";
+import { listCommentsByPartId } from "@/db/comments";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import { getUserById } from "@/db/users";
 import { StandCopy } from "@/components/stand-copy/stand-copy";
 
 export const dynamic = "force-dynamic";
 
-const UUID = /^[0-9a-f-]{36}$/i;
 
 export async function generateMetadata({ params }: { params: Promise<{ partId: string }> }): Promise<Metadata> {
   const { partId } = await params;
-  const user = await getCurrentUser();
-  if (!user || !UUID.test(partId)) return { title: "Stand copy" };
-  const access = await loadPart(user, partId, "part:view").catch(() => null);
-  return { title: access ? `${access.part.title} — stand copy` : "Stand copy" };
+  const title = await partTitleForViewer(partId);
+  return { title: title ? `${title} — stand copy` : "Stand copy" };
 }
 
 /** The stand copy: the engraved part with its markings, legend and table, ready to print. */
@@ -35,16 +29,7 @@ export default async function StandCopyPage({
   searchParams: Promise<Record<string, string | string[] | undefined>>;
 }) {
   const { partId } = await params;
-  const user = await getCurrentUser();
-  if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(`/parts/${partId}/print`)}`);
-  if (!UUID.test(partId)) notFound();
-  let access;
-  try {
-    access = await loadPart(user, partId, "part:view");
-  } catch (err) {
-    if (err instanceof AppError && (err.status === 404 || err.status === 403)) notFound();
-    throw err;
-  }
+  const { access } = await loadPartForPage({ partId, action: "part:view", path: `/parts/${partId}/print` });
   const { part } = access;
   const options = parseStandCopyOptions(await searchParams);
   const [markings, analysis, decisions, owner, comments] = await Promise.all([
@@ -52,7 +37,7 @@ export default async function StandCopyPage({
     chosenPartAnalysis(part),
     options.suggestions ? listDecisionsByPartId({ partId }) : Promise.resolve([]),
     getUserById({ userId: part.ownerId }),
-    options.comments ? listCommentsForPrint({ partId }) : Promise.resolve(null),
+    options.comments ? listCommentsByPartId({ partId }) : Promise.resolve(null),
   ]);
   const suggestions = options.suggestions ? pendingSuggestions(analysis.suggestions, decisions, toState(markings)) : [];
   const resolutions = resolutionsOf(analysis.suggestions);
