@@ -282,6 +282,7 @@ async function testMode() {
   if (wants("typecheck")) results.push(checkSuite("typecheck", process.execPath, [bin("typescript/bin/tsc"), "--noEmit", "-p", "tsconfig.json"], env));
   if (wants("lint")) results.push(checkSuite("lint", process.execPath, [bin("eslint/bin/eslint.js"), ".", "--max-warnings=0"], env));
   if (wants("unit")) results.push(vitestSuite("unit", env, vitestArgs));
+  if (wants("components")) results.push(vitestSuite("components", env, vitestArgs));
   if (wants("integration") || wants("e2e")) {
     buildIfStale(env);
     await startApp(env);
