@@ -5,7 +5,7 @@ import {
 
 export const userRole = pgEnum("user_role", ["player", "teacher", "admin"]);
 export const userStatus = pgEnum("user_status", ["active", "disabled"]);
-export const tokenPurpose = pgEnum("token_purpose", ["verify_email", "reset_password", "studio_invite"]);
+export const tokenPurpose = pgEnum("token_purpose", ["verify_email", "reset_password", "studio_invite", "sign_in_link"]);
 
 export const users = pgTable(
   "users",

@@ -5,7 +5,7 @@ import { parts } from "./parts";
 
 export const sharePermission = pgEnum("share_permission", ["comment", "propose"]);
 /** `stale`: the marking changed after the proposal was made, so it was not applied. */
-export const proposalStatus = pgEnum("proposal_status", ["open", "accepted", "declined", "stale"]);
+export const proposalStatus = pgEnum("proposal_status", ["open", "accepted", "declined", "stale", "withdrawn"]);
 
 export const shares = pgTable(
   "shares",
