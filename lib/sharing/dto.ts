@@ -47,7 +47,7 @@ export interface ThreadMarker extends ThreadSummary {
   openProposals: number;
 }
 
-export type ProposalStatus = "open" | "accepted" | "declined" | "stale";
+export type ProposalStatus = "open" | "accepted" | "declined" | "stale" | "withdrawn";
 
 export interface ProposalDto {
   id: string;
