@@ -32,7 +32,7 @@ const FIELDS: { key: keyof MarkingValues; label: string; show: (v: MarkingValues
   { key: "comment", label: "Marking note", show: (v) => v.comment || "—" },
 ];
 
-const STATUS_LABEL = { open: "Open", accepted: "Accepted", declined: "Declined", stale: "Out of date" } as const;
+const STATUS_LABEL = { open: "Open", accepted: "Accepted", declined: "Declined", stale: "Out of date", withdrawn: "Withdrawn" } as const;
 
 /** The current marking and a proposal side by side; the owner accepts or declines with a reply. */
 export function ProposalCard({ partId, proposal, isOwner, label }: { partId: string; proposal: ProposalItem; isOwner: boolean; label: string }) {
