@@ -1,15 +1,23 @@
-import { and, eq, gt, isNull } from "drizzle-orm";
+import { and, eq, gt, isNull, sql } from "drizzle-orm";
 import { hashToken, newToken, TOKEN_TTL_MS } from "@/lib/auth/tokens";
 import { db } from "./client";
 import { authTokens } from "./schema";
 
-type Purpose = "verify_email" | "reset_password";
+type Purpose = "verify_email" | "reset_password" | "sign_in_link";
 
-/** Stores the hash of a fresh token and returns the token itself, for the link only. */
-export async function issueToken({ purpose, userId, email }: { purpose: Purpose; userId: string; email: string }): Promise<string> {
+/**
+ * Stores the hash of a fresh token and returns the token itself, for the link only. `data` keeps
+ * what the link needs besides proof of the mailbox (a sign-in link's destination).
+ */
+export async function issueToken({ purpose, userId, email, data }: {
+  purpose: Purpose;
+  userId: string;
+  email: string;
+  data?: Record<string, string>;
+}): Promise<string> {
   const { token, hash } = newToken();
   await db().insert(authTokens).values({
-    purpose, userId, email, tokenHash: hash, expiresAt: new Date(Date.now() + TOKEN_TTL_MS[purpose]),
+    purpose, userId, email, data: data ?? null, tokenHash: hash, expiresAt: new Date(Date.now() + TOKEN_TTL_MS[purpose]),
   });
   return token;
 }
@@ -39,4 +47,26 @@ export async function peekToken({ purpose, token }: { purpose: Purpose; token: s
   if (row.usedAt) return { state: "used" as const, row };
   if (row.expiresAt <= new Date()) return { state: "expired" as const, row };
   return { state: "valid" as const, row };
+}
+
+/**
+ * Uses a sign-in link and returns it with the account it signs in, in one statement: the token
+ * is marked used only while the account is active and still has the address the link went to,
+ * so a refused sign-in (disabled account) leaves the link as it was, and two clicks racing each
+ * other cannot both sign in.
+ */
+export async function consumeSignInLink({ token }: { token: string }) {
+  const [row] = await db()
+    .update(authTokens)
+    .set({ usedAt: new Date() })
+    .where(and(
+      eq(authTokens.tokenHash, hashToken(token)),
+      eq(authTokens.purpose, "sign_in_link"),
+      isNull(authTokens.usedAt),
+      gt(authTokens.expiresAt, new Date()),
+      // Written out with the table name: inside the subquery a bare "email" would mean u.email.
+      sql`exists (select 1 from users u where u.id = auth_tokens.user_id and u.status = 'active' and lower(u.email) = lower(auth_tokens.email))`,
+    ))
+    .returning();
+  return row ?? null;
 }

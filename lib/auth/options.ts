@@ -6,6 +6,7 @@ import { config, isProduction } from "@/lib/config";
 import { clientAddress } from "@/lib/http/client-address";
 import { verifyPassword } from "./password";
 import { pruneAttempts, recordAttempt, signInChecks } from "./rate-limit";
+import { linkUseChecks, signInWithLink } from "./sign-in-link";
 
 /** The one message for an unknown account, a wrong password and a disabled account alike. */
 export const SIGN_IN_FAILED = "E-mail or password is wrong.";
@@ -54,6 +55,19 @@ export function authOptions(): NextAuthOptions {
           if (Math.random() < 0.01) void pruneAttempts().catch(() => undefined);
           if (!ok) return null;
           return { id: user.id, email: user.email, name: user.name, epoch: user.sessionEpoch };
+        },
+      }),
+      // The e-mailed sign-in link: the link page posts its token here (never a GET, so a mail
+      // scanner fetching the link cannot use it). The session is the same JWT as a password's.
+      CredentialsProvider({
+        id: "sign-in-link",
+        name: "E-mailed sign-in link",
+        credentials: { token: { label: "Token", type: "text" } },
+        async authorize(credentials, req) {
+          const address = clientAddress((req?.headers ?? {}) as Record<string, string>);
+          const user = await signInWithLink({ token: String(credentials?.token ?? "") });
+          await recordAttempt(linkUseChecks(address), !!user);
+          return user;
         },
       }),
     ],

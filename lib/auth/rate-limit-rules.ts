@@ -17,6 +17,8 @@ export const LIMITS = {
   signInAddress: { prefix: "signin:address", max: 20, windowMs: 15 * MIN, counts: "failures" },
   resetAccount: { prefix: "reset:account", max: 3, windowMs: 15 * MIN, counts: "all" },
   resetAddress: { prefix: "reset:address", max: 10, windowMs: 15 * MIN, counts: "all" },
+  signInLinkAccount: { prefix: "link:account", max: 5, windowMs: 15 * MIN, counts: "all" },
+  signInLinkAddress: { prefix: "link:address", max: 10, windowMs: 15 * MIN, counts: "all" },
 } satisfies Record<string, LimitRule>;
 
 export const limitKey = (rule: LimitRule, subject: string) => `${rule.prefix}:${subject.trim().toLowerCase()}`;

@@ -5,6 +5,8 @@ export const TOKEN_TTL_MS = {
   verify_email: 48 * 3600_000,
   reset_password: 3600_000,
   studio_invite: 14 * 24 * 3600_000,
+  // Short: the link signs in without a password, so a copy left in a mailbox soon stops working.
+  sign_in_link: 15 * 60_000,
 } as const;
 
 /** A random 32-byte token for a link, and the SHA-256 hash that is the only thing stored. */

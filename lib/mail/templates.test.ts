@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { appLink, studioInviteMail, verifyEmailMail } from "./templates";
+import { TOKEN_TTL_MS } from "@/lib/auth/tokens";
+import { appLink, signInLinkMail, studioInviteMail, verifyEmailMail } from "./templates";
 
 describe("mail templates", () => {
   it("builds links from APP_URL with the token encoded", () => {
@@ -14,5 +15,14 @@ describe("mail templates", () => {
     expect(mail.html).toContain("&lt;b&gt;Teo&lt;/b&gt;");
     expect(mail.html).not.toContain("<b>Teo</b>");
     expect(verifyEmailMail({ name: "Ines", url }).text).toMatch(/48 hours/);
+  });
+
+  it("says how long a sign-in link works and that it works once", () => {
+    const url = "http://app.test/sign-in/link?token=abc";
+    const mail = signInLinkMail({ name: "Ines", url });
+    expect(mail.text).toContain(url);
+    // The mail must state the lifetime the token really has.
+    expect(mail.text).toContain(`once and for ${TOKEN_TTL_MS.sign_in_link / 60_000} minutes`);
+    expect(mail.html).toContain(`href="${url}"`);
   });
 });

@@ -46,6 +46,19 @@ export function resetPasswordMail({ name, url }: { name: string; url: string }):
   });
 }
 
+export function signInLinkMail({ name, url }: { name: string; url: string }): MailContent {
+  return compose({
+    subject: "Your Ondula sign-in link",
+    greeting: `Hello ${name},`,
+    lines: [
+      "Someone asked for a link to sign in to your Ondula account without a password. The link works once and for 15 minutes.",
+      "Opening it shows a button; you are signed in only when you press it.",
+    ],
+    action: { label: "Sign in to Ondula", url },
+    after: "If it was not you, ignore this message: nobody can sign in without the link, and it expires on its own.",
+  });
+}
+
 export function studioInviteMail({ teacherName, studioName, url }: { teacherName: string; studioName: string; url: string }): MailContent {
   return compose({
     subject: `${teacherName} invites you to their Ondula studio`,

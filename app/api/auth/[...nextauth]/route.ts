@@ -1,6 +1,7 @@
 import NextAuth from "next-auth";
 import { authOptions } from "@/lib/auth/options";
 import { checkLimits, rateLimitError, signInChecks } from "@/lib/auth/rate-limit";
+import { linkUseChecks } from "@/lib/auth/sign-in-link";
 import { clientAddress } from "@/lib/http/client-address";
 
 type Context = { params: Promise<{ nextauth: string[] }> };
@@ -21,6 +22,11 @@ export async function POST(request: Request, context: Context) {
   if (nextauth?.[0] === "callback" && nextauth[1] === "credentials") {
     const email = await readEmail(request.clone());
     const limited = await checkLimits(signInChecks(email, clientAddress(request.headers)), "sign-in attempts");
+    if (limited) return rateLimitError(limited).toResponse();
+  }
+  if (nextauth?.[0] === "callback" && nextauth[1] === "sign-in-link") {
+    // Links are unguessable; the per-address limit still stops a client trying tokens in bulk.
+    const limited = await checkLimits(linkUseChecks(clientAddress(request.headers)), "sign-in attempts");
     if (limited) return rateLimitError(limited).toResponse();
   }
   return NextAuth(authOptions())(request, context);
