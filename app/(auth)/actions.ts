@@ -1,10 +1,12 @@
 "use server";
 
+import { after } from "next/server";
 import { z } from "zod";
 import {
   requestPasswordReset, resetPassword, sendVerification, signUp, verifyEmail,
 } from "@/lib/accounts/registration";
 import { newPasswordSchema } from "@/lib/auth/password-rules";
+import { admitSignInLinkRequest, sendSignInLink, SIGN_IN_LINK_SENT } from "@/lib/auth/sign-in-link";
 import { AppError } from "@/lib/errors";
 import { defineAction } from "@/lib/http/action";
 import { clientAddress } from "@/lib/http/client-address";
@@ -72,5 +74,24 @@ export const resetPasswordAction = defineAction({
   run: async ({ input }) => {
     await resetPassword({ token: input.token, password: input.password });
     return { redirectTo: "/sign-in?reset=1" };
+  },
+});
+
+export const requestSignInLinkAction = defineAction({
+  name: "requestSignInLink",
+  auth: "optional",
+  keep: ["email"],
+  schema: z.object({ email, callbackUrl: z.string().max(2000).optional() }),
+  run: async ({ input, headers }) => {
+    await admitSignInLinkRequest({ email: input.email, address: clientAddress(headers) });
+    const callbackUrl = safeCallbackPath(input.callbackUrl, "");
+    // Looking the account up and mailing happen after the answer, so the answer takes as long
+    // whether or not the address has an account (no enumeration by timing either).
+    after(() =>
+      sendSignInLink({ email: input.email, callbackUrl }).catch((error) => {
+        console.error("sign-in link not sent", error);
+      }),
+    );
+    return { message: SIGN_IN_LINK_SENT };
   },
 });
