@@ -80,6 +80,25 @@ export async function attemptSignIn(email: string, password: string, opts: { add
   return { client, response, body };
 }
 
+/**
+ * Uses an e-mailed sign-in link the way the link page's button does: GET /api/auth/csrf, then
+ * POST /api/auth/callback/sign-in-link with the token.
+ */
+export async function attemptLinkSignIn(
+  token: string,
+  opts: { address?: string; callbackUrl?: string; client?: ApiClient } = {},
+): Promise<SignInAttempt> {
+  const client = opts.client ?? new ApiClient("link", { "x-forwarded-for": opts.address ?? uniqueAddress() });
+  const csrf = (await (await client.fetch("/api/auth/csrf")).json()) as { csrfToken: string };
+  const response = await client.fetch("/api/auth/callback/sign-in-link", {
+    method: "POST",
+    headers: { "content-type": "application/x-www-form-urlencoded" },
+    body: new URLSearchParams({ token, csrfToken: csrf.csrfToken, callbackUrl: opts.callbackUrl ?? "/parts", json: "true" }),
+  });
+  const body = (await response.json().catch(() => ({}))) as SignInAttempt["body"];
+  return { client, response, body };
+}
+
 /** Signs in and returns a client holding the session cookie; throws when sign-in fails. */
 export async function signIn(email: string, password: string, opts: { address?: string } = {}): Promise<ApiClient> {
   const { client, response, body } = await attemptSignIn(email, password, opts);

@@ -38,6 +38,25 @@ export const accessModule: AccessModule = {
       },
       expect: statuses(200),
     },
+    {
+      method: "POST",
+      route: "/api/auth/[...nextauth]",
+      label: "sign in with an e-mailed link",
+      request: async (_ctx, _persona, client) => {
+        const probe = await createUser();
+        const token = await issueToken({ purpose: "sign_in_link", userId: probe.id, email: probe.email });
+        const { csrfToken } = (await (await client.fetch("/api/auth/csrf")).json()) as { csrfToken: string };
+        return {
+          path: "/api/auth/callback/sign-in-link",
+          init: {
+            method: "POST",
+            headers: { "content-type": "application/x-www-form-urlencoded", "x-forwarded-for": uniqueAddress() },
+            body: new URLSearchParams({ token, csrfToken, json: "true" }),
+          },
+        };
+      },
+      expect: statuses(200),
+    },
     { method: "GET", route: "/api/dev/mail", request: () => ({ path: "/api/dev/mail?to=nobody%40test.ondula.test" }), expect: statuses(200) },
     { method: "GET", route: "/api/health", request: () => ({ path: "/api/health" }), expect: statuses(200) },
     { method: "GET", route: "/api/me", request: () => ({ path: "/api/me" }), expect: signedIn },
@@ -73,6 +92,13 @@ export const accessModule: AccessModule = {
     {
       action: `${AUTH}#forgotPasswordAction`,
       fields: () => ({ email: uniqueEmail("forgot") }),
+      headers: { "x-forwarded-for": uniqueAddress() },
+      expect: statuses(200),
+    },
+    {
+      action: `${AUTH}#requestSignInLinkAction`,
+      label: "the persona's own address (anonymous: an unknown one); the same answer for all",
+      fields: (ctx, persona) => ({ email: emailOf(ctx, persona) }),
       headers: { "x-forwarded-for": uniqueAddress() },
       expect: statuses(200),
     },
