@@ -85,7 +85,7 @@ export type SignInLinkState =
   | { state: "invalid" };
 
 /** Where a link sign-in lands: the destination asked for when the link was requested, or the home of the role. */
-export function linkDestination(data: unknown, role: Role): string {
+function linkDestination(data: unknown, role: Role): string {
   const asked = (data as { callbackUrl?: unknown } | null)?.callbackUrl;
   return safeCallbackPath(asked, role === "admin" ? "/admin/users" : "/parts");
 }

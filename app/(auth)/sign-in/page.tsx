@@ -34,7 +34,7 @@ export default async function SignInPage({ searchParams }: { searchParams: Searc
       {sp.changed ? <Notice>Your password is changed and every session has ended. Sign in again.</Notice> : null}
       {sp.error ? <Notice tone="error">E-mail or password is wrong.</Notice> : null}
       {byLink ? (
-        <Panel title="E-mail me a sign-in link" id="sign-in-link-heading">
+        <Panel title="Sign in without your password" id="sign-in-link-heading">
           <p className="mb-4 text-graphite">
             Type the address of your account: we send it a link that signs you in without your password. The link works
             once and for 15 minutes.
@@ -48,13 +48,13 @@ export default async function SignInPage({ searchParams }: { searchParams: Searc
           <SignInForm callbackUrl={callbackUrl || "/sign-in"} defaultEmail={email} />
         </Panel>
       )}
+      <p className="flex flex-wrap items-center gap-3">
+        <span className="text-graphite">{byLink ? "Know your password?" : "No password at hand?"}</span>
+        <Link href={switchHref} className="rounded-card border border-ink/30 bg-paper-card px-4 py-2 font-semibold hover:bg-paper-deep">
+          {byLink ? "Sign in with your password" : "E-mail me a sign-in link"}
+        </Link>
+      </p>
       <p className="text-graphite">
-        {byLink ? (
-          <Link href={switchHref} className={linkClass}>Sign in with your password instead</Link>
-        ) : (
-          <Link href={switchHref} className={linkClass}>E-mail me a sign-in link</Link>
-        )}
-        {" · "}
         <Link href="/forgot-password" className={linkClass}>Forgot your password?</Link>
         {" · "}
         <Link href={`/sign-up${callbackUrl ? `?callbackUrl=${encodeURIComponent(callbackUrl)}` : ""}`} className={linkClass}>Create an account</Link>
