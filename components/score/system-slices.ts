@@ -16,6 +16,8 @@ export interface SliceBand {
 interface Extent {
   top: number;
   bottom: number;
+  /** The system the element belongs to, when it says so (our glyphs carry `data-system`). */
+  system?: number;
 }
 
 /** Elements drawn as one piece: never split between slices, only cloned into each they touch. */
@@ -27,7 +29,10 @@ function rectIn(el: Element, origin: DOMRect): Extent | null {
   return { top: r.top - origin.top, bottom: r.bottom - origin.top };
 }
 
-function nearestSystem(systems: readonly SystemBox[], e: Extent): number {
+type Staff = Pick<SystemBox, "staffTop" | "staffBottom">;
+
+function nearestSystem(systems: readonly Staff[], e: Extent): number {
+  if (e.system !== undefined && e.system >= 0 && e.system < systems.length) return e.system;
   const centre = (e.top + e.bottom) / 2;
   let best = 0;
   let distance = Infinity;
@@ -45,7 +50,7 @@ function nearestSystem(systems: readonly SystemBox[], e: Extent): number {
  * Bands that hold each system whole: from the highest to the lowest thing drawn for it (notes,
  * slurs, our glyphs), plus `pad`, never overlapping the next system's band.
  */
-export function systemBands(systems: readonly SystemBox[], extents: readonly Extent[], pad: number, height: number): SliceBand[] {
+export function systemBands(systems: readonly Staff[], extents: readonly Extent[], pad: number, height: number): SliceBand[] {
   const reach = systems.map((s) => ({ top: s.staffTop, bottom: s.staffBottom }));
   for (const e of extents) {
     const r = reach[nearestSystem(systems, e)];
@@ -65,7 +70,7 @@ export function systemBands(systems: readonly SystemBox[], extents: readonly Ext
 }
 
 /** Top-level drawing elements (descending into groups that span several systems). */
-function leaves(root: Element, origin: DOMRect, systems: readonly SystemBox[]): { el: Element; extent: Extent | null }[] {
+function leaves(root: Element, origin: DOMRect, systems: readonly Staff[]): { el: Element; extent: Extent | null }[] {
   const out: { el: Element; extent: Extent | null }[] = [];
   const walk = (parent: Element) => {
     for (const el of Array.from(parent.children)) {
@@ -76,6 +81,11 @@ function leaves(root: Element, origin: DOMRect, systems: readonly SystemBox[]): 
       }
       const extent = rectIn(el, origin);
       if (!extent) continue;
+      const tagged = el.getAttribute("data-system");
+      if (tagged !== null && /^\d+$/.test(tagged)) {
+        out.push({ el, extent: { ...extent, system: Number(tagged) } });
+        continue;
+      }
       const spansSeveral = systems.filter((s, i) => {
         const next = systems[i + 1];
         return extent.top < (next ? next.staffTop : Infinity) && extent.bottom > s.staffTop;
@@ -148,7 +158,8 @@ export function buildSystemSlices(src: SliceSource): SVGSVGElement[] {
     clipped.setAttribute("clip-path", `url(#${clipId})`);
     const music = document.createElementNS(SVG_NS, "g");
     music.setAttribute("transform", `translate(${offsetX} ${offsetY}) scale(${scale})`);
-    const touches = (e: Extent | null) => e === null || (e.top < band.bottom && e.bottom > band.top);
+    // An element that names its system goes into that slice only; others into every slice they reach.
+    const touches = (e: Extent | null) => e === null || (e.system !== undefined ? e.system === i : e.top < band.bottom && e.bottom > band.top);
     for (const { el, extent } of engraved) if (touches(extent)) music.appendChild(el.cloneNode(true));
     clipped.appendChild(music);
     const marks = document.createElementNS(SVG_NS, "g");
