@@ -64,7 +64,7 @@ export function Legend({ className = "" }: { className?: string }) {
               </li>
             ))}
             <li className="flex items-center gap-3">
-              <span className="w-[60px] shrink-0 text-center text-xs text-graphite">solid · dashed</span>
+              <span className="w-[60px] shrink-0 text-center text-xs text-graphite" data-legend-icon-text>solid · dashed</span>
               <span className="text-sm">Solid: your marking. Hollow and dashed: a suggestion not yet decided.</span>
             </li>
             <li className="flex items-center gap-3 break-inside-avoid">
@@ -74,7 +74,7 @@ export function Legend({ className = "" }: { className?: string }) {
               <span className="text-sm">Arc: from a tension tone to its resolution</span>
             </li>
             <li className="flex items-center gap-3 break-inside-avoid">
-              <svg width="60" height="16" viewBox="0 0 60 16" aria-hidden="true" className="shrink-0">
+              <svg width="60" height="16" viewBox="0 0 60 16" aria-hidden="true" className="shrink-0" data-legend-icon>
                 <path d={marker.path} fill="white" stroke={INK} strokeWidth={0.9} />
                 <text x={marker.textX} y={marker.textY} fontSize={GLYPH_TEXT_PX} textAnchor="middle">2</text>
               </svg>
