@@ -259,3 +259,161 @@ describe("the stand copy on paper", () => {
     });
   }
 });
+
+/** A grayscale page from pdftoppm (poppler-utils) as PGM: width, height and one byte per pixel. */
+function pgmPage(pdf: string, pageNo: number, dpi: number, stem: string) {
+  execFileSync("pdftoppm", ["-gray", "-r", String(dpi), "-f", String(pageNo), "-l", String(pageNo), "-singlefile", pdf, stem]);
+  const bytes = fs.readFileSync(`${stem}.pgm`);
+  const header = /^P5\s+(\d+)\s+(\d+)\s+255\s/.exec(bytes.subarray(0, 64).toString("latin1"))!;
+  const width = Number(header[1]);
+  const pixels = bytes.subarray(header[0].length);
+  /** Dark pixels (below mid-grey) inside a box given in points. */
+  return (box: { x1: number; y1: number; x2: number; y2: number }) => {
+    const k = dpi / 72;
+    let dark = 0;
+    for (let y = Math.floor(box.y1 * k); y < Math.ceil(box.y2 * k); y++)
+      for (let x = Math.floor(box.x1 * k); x < Math.ceil(box.x2 * k); x++) if (pixels[y * width + x] < 128) dark++;
+    return dark;
+  };
+}
+
+describe("the stand copy across a page break", () => {
+  let context: BrowserContext;
+  let page: Page;
+  let partId: string;
+
+  beforeAll(async () => {
+    context = await launchContext({ width: 1280, height: 900 });
+    page = await context.newPage();
+    const user = await createUser({ role: "player" });
+    await signInThroughForm(page, user.email, user.password, "/parts");
+    // A part long enough for two pages of music: the sample's sixteen bars five times over.
+    const xml = fs.readFileSync(path.resolve("samples", `${SAMPLE}.musicxml`), "utf8");
+    const first = xml.indexOf("<measure ");
+    const last = xml.lastIndexOf("</measure>") + "</measure>".length;
+    const measures = xml.slice(first, last).match(/<measure number="\d+"[\s\S]*?<\/measure>/g)!;
+    expect(measures).toHaveLength(16);
+    const body = [0, 1, 2, 3, 4].flatMap((copy) => measures.map((m, i) => m.replace(/<measure number="\d+"/, `<measure number="${copy * 16 + i + 1}"`))).join("\n    ");
+    const long = xml.slice(0, first) + body + xml.slice(last);
+    partId = (
+      await page.evaluate(async (text) => {
+        const form = new FormData();
+        form.append("file", new Blob([text]), "lantern-waltz-five-times.musicxml");
+        const res = await fetch("/api/parts", { method: "POST", body: form });
+        if (res.status !== 201) throw new Error(`upload answered ${res.status}: ${await res.text()}`);
+        return res.json();
+      }, long)
+    ).id;
+  });
+
+  afterAll(async () => {
+    await context?.close();
+  });
+
+  const downloadPdf = async (name: string) => {
+    await page.goto(`${APP_URL}/parts/${partId}/print?paper=a4&comments=0`);
+    await page.locator('[data-stand-score="ready"]').waitFor({ state: "attached", timeout: 60_000 });
+    const download = page.waitForEvent("download");
+    await page.getByRole("button", { name: "Download PDF" }).click();
+    const file = path.join(OUTPUT_DIR, name);
+    await (await download).saveAs(file);
+    return file;
+  };
+
+  /** The bar number that opens each system, and where it stands in its system (px from the left). */
+  const systemNumbers = () =>
+    page.evaluate(() =>
+      Array.from(document.querySelectorAll("svg.stand-system")).flatMap((svg) => {
+        const box = svg.getBoundingClientRect();
+        const t = Array.from(svg.querySelectorAll("text")).find((e) => /^\d+$/.test(e.textContent ?? "") && e.getBoundingClientRect().left - box.left < 80);
+        return t ? [{ bar: t.textContent!, x: t.getBoundingClientRect().left - box.left }] : [];
+      }),
+    );
+
+  /** Those bar numbers as the PDF prints them, by page, top first. */
+  const systemStarts = async (file: string) => {
+    const numbers = await systemNumbers();
+    // Every system but the first opens with its bar number.
+    expect(numbers.length).toBeGreaterThanOrEqual(6);
+    const margin = 12 * (72 / 25.4);
+    return pdfWords(file)
+      .filter((w) => numbers.some((n) => n.bar === w.text && Math.abs(w.xMin - (margin + n.x * 0.75)) < 4))
+      .sort((a, b) => a.page - b.page || a.yMin - b.yMin);
+  };
+
+  it("draws the arc's leaving piece on the page's last system and its arriving piece on the next page's first", async () => {
+    const put = (key: string, role: string, version?: number) =>
+      page.evaluate(
+        async ({ id, key, body }) => (await fetch(`/api/parts/${id}/markings/${encodeURIComponent(key)}`, { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify(body) })).status,
+        { id: partId, key, body: { depthCents: 25, speedHz: 5.5, placement: "centered", onset: "immediate", shape: "steady", comment: "", role, version } },
+      );
+    // Every bar's last note is marked a peak and its first a resolution, so every system carries
+    // glyphs of the same sizes; then the page break is found and the note before it becomes a
+    // tension tone. The two PDFs differ by the arc alone, and the break stays where it was.
+    const analysis = (await page.evaluate(async (id) => (await fetch(`/api/parts/${id}/analysis`)).json(), partId)) as { notes: AnalysisNote[] };
+    const bars = [...new Set(analysis.notes.map((n) => n.measure))];
+    const lastOf = (bar: string) => analysis.notes.filter((n) => n.measure === bar).at(-1)!;
+    const firstOf = (bar: string) => analysis.notes.find((n) => n.measure === bar)!;
+    for (const bar of bars) {
+      expect(await put(lastOf(bar).key, "peak")).toBe(201);
+      if (firstOf(bar).key !== lastOf(bar).key) expect(await put(firstOf(bar).key, "resolution")).toBe(201);
+    }
+    const before = await downloadPdf("stand-copy-page-break-without-arc.pdf");
+    const bar = (await systemStarts(before)).find((w) => w.page === 2)?.text;
+    expect(bar, "the music runs onto a second page").toBeDefined();
+    const tension = lastOf(String(Number(bar) - 1));
+    expect(await page.locator(`.stand-system [data-glyph="arc"][data-note-key="${tension.key}"]`).count()).toBe(0);
+    expect(await put(tension.key, "tension", 1)).toBe(200);
+    const after = await downloadPdf("stand-copy-page-break.pdf");
+    // The break has not moved: the same bar opens page 2.
+    expect((await systemStarts(after)).find((w) => w.page === 2)?.text).toBe(bar);
+
+    // Where the pieces are in their systems (px from the slice's top left), and where that
+    // system's bar number is, to place them on the PDF page (1 px = 0.75 pt at print size).
+    const pieces = await page.evaluate((key) => {
+      return Array.from(document.querySelectorAll(`.stand-system [data-glyph="arc"][data-note-key="${key}"]`)).map((el) => {
+        const svg = el.closest("svg.stand-system") as SVGSVGElement;
+        const box = svg.getBoundingClientRect();
+        const r = el.getBoundingClientRect();
+        const number = Array.from(svg.querySelectorAll("text")).find((t) => /^\d+$/.test(t.textContent ?? "") && t.getBoundingClientRect().left - box.left < 80);
+        const n = number?.getBoundingClientRect();
+        return {
+          kind: el.getAttribute("data-piece"),
+          left: r.left - box.left,
+          right: r.right - box.left,
+          top: r.top - box.top,
+          bottom: r.bottom - box.top,
+          numberTop: n ? n.top - box.top : null,
+          bar: number?.textContent ?? null,
+        };
+      });
+    }, tension.key);
+    expect(pieces.map((p) => p.kind)).toEqual(["leaving", "arriving"]);
+    expect(pieces[1].bar).toBe(bar);
+
+    const afterWords = await systemStarts(after);
+    const lastOnPage1 = afterWords.filter((w) => w.page === 1).at(-1)!;
+    const firstOnPage2After = afterWords.find((w) => w.page === 2)!;
+    const dpi = 150;
+    const pages = {
+      before: [pgmPage(before, 1, dpi, path.join(OUTPUT_DIR, "break-before-1")), pgmPage(before, 2, dpi, path.join(OUTPUT_DIR, "break-before-2"))],
+      after: [pgmPage(after, 1, dpi, path.join(OUTPUT_DIR, "break-after-1")), pgmPage(after, 2, dpi, path.join(OUTPUT_DIR, "break-after-2"))],
+    };
+    const PT = 0.75;
+    const margin = 12 * (72 / 25.4);
+    // Each piece's outer half (toward the margin), where nothing but the arc is drawn; placed on
+    // the page through its system's bar number (PDF and browser agree on it to a few points).
+    const region = (p: (typeof pieces)[number], number: { yMin: number }, outer: "right" | "left") => {
+      const dy = number.yMin - p.numberTop! * PT;
+      const mid = (p.left + p.right) / 2;
+      const [x1, x2] = outer === "right" ? [mid, p.right] : [p.left, mid];
+      return { x1: margin + x1 * PT - 1, x2: margin + x2 * PT + 1, y1: dy + p.top * PT - 4, y2: dy + p.bottom * PT + 4 };
+    };
+    const leaving = region(pieces[0], lastOnPage1, "right");
+    const arriving = region(pieces[1], firstOnPage2After, "left");
+    // Ink appears there only once the arc is drawn: on page 1 toward the right margin, on page 2 from the left.
+    expect(pages.after[0](leaving) - pages.before[0](leaving)).toBeGreaterThan(4);
+    expect(pages.after[1](arriving) - pages.before[1](arriving)).toBeGreaterThan(4);
+  });
+});
+
