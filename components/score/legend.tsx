@@ -1,6 +1,7 @@
 import { ROLE_INFO, ROLE_ORDER } from "@/lib/markings/roles";
 import { roleShapePath, suggestionDash, vibratoWave, commentMarker, tensionArc } from "@/lib/markings/glyph-geometry";
 import type { MarkingValues } from "@/lib/markings/schema";
+import { GLYPH_TEXT_PX } from "@/lib/stand-copy/options";
 
 const INK = "#1B1A17";
 const GRAPHITE = "#4A4740";
@@ -25,7 +26,8 @@ function Wave({ values, caption }: { values: Partial<MarkingValues>; caption: st
  * copy.
  */
 export function Legend({ className = "" }: { className?: string }) {
-  const marker = commentMarker(3, 3, 2);
+  // The count at the stand copy's glyph text size, so the legend shows it as printed.
+  const marker = commentMarker(3, 2, 2, 1, GLYPH_TEXT_PX);
   const arc = tensionArc({ x: 8, y: 16, row: 0 }, { x: 52, y: 16, row: 0 })[0];
   return (
     <section aria-labelledby="legend-title" className={`space-y-4 text-ink ${className}`} data-testid="legend">
@@ -62,7 +64,7 @@ export function Legend({ className = "" }: { className?: string }) {
               </li>
             ))}
             <li className="flex items-center gap-3">
-              <span className="w-[60px] shrink-0 text-center text-xs text-graphite">solid · dashed</span>
+              <span className="w-[60px] shrink-0 text-center text-xs text-graphite" data-legend-icon-text>solid · dashed</span>
               <span className="text-sm">Solid: your marking. Hollow and dashed: a suggestion not yet decided.</span>
             </li>
             <li className="flex items-center gap-3 break-inside-avoid">
@@ -72,9 +74,9 @@ export function Legend({ className = "" }: { className?: string }) {
               <span className="text-sm">Arc: from a tension tone to its resolution</span>
             </li>
             <li className="flex items-center gap-3 break-inside-avoid">
-              <svg width="60" height="16" viewBox="0 0 60 16" aria-hidden="true" className="shrink-0">
+              <svg width="60" height="16" viewBox="0 0 60 16" aria-hidden="true" className="shrink-0" data-legend-icon>
                 <path d={marker.path} fill="white" stroke={INK} strokeWidth={0.9} />
-                <text x={marker.textX} y={marker.textY} fontSize="7" textAnchor="middle">2</text>
+                <text x={marker.textX} y={marker.textY} fontSize={GLYPH_TEXT_PX} textAnchor="middle">2</text>
               </svg>
               <span className="text-sm">Comment tab with the number of comments</span>
             </li>

@@ -4,9 +4,11 @@ import { memo, useMemo } from "react";
 import type { Role } from "@/lib/analysis/types";
 import type { MarkingState } from "@/lib/markings/changes";
 import {
-  GLYPH, commentMarker, glyphSlots, roleShapePath, suggestionDash, tensionArc, vibratoWave, waveWidth,
+  GLYPH, commentMarker, glyphSlots, glyphText, roleShapePath, suggestionDash, vibratoWave, waveWidth,
   type NoteBox,
 } from "@/lib/markings/glyph-geometry";
+import { fitLabels } from "@/lib/markings/glyph-labels";
+import { tensionArcPieces, type ArcRow } from "@/lib/markings/tension-arc";
 import { ROLE_INFO } from "@/lib/markings/roles";
 import type { Selection } from "@/lib/markings/selection";
 import { formatNumber } from "@/lib/markings/pulses";
@@ -30,6 +32,16 @@ export interface MarkingOverlayProps {
   /** Each note's sounding duration in seconds at the part's tempo. */
   durations?: Readonly<Record<string, number>>;
   commentCounts?: Readonly<Record<string, number>>;
+  /**
+   * The systems, top to bottom, with their margins: an arc crossing a line break is cut at them.
+   * Without them, notes are grouped into systems by their staff and arcs end in short stubs.
+   */
+  systems?: readonly OverlaySystem[];
+  /**
+   * Paper mode: glyph text at least this many px (the stand copy asks for 7 pt), and the numbers
+   * under the waves kept apart from each other instead of fitted to their waves.
+   */
+  minTextPx?: number;
   selection: Selection;
   onNoteClick?: (key: string, mode: "only" | "toggle" | "extend") => void;
 }
@@ -38,6 +50,17 @@ const INK = "#1B1A17";
 const GRAPHITE = "#4A4740";
 const PAPER = "#FBF8F1";
 
+export interface OverlaySystem {
+  staffTop: number;
+  left: number;
+  right: number;
+  /**
+   * What the engraving draws above this system's staff (slurs, words, tempo, numbers), as boxes:
+   * the glyphs of a note rise above whatever lies under them.
+   */
+  sky?: readonly { left: number; right: number; top: number }[];
+}
+
 interface Placed {
   box: NoteBox;
   next: NoteBox | undefined;
@@ -45,9 +68,18 @@ interface Placed {
   row: number;
 }
 
-/** Groups notes by system (same staff top) and finds each system's highest point. */
-function place(boxes: NoteBox[]): Map<string, Placed> {
-  const rows: { staffTop: number; top: number }[] = [];
+interface Rows {
+  placed: Map<string, Placed>;
+  /** Each system's highest note top (its staff top when it has no note), by row. */
+  tops: number[];
+}
+
+/**
+ * Groups notes by system (same staff top) and finds each system's highest point: its notes, and
+ * the engraving's sky over the notes that carry glyphs (`glyphed`).
+ */
+function place(boxes: NoteBox[], systems: readonly OverlaySystem[] | undefined, glyphed: ReadonlySet<string>, scale: number): Rows {
+  const rows: { staffTop: number; top: number }[] = (systems ?? []).map((s) => ({ staffTop: s.staffTop, top: s.staffTop }));
   const rowOf = (b: NoteBox) => {
     let i = rows.findIndex((r) => Math.abs(r.staffTop - b.staffTop) <= 1);
     if (i < 0) i = rows.push({ staffTop: b.staffTop, top: b.staffTop }) - 1;
@@ -55,16 +87,28 @@ function place(boxes: NoteBox[]): Map<string, Placed> {
     return i;
   };
   const rowIndex = boxes.map(rowOf);
+  boxes.forEach((box, i) => {
+    const sky = systems?.[rowIndex[i]]?.sky;
+    if (!sky || !glyphed.has(box.key)) return;
+    // The glyph stack's reach: the wave (up to the next note) and the numbers under it.
+    const left = box.x - 4 * scale;
+    const right = box.x + waveWidth(box, boxes[i + 1], scale) + 4 * scale;
+    for (const b of sky) if (b.right > left && b.left < right) rows[rowIndex[i]].top = Math.min(rows[rowIndex[i]].top, b.top);
+  });
   const placed = new Map<string, Placed>();
   boxes.forEach((box, i) => {
     placed.set(box.key, { box, next: boxes[i + 1], rowTop: rows[rowIndex[i]].top, row: rowIndex[i] });
   });
-  return placed;
+  return { placed, tops: rows.map((r) => r.top) };
 }
 
 /** Our SVG layer over the engraving: marking glyphs, suggestion outlines, selection and hit areas. */
 export function MarkingOverlay(props: MarkingOverlayProps) {
-  const placed = useMemo(() => place(props.boxes), [props.boxes]);
+  const glyphed = useMemo(
+    () => new Set([...Object.keys(props.markings), ...(props.suggestions ?? []).map((s) => s.noteKey), ...Object.keys(props.commentCounts ?? {})]),
+    [props.markings, props.suggestions, props.commentCounts],
+  );
+  const { placed, tops } = useMemo(() => place(props.boxes, props.systems, glyphed, props.scale), [props.boxes, props.systems, glyphed, props.scale]);
   return (
     <svg
       className="pointer-events-none absolute left-0 top-0 select-none"
@@ -84,8 +128,12 @@ export function MarkingOverlay(props: MarkingOverlayProps) {
         durations={props.durations}
         commentCounts={props.commentCounts}
         focus={props.selection.focus}
+        systems={props.systems}
+        tops={tops}
+        width={props.width}
+        minTextPx={props.minTextPx}
       />
-      <CommentMarkerLayer placed={placed} scale={props.scale} markings={props.markings} commentCounts={props.commentCounts} />
+      <CommentMarkerLayer placed={placed} scale={props.scale} markings={props.markings} commentCounts={props.commentCounts} minTextPx={props.minTextPx} />
       <HitLayer placed={placed} scale={props.scale} onNoteClick={props.onNoteClick} />
     </svg>
   );
@@ -93,21 +141,22 @@ export function MarkingOverlay(props: MarkingOverlayProps) {
 
 /** Comment markers on notes that carry no marking (marked notes draw theirs with their glyphs). */
 const CommentMarkerLayer = memo(function CommentMarkerLayer({
-  placed, scale, markings, commentCounts,
-}: { placed: Map<string, Placed>; scale: number; markings: MarkingState; commentCounts?: Readonly<Record<string, number>> }) {
+  placed, scale, markings, commentCounts, minTextPx,
+}: { placed: Map<string, Placed>; scale: number; markings: MarkingState; commentCounts?: Readonly<Record<string, number>>; minTextPx?: number }) {
   if (!commentCounts) return null;
   const size = GLYPH.roleSize * scale;
+  const text = glyphText(scale, minTextPx);
   return (
     <g data-layer="comments">
       {Object.entries(commentCounts).map(([key, count]) => {
         const p = placed.get(key);
         if (!p || markings[key] || count <= 0) return null;
-        const slots = glyphSlots(p.box, scale, p.rowTop);
-        const marker = commentMarker(p.box.x + p.box.width / 2 + size * 0.7, slots.commentY, count, scale);
+        const slots = glyphSlots(p.box, scale, p.rowTop, minTextPx);
+        const marker = commentMarker(p.box.x + p.box.width / 2 + size * 0.7, slots.commentY, count, scale, text.count);
         return (
-          <g key={key} data-glyph="comment" data-note-key={key} data-count={count}>
+          <g key={key} data-glyph="comment" data-note-key={key} data-count={count} data-system={p.row}>
             <path d={marker.path} fill={PAPER} stroke={INK} strokeWidth={0.9} strokeLinejoin="round" />
-            <text x={marker.textX} y={marker.textY} fontSize={7 * scale} textAnchor="middle" fill={INK}>
+            <text x={marker.textX} y={marker.textY} fontSize={text.count} textAnchor="middle" fill={INK} data-glyph-text="count">
               {count}
             </text>
           </g>
@@ -186,7 +235,7 @@ const SelectionLayer = memo(function SelectionLayer({ placed, selection, scale }
 });
 
 const GlyphLayer = memo(function GlyphLayer({
-  placed, scale, markings, suggestions, resolutions, durations, commentCounts, focus,
+  placed, scale, markings, suggestions, resolutions, durations, commentCounts, focus, systems, tops, width: stageWidth, minTextPx,
 }: {
   placed: Map<string, Placed>;
   scale: number;
@@ -196,44 +245,80 @@ const GlyphLayer = memo(function GlyphLayer({
   durations?: Readonly<Record<string, number>>;
   commentCounts?: Readonly<Record<string, number>>;
   focus: string | null;
+  systems?: readonly OverlaySystem[];
+  tops: number[];
+  width: number;
+  minTextPx?: number;
 }) {
   const size = GLYPH.roleSize * scale;
+  const text = glyphText(scale, minTextPx);
   const roleAnchor = (key: string, offset = 0) => {
     const p = placed.get(key);
     if (!p) return null;
-    const slots = glyphSlots(p.box, scale, p.rowTop);
+    const slots = glyphSlots(p.box, scale, p.rowTop, minTextPx);
     return { x: p.box.x + p.box.width / 2 + offset, y: slots.roleY, row: p.row };
   };
+  // Each system's margins and the height an arc keeps over it (the top of its role shapes).
+  const arcRows: (ArcRow | undefined)[] = (systems ?? []).map((s, row) => ({
+    left: s.left,
+    right: s.right,
+    y: glyphSlots({ y: tops[row] ?? s.staffTop, staffTop: s.staffTop }, scale, tops[row], minTextPx).roleY - size / 2,
+  }));
 
-  const arcs: { key: string; paths: string[]; dashed: boolean }[] = [];
+  const arcs: { key: string; pieces: ReturnType<typeof tensionArcPieces>; dashed: boolean }[] = [];
+  const addArc = (key: string, fromKey: string, toKey: string | undefined, dashed: boolean) => {
+    const from = roleAnchor(fromKey);
+    const to = toKey ? roleAnchor(toKey) : null;
+    if (!from || !to) return;
+    arcs.push({ key, dashed, pieces: tensionArcPieces({ ...from, y: from.y - size / 2 }, { ...to, y: to.y - size / 2 }, arcRows, scale) });
+  };
   for (const marking of Object.values(markings)) {
     if (marking.role !== "tension") continue;
-    const target = resolutions?.[marking.noteKey] ?? nextResolution(placed, markings, marking.noteKey);
-    const from = roleAnchor(marking.noteKey);
-    const to = target ? roleAnchor(target) : null;
-    if (from && to) arcs.push({ key: marking.noteKey, paths: tensionArc({ ...from, y: from.y - size / 2 }, { ...to, y: to.y - size / 2 }, scale), dashed: false });
+    addArc(marking.noteKey, marking.noteKey, resolutions?.[marking.noteKey] ?? nextResolution(placed, markings, marking.noteKey), false);
   }
   for (const s of suggestions ?? []) {
     if (s.role !== "tension" || !s.resolvesTo || markings[s.noteKey]?.role === "tension") continue;
-    const from = roleAnchor(s.noteKey);
-    const to = roleAnchor(s.resolvesTo);
-    if (from && to) arcs.push({ key: `s:${s.noteKey}`, paths: tensionArc({ ...from, y: from.y - size / 2 }, { ...to, y: to.y - size / 2 }, scale), dashed: true });
+    addArc(`s:${s.noteKey}`, s.noteKey, s.resolvesTo, true);
   }
+
+  // On paper the numbers stay large, so they are kept apart rather than fitted to their waves.
+  const paperLabels = minTextPx
+    ? fitLabels(
+        Object.values(markings).flatMap((m) => {
+          const p = placed.get(m.noteKey);
+          return p ? [{ key: m.noteKey, row: p.row, x: p.box.x, text: labelOf(m) }] : [];
+        }),
+        text.label,
+        text.label / 2,
+        stageWidth,
+      )
+    : null;
 
   return (
     <g data-layer="glyphs">
-      {arcs.map((arc) => (
-        <g key={`arc:${arc.key}`} data-glyph="arc" data-note-key={arc.key}>
-          {arc.paths.map((d, i) => (
-            <path key={i} d={d} fill="none" stroke={GRAPHITE} strokeWidth={1} strokeDasharray={arc.dashed ? suggestionDash(scale) : undefined} />
-          ))}
-        </g>
-      ))}
+      {/* Each piece of an arc is drawn on its own, tagged with its system, so the stand copy can
+          cut the score into systems without splitting a piece. */}
+      {arcs.flatMap((arc) =>
+        arc.pieces.map((piece, i) => (
+          <path
+            key={`arc:${arc.key}:${i}`}
+            d={piece.path}
+            fill="none"
+            stroke={GRAPHITE}
+            strokeWidth={1}
+            strokeDasharray={arc.dashed ? suggestionDash(scale) : undefined}
+            data-glyph="arc"
+            data-note-key={arc.key}
+            data-piece={piece.kind}
+            data-system={piece.row}
+          />
+        )),
+      )}
       {Object.values(markings).map((marking) => {
         const p = placed.get(marking.noteKey);
         if (!p) return null;
         const { box, next, rowTop } = p;
-        const slots = glyphSlots(box, scale, rowTop);
+        const slots = glyphSlots(box, scale, rowTop, minTextPx);
         const width = waveWidth(box, next, scale);
         const hairlineY = marking.placement === "top-on-pitch" ? slots.hangingHairline : slots.centredHairline;
         const wave = vibratoWave({
@@ -248,13 +333,16 @@ const GlyphLayer = memo(function GlyphLayer({
           durationSeconds: durations?.[marking.noteKey],
           scale,
         });
-        const label = wave.kind === "none" ? "none" : `${formatNumber(marking.depthCents, 0)}¢ ${formatNumber(marking.speedHz, 1)}`;
-        const labelFits = width >= label.length * 4.2 * scale || marking.noteKey === focus;
+        const label = labelOf(marking);
+        const labelFits = paperLabels ? paperLabels.has(marking.noteKey) : width >= label.length * 4.2 * scale || marking.noteKey === focus;
         const cx = box.x + box.width / 2;
         const comments = commentCounts?.[marking.noteKey] ?? (marking.comment.trim() ? 1 : 0);
-        const marker = comments > 0 ? commentMarker(box.x + box.width / 2 + size * 0.7, slots.commentY, comments, scale) : null;
+        // A tension tone's arc leaves to the right, so its comment tab stands on the left.
+        const tabWidth = commentMarker(0, 0, comments, scale, text.count).width;
+        const tabX = marking.role === "tension" ? cx - size * 0.7 - tabWidth : cx + size * 0.7;
+        const marker = comments > 0 ? commentMarker(tabX, slots.commentY, comments, scale, text.count) : null;
         return (
-          <g key={marking.noteKey} data-marking={marking.noteKey}>
+          <g key={marking.noteKey} data-marking={marking.noteKey} data-system={p.row}>
             <title>{describe(marking)}</title>
             <g data-glyph="wave" data-note-key={marking.noteKey} data-kind={wave.kind} data-crests={formatNumber(wave.crests, 2)}>
               {wave.kind === "wave" ? (
@@ -263,7 +351,7 @@ const GlyphLayer = memo(function GlyphLayer({
               <path d={wave.path} fill="none" stroke={INK} strokeWidth={wave.kind === "wave" ? 1.3 : 1.6} strokeLinejoin="round" strokeLinecap="round" />
             </g>
             {labelFits ? (
-              <text x={box.x} y={slots.labelY} fontSize={8 * scale} fill={GRAPHITE} data-glyph="numbers">
+              <text x={box.x} y={slots.labelY} fontSize={text.label} fill={GRAPHITE} data-glyph="numbers" data-glyph-text="numbers" data-note-key={marking.noteKey}>
                 {label}
               </text>
             ) : null}
@@ -282,7 +370,7 @@ const GlyphLayer = memo(function GlyphLayer({
             {marker ? (
               <g data-glyph="comment" data-note-key={marking.noteKey} data-count={comments}>
                 <path d={marker.path} fill={PAPER} stroke={INK} strokeWidth={0.9} strokeLinejoin="round" />
-                <text x={marker.textX} y={marker.textY} fontSize={7 * scale} textAnchor="middle" fill={INK}>
+                <text x={marker.textX} y={marker.textY} fontSize={text.count} textAnchor="middle" fill={INK} data-glyph-text="count">
                   {comments}
                 </text>
               </g>
@@ -308,12 +396,18 @@ const GlyphLayer = memo(function GlyphLayer({
             data-role={s.role}
             data-note-key={s.noteKey}
             data-confidence={s.confidence >= 0.5 ? "suggested" : "possible"}
+            data-system={anchor.row}
           />
         );
       })}
     </g>
   );
 });
+
+/** The numbers under a wave: depth in cents, then speed in Hz; "none" under a flat line. */
+function labelOf(m: { depthCents: number; speedHz: number }): string {
+  return m.depthCents === 0 || m.speedHz === 0 ? "none" : `${formatNumber(m.depthCents, 0)}¢ ${formatNumber(m.speedHz, 1)}`;
+}
 
 /** Without an analysis answer: the next note marked as a resolution within a few notes. */
 function nextResolution(placed: Map<string, Placed>, markings: MarkingState, from: string): string | undefined {

@@ -7,6 +7,9 @@ import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
 export interface SystemBox {
   staffTop: number;
   staffBottom: number;
+  /** The ends of the staff lines (the system's left and right margins). */
+  left: number;
+  right: number;
   /** Written measure numbers of the system's first and last bar. */
   firstBar: number;
   lastBar: number;
@@ -18,7 +21,9 @@ const UNIT_PX = 10;
 export function measureSystems(osmd: OpenSheetMusicDisplay, stage: HTMLElement, zoom: number): SystemBox[] {
   const origin = stage.getBoundingClientRect();
   const svg = stage.querySelector("svg");
-  const svgTop = (svg?.getBoundingClientRect().top ?? origin.top) - origin.top;
+  const svgRect = svg?.getBoundingClientRect();
+  const svgTop = (svgRect?.top ?? origin.top) - origin.top;
+  const svgLeft = (svgRect?.left ?? origin.left) - origin.left;
   const out: SystemBox[] = [];
   for (const page of osmd.GraphicSheet?.MusicPages ?? []) {
     for (const system of page.MusicSystems ?? []) {
@@ -29,7 +34,13 @@ export function measureSystems(osmd: OpenSheetMusicDisplay, stage: HTMLElement, 
       const top = first.PositionAndShape.AbsolutePosition.y;
       const bottom = last.PositionAndShape.AbsolutePosition.y + last.StaffHeight;
       const measures = first.Measures ?? [];
+      const tail = measures[measures.length - 1]?.PositionAndShape;
+      // The staff lines start at the staff line's own origin (before the clef), end with the last bar.
+      const left = first.PositionAndShape.AbsolutePosition.x;
+      const right = tail ? tail.AbsolutePosition.x + tail.Size.width : left + first.PositionAndShape.Size.width;
       out.push({
+        left: svgLeft + left * UNIT_PX * zoom,
+        right: svgLeft + right * UNIT_PX * zoom,
         staffTop: svgTop + top * UNIT_PX * zoom,
         staffBottom: svgTop + bottom * UNIT_PX * zoom,
         firstBar: measures[0]?.MeasureNumber ?? 0,

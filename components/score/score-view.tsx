@@ -3,7 +3,7 @@
 import { ENGRAVING_OPTIONS } from "./engraving-options";
 import { useCallback, useEffect, useLayoutEffect, useRef, useState, type ReactNode } from "react";
 import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
-import { GLYPH_BAND_HEIGHT, type NoteBox } from "@/lib/markings/glyph-geometry";
+import { glyphBandHeight, type NoteBox } from "@/lib/markings/glyph-geometry";
 import { measureNoteBoxes } from "./measure-note-boxes";
 import { measureSystems, type SystemBox } from "./measure-systems";
 import { collectOsmdNotes } from "./osmd-note-keys";
@@ -23,6 +23,8 @@ export interface ScoreViewProps {
   onLayout: (layout: ScoreLayout) => void;
   /** Drawn over the engraving, in the same coordinates (the marking overlay). */
   children?: ReactNode;
+  /** The overlay's glyph text is at least this many px (paper): the systems make room for it. */
+  minTextPx?: number;
 }
 
 const RESIZE_DEBOUNCE_MS = 200;
@@ -40,7 +42,7 @@ if (typeof window !== "undefined") void loadEngraver();
  * is loaded on pages that show a score. Every render rebuilds its SVG; we never attach anything
  * to it and re-measure the notes instead.
  */
-export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
+export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0 }: ScoreViewProps) {
   const stageRef = useRef<HTMLDivElement>(null);
   const hostRef = useRef<HTMLDivElement>(null);
   const osmdRef = useRef<OpenSheetMusicDisplay | null>(null);
@@ -88,8 +90,8 @@ export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
       if (cancelled) return;
       host.replaceChildren();
       const osmd = new OpenSheetMusicDisplay(host, { ...ENGRAVING_OPTIONS });
-      // Room above every system for our glyph band (OSMD units: 10 px at zoom 1).
-      const band = GLYPH_BAND_HEIGHT / 10;
+      // Room above every system for our glyph band (OSMD units: 10 px at zoom 1, scaled by the zoom).
+      const band = glyphBandHeight(zoomRef.current, minTextPx) / (10 * zoomRef.current);
       osmd.EngravingRules.MinSkyBottomDistBetweenSystems = Math.max(osmd.EngravingRules.MinSkyBottomDistBetweenSystems, band + 1);
       osmd.EngravingRules.PageTopMargin = Math.max(osmd.EngravingRules.PageTopMargin, band);
       await osmd.load(xml);
@@ -108,7 +110,7 @@ export function ScoreView({ xml, zoom, onLayout, children }: ScoreViewProps) {
       osmdRef.current = null;
       host.replaceChildren();
     };
-  }, [xml, render]);
+  }, [xml, render, minTextPx]);
 
   useEffect(() => {
     if (zoomRef.current === zoom) return;

@@ -1,10 +1,12 @@
 "use client";
 
-import { useCallback, useEffect, useId, useRef, useState } from "react";
+import { useCallback, useEffect, useId, useMemo, useRef, useState } from "react";
 import type { MarkingState } from "@/lib/markings/changes";
 import { MarkingOverlay, type PendingSuggestion } from "./marking-overlay";
 import { ScoreView, type ScoreLayout } from "./score-view";
 import { buildSystemSlices } from "./system-slices";
+import { measureSky, type SkyBox } from "./engraving-sky";
+import { GLYPH_TEXT_PX } from "@/lib/stand-copy/options";
 
 export interface StandCopyScoreProps {
   xml: string;
@@ -38,7 +40,15 @@ export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolu
     onSystemsRef.current = onSystems;
   }, [onSystems]);
 
-  const onLayout = useCallback((l: ScoreLayout) => setLayout(l), []);
+  const [sky, setSky] = useState<SkyBox[][]>([]);
+  // Measured once per engraving, right after it is drawn (the overlay is not there yet).
+  const onLayout = useCallback((l: ScoreLayout) => {
+    const stage = sourceRef.current?.querySelector<HTMLElement>("[data-score-status]");
+    const engraving = stage?.querySelector<SVGSVGElement>('svg:not([data-testid="marking-overlay"])');
+    setSky(stage && engraving ? measureSky(engraving, stage, l.systems) : []);
+    setLayout(l);
+  }, []);
+  const systems = useMemo(() => layout?.systems.map((s, i) => ({ ...s, sky: sky[i] ?? [] })), [layout, sky]);
 
   useEffect(() => {
     const source = sourceRef.current;
@@ -76,7 +86,7 @@ export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolu
       {/* The source keeps its width but no height, in print too, so it never re-lays out. */}
       <div ref={sourceRef} className="pointer-events-none h-0 overflow-hidden" aria-hidden="true" inert>
         <div style={{ width }}>
-          <ScoreView xml={xml} zoom={zoom} onLayout={onLayout}>
+          <ScoreView xml={xml} zoom={zoom} onLayout={onLayout} minTextPx={GLYPH_TEXT_PX}>
             {layout ? (
               <MarkingOverlay
                 boxes={layout.boxes}
@@ -88,6 +98,8 @@ export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolu
                 resolutions={resolutions}
                 durations={durations}
                 commentCounts={commentCounts}
+                systems={systems}
+                minTextPx={GLYPH_TEXT_PX}
                 selection={NO_SELECTION}
               />
             ) : null}

@@ -1,8 +1,8 @@
 /**
  * Cuts the engraved part and our glyph layer into one standalone SVG per system, so a printed
  * page (CSS `break-inside: avoid`) or a PDF page (one `svg2pdf` call per system) never splits a
- * line of music. Each slice holds clones of only the drawing elements that reach into its band,
- * clipped to the band, in the stage's pixel coordinates.
+ * line of music. Each slice holds clones of only the drawing elements that belong to its system
+ * (our glyphs say which; the engraving's go to the nearest staff), in the stage's pixel coordinates.
  */
 import type { SystemBox } from "./measure-systems";
 
@@ -16,6 +16,8 @@ export interface SliceBand {
 interface Extent {
   top: number;
   bottom: number;
+  /** The system the element belongs to, when it says so (our glyphs carry `data-system`). */
+  system?: number;
 }
 
 /** Elements drawn as one piece: never split between slices, only cloned into each they touch. */
@@ -27,7 +29,10 @@ function rectIn(el: Element, origin: DOMRect): Extent | null {
   return { top: r.top - origin.top, bottom: r.bottom - origin.top };
 }
 
-function nearestSystem(systems: readonly SystemBox[], e: Extent): number {
+type Staff = Pick<SystemBox, "staffTop" | "staffBottom">;
+
+function nearestSystem(systems: readonly Staff[], e: Extent): number {
+  if (e.system !== undefined && e.system >= 0 && e.system < systems.length) return e.system;
   const centre = (e.top + e.bottom) / 2;
   let best = 0;
   let distance = Infinity;
@@ -43,29 +48,27 @@ function nearestSystem(systems: readonly SystemBox[], e: Extent): number {
 
 /**
  * Bands that hold each system whole: from the highest to the lowest thing drawn for it (notes,
- * slurs, our glyphs), plus `pad`, never overlapping the next system's band.
+ * slurs, our glyphs), plus `pad`. Two bands may overlap where one system's marks come close to
+ * the next's: each slice then still shows only its own system's elements (see `ownerOf`), so
+ * nothing is cut off and nothing is printed twice.
  */
-export function systemBands(systems: readonly SystemBox[], extents: readonly Extent[], pad: number, height: number): SliceBand[] {
+export function systemBands(systems: readonly Staff[], extents: readonly Extent[], pad: number, height: number): SliceBand[] {
   const reach = systems.map((s) => ({ top: s.staffTop, bottom: s.staffBottom }));
   for (const e of extents) {
     const r = reach[nearestSystem(systems, e)];
     r.top = Math.min(r.top, e.top);
     r.bottom = Math.max(r.bottom, e.bottom);
   }
-  const bands = reach.map((r) => ({ top: Math.max(0, r.top - pad), bottom: Math.min(height, r.bottom + pad) }));
-  for (let i = 0; i + 1 < bands.length; i++) {
-    if (bands[i].bottom > bands[i + 1].top) {
-      // Padding (or a reach) overlaps the next system: cut in the middle of the free space.
-      const cut = (Math.min(reach[i].bottom, reach[i + 1].top) + Math.max(reach[i].bottom, reach[i + 1].top)) / 2;
-      bands[i].bottom = cut;
-      bands[i + 1].top = cut;
-    }
-  }
-  return bands;
+  return reach.map((r) => ({ top: Math.max(0, r.top - pad), bottom: Math.min(height, r.bottom + pad) }));
+}
+
+/** The one slice an element is drawn in: the system it names, or the nearest staff. */
+export function ownerOf(systems: readonly Staff[], e: Extent): number {
+  return nearestSystem(systems, e);
 }
 
 /** Top-level drawing elements (descending into groups that span several systems). */
-function leaves(root: Element, origin: DOMRect, systems: readonly SystemBox[]): { el: Element; extent: Extent | null }[] {
+function leaves(root: Element, origin: DOMRect, systems: readonly Staff[]): { el: Element; extent: Extent | null }[] {
   const out: { el: Element; extent: Extent | null }[] = [];
   const walk = (parent: Element) => {
     for (const el of Array.from(parent.children)) {
@@ -76,6 +79,11 @@ function leaves(root: Element, origin: DOMRect, systems: readonly SystemBox[]): 
       }
       const extent = rectIn(el, origin);
       if (!extent) continue;
+      const tagged = el.getAttribute("data-system");
+      if (tagged !== null && /^\d+$/.test(tagged)) {
+        out.push({ el, extent: { ...extent, system: Number(tagged) } });
+        continue;
+      }
       const spansSeveral = systems.filter((s, i) => {
         const next = systems[i + 1];
         return extent.top < (next ? next.staffTop : Infinity) && extent.bottom > s.staffTop;
@@ -148,12 +156,13 @@ export function buildSystemSlices(src: SliceSource): SVGSVGElement[] {
     clipped.setAttribute("clip-path", `url(#${clipId})`);
     const music = document.createElementNS(SVG_NS, "g");
     music.setAttribute("transform", `translate(${offsetX} ${offsetY}) scale(${scale})`);
-    const touches = (e: Extent | null) => e === null || (e.top < band.bottom && e.bottom > band.top);
-    for (const { el, extent } of engraved) if (touches(extent)) music.appendChild(el.cloneNode(true));
+    // Each element goes into its own system's slice only (definitions go everywhere).
+    const holds = (e: Extent | null) => e === null || ownerOf(src.systems, e) === i;
+    for (const { el, extent } of engraved) if (holds(extent)) music.appendChild(el.cloneNode(true));
     clipped.appendChild(music);
     const marks = document.createElementNS(SVG_NS, "g");
     marks.setAttribute("data-layer", "glyphs");
-    for (const { el, extent } of glyphs) if (touches(extent)) marks.appendChild(el.cloneNode(true));
+    for (const { el, extent } of glyphs) if (holds(extent)) marks.appendChild(el.cloneNode(true));
     clipped.appendChild(marks);
     svg.appendChild(clipped);
     return svg;

@@ -98,7 +98,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   const scrollerRef = useRef<HTMLDivElement>(null);
   const scoreRef = useRef<HTMLDivElement>(null);
   const railRef = useRef<HTMLElement>(null);
-  const [size, setSize] = useState({ width: 0, height: 0 });
+  const [size, setSize] = useState<{ width: number; height: number; systems?: ScoreLayout["systems"] }>({ width: 0, height: 0 });
 
   const canEdit = part.data?.permission === "owner";
   const commentCounts = useCommentCounts(partId);
@@ -141,7 +141,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   const onLayout = useCallback(
     (layout: ScoreLayout) => {
       actions.setLayout(layout.boxes);
-      setSize({ width: layout.width, height: layout.height });
+      setSize({ width: layout.width, height: layout.height, systems: layout.systems });
     },
     [actions],
   );
@@ -439,6 +439,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
                   resolutions={resolutions}
                   durations={durations}
                   commentCounts={commentCounts}
+                  systems={size.systems}
                   selection={selection}
                   onNoteClick={onNoteClick}
                 />

@@ -59,6 +59,8 @@ function pdfReadySvg(svg: SVGSVGElement): SVGSVGElement {
   const copy = svg.cloneNode(true) as SVGSVGElement;
   for (const t of Array.from(copy.querySelectorAll("text, tspan"))) {
     if (t.children.length === 0 && t.textContent) t.textContent = winAnsi(t.textContent);
+    // Our glyphs' numbers inherit the page's sans on screen; svg2pdf would fall back to Times.
+    if (t.hasAttribute("data-glyph-text") || t.closest("[data-legend-icon]")) t.setAttribute("font-family", "helvetica");
     // svg2pdf reads font sizes as user units; the engraving writes some in points.
     const size = /^([\d.]+)pt$/.exec(t.getAttribute("font-size") ?? "");
     if (size) t.setAttribute("font-size", String((Number(size[1]) * 4) / 3));
@@ -160,21 +162,30 @@ export async function buildStandCopyPdf(input: StandCopyPdfInput): Promise<Blob>
         continue;
       }
       const svg = el.tagName === "LI" ? el.querySelector("svg") : null;
+      // A row whose icon is words ("solid · dashed") prints them in the icon column.
+      const iconWords = el.tagName === "LI" && !svg ? el.querySelector("[data-legend-icon-text]") : null;
       const iconW = svg ? Number(svg.getAttribute("width")) * MM_PER_PX : 0;
       const iconH = svg ? Number(svg.getAttribute("height")) * MM_PER_PX : 0;
       const textX = svg ? iconW + 3 : el.tagName === "LI" ? 19 : 0;
       // The words only (an icon's own text, like a comment count, stays in its icon).
       const words = Array.from(el.childNodes)
-        .filter((n) => n.nodeName.toLowerCase() !== "svg")
+        .filter((n) => n.nodeName.toLowerCase() !== "svg" && n !== iconWords)
         .map((n) => n.textContent ?? "")
         .join(" ");
       const lines = text(words.replace(/\s+/g, " ").trim(), 8.5, "helvetica", "normal", width - textX);
-      const h = Math.max(iconH, lines.length * lineHeight(8.5));
+      const iconLines = iconWords ? text(iconWords.textContent ?? "", 7.5, "helvetica", "normal", textX - 2) : [];
+      const h = Math.max(iconH, lines.length * lineHeight(8.5), iconLines.length * lineHeight(7.5));
       blocks.push({
         height: h,
         gapBefore: 0.8,
         draw: async (d, x, y) => {
           if (svg) await drawSvg(svg as SVGSVGElement, x, y, iconW, iconH);
+          if (iconLines.length) {
+            d.setTextColor(...GRAPHITE);
+            d.setFont("helvetica", "normal");
+            d.setFontSize(7.5);
+            d.text(iconLines, x, y + (h - iconLines.length * lineHeight(7.5)) / 2, { baseline: "top", lineHeightFactor: 1.25 });
+          }
           d.setTextColor(...INK);
           d.setFont("helvetica", "normal");
           d.setFontSize(8.5);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import {
-  GLYPH, commentMarker, glyphSlots, roleShapePath, tensionArc, vibratoWave, waveCrests, waveHeight, waveWidth,
+  GLYPH, GLYPH_BAND_HEIGHT, commentMarker, glyphBandHeight, glyphSlots, roleShapePath, tensionArc, vibratoWave, waveCrests, waveHeight, waveWidth,
   type NoteBox, type WaveInput,
 } from "./glyph-geometry";
 import { ROLE_INFO, ROLE_ORDER } from "./roles";
@@ -157,5 +157,23 @@ describe("arcs, comments and widths", () => {
     expect(waveWidth(box(0, 0), box(40, 0))).toBe(37);
     expect(waveWidth(box(0, 0), box(40, 100))).toBe(16);
     expect(waveWidth(box(0, 0), box(400, 0))).toBe(90);
+  });
+});
+
+describe("glyph text on paper", () => {
+  it("makes room between wave and staff for numbers of the size asked, and a tab tall enough for its count", () => {
+    const screen = glyphSlots({ y: 100, staffTop: 100 }, 0.8);
+    const paper = glyphSlots({ y: 100, staffTop: 100 }, 0.8, undefined, 10);
+    // The wave's lowest point (centred hairline + half the tallest wave) stays above the digits' top (0.72 em over the baseline).
+    const waveBottom = paper.centredHairline + (GLYPH.waveMaxHeight * 0.8) / 2;
+    expect(waveBottom).toBeLessThan(paper.labelY - 0.72 * 10);
+    expect(paper.roleY).toBeLessThan(screen.roleY);
+    const tab = commentMarker(0, 0, 3, 0.8, 10);
+    expect(tab.height).toBeGreaterThan(10);
+    // Digits of 0.72 em centred in the tab: their top below the tab's top, baseline above its bottom.
+    expect(tab.textY - 0.72 * 10).toBeGreaterThan(0);
+    expect(tab.textY).toBeLessThan(tab.height);
+    expect(glyphBandHeight(0.8, 10)).toBeGreaterThan(glyphBandHeight(0.8));
+    expect(glyphBandHeight(1)).toBe(GLYPH_BAND_HEIGHT);
   });
 });

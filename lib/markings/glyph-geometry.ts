@@ -7,6 +7,7 @@
  */
 import type { MarkingValues } from "./schema";
 import type { Role } from "@/lib/analysis/types";
+import { tensionArcPieces } from "./tension-arc";
 
 /** A note's box in the overlay, measured from the engraving. */
 export interface NoteBox {
@@ -141,14 +142,34 @@ export interface GlyphSlots {
   labelY: number;
 }
 
-export function glyphSlots(box: Pick<NoteBox, "y" | "staffTop">, scale = 1, rowTop?: number): GlyphSlots {
+/**
+ * Font sizes (px) of the glyphs' text: the numbers under a wave and the count in a comment tab.
+ * `minPx` raises both, for paper, where a size is a size in points (see lib/stand-copy/options.ts).
+ */
+export function glyphText(scale = 1, minPx = 0): { label: number; count: number } {
+  return { label: Math.max(8 * scale, minPx), count: Math.max(7 * scale, minPx) };
+}
+
+/** Digits of the fonts we use stand about 0.72 em tall; 0.85 em leaves room for "¢". */
+const TEXT_HEIGHT_EM = 0.85;
+
+function commentHeight(scale: number, countPx: number): number {
+  return Math.max(GLYPH.commentSize * scale, countPx * 1.05);
+}
+
+function labelRoom(scale: number, labelPx: number): number {
+  return Math.max(9 * scale, labelPx * TEXT_HEIGHT_EM + 2 * scale);
+}
+
+export function glyphSlots(box: Pick<NoteBox, "y" | "staffTop">, scale = 1, rowTop?: number, minTextPx = 0): GlyphSlots {
+  const text = glyphText(scale, minTextPx);
   // The band starts above whichever is higher: the staff's top line or the note (ledger lines).
   const base = (rowTop ?? Math.min(box.staffTop, box.y)) - GLYPH.gap * scale;
   const labelY = base;
-  const waveBottom = base - 9 * scale;
+  const waveBottom = base - labelRoom(scale, text.label);
   const waveTop = waveBottom - GLYPH.waveMaxHeight * scale;
   const roleY = waveTop - GLYPH.gap * scale - (GLYPH.roleSize / 2) * scale;
-  const commentY = roleY - (GLYPH.roleSize / 2) * scale - GLYPH.gap * scale - GLYPH.commentSize * scale;
+  const commentY = roleY - (GLYPH.roleSize / 2) * scale - GLYPH.gap * scale - commentHeight(scale, text.count);
   return {
     centredHairline: (waveTop + waveBottom) / 2,
     hangingHairline: waveTop,
@@ -160,6 +181,12 @@ export function glyphSlots(box: Pick<NoteBox, "y" | "staffTop">, scale = 1, rowT
 
 /** Vertical room the glyphs need above the staff, at zoom 1 (used to space the systems). */
 export const GLYPH_BAND_HEIGHT = 9 + GLYPH.waveMaxHeight + GLYPH.gap * 3 + GLYPH.roleSize + GLYPH.commentSize + 4;
+
+/** The same room in px at a zoom, with the glyph text at least `minTextPx`. */
+export function glyphBandHeight(scale = 1, minTextPx = 0): number {
+  const text = glyphText(scale, minTextPx);
+  return labelRoom(scale, text.label) + (GLYPH.waveMaxHeight + GLYPH.gap * 3 + GLYPH.roleSize + 4) * scale + commentHeight(scale, text.count);
+}
 
 /**
  * The four role shapes, one silhouette each, all inside a square of side `size` centred on
@@ -191,37 +218,31 @@ export function suggestionDash(scale = 1): string {
 }
 
 /**
- * A thin arc from a tension tone's role shape to its resolution's. When the two notes are on
- * different systems the arc is cut in two: one half leaves the tension tone to the right, the
- * other arrives at the resolution from the left.
+ * A thin arc from a tension tone's role shape to its resolution's (the paths only; see
+ * tension-arc.ts for the pieces across line breaks and their margins).
  */
 export function tensionArc(
   from: { x: number; y: number; row: number },
   to: { x: number; y: number; row: number },
   scale = 1,
 ): string[] {
-  if (from.row === to.row) {
-    const lift = Math.min(14 * scale, Math.max(5 * scale, Math.abs(to.x - from.x) * 0.2));
-    const mx = (from.x + to.x) / 2;
-    const my = Math.min(from.y, to.y) - lift;
-    return [`M${f(from.x)},${f(from.y)}Q${f(mx)},${f(my)} ${f(to.x)},${f(to.y)}`];
-  }
-  const reach = 28 * scale;
-  const lift = 8 * scale;
-  return [
-    `M${f(from.x)},${f(from.y)}Q${f(from.x + reach / 2)},${f(from.y - lift)} ${f(from.x + reach)},${f(from.y - lift / 2)}`,
-    `M${f(to.x - reach)},${f(to.y - lift / 2)}Q${f(to.x - reach / 2)},${f(to.y - lift)} ${f(to.x)},${f(to.y)}`,
-  ];
+  return tensionArcPieces(from, to, [], scale).map((p) => p.path);
 }
 
-/** The comment marker: a small tab with a notch pointing down to the note, wide enough for a count. */
-export function commentMarker(x: number, top: number, count: number, scale = 1): { path: string; textX: number; textY: number; width: number; height: number } {
-  const h = GLYPH.commentSize * scale;
-  const w = (count > 9 ? 13 : 9.5) * scale;
+/**
+ * The comment marker: a small tab with a notch pointing down to the note, wide enough for a count
+ * at `countPx` (default: the screen size at this zoom).
+ */
+export function commentMarker(x: number, top: number, count: number, scale = 1, countPx = glyphText(scale).count): { path: string; textX: number; textY: number; width: number; height: number } {
+  const h = commentHeight(scale, countPx);
+  const digits = String(count).length;
+  // Digits are about 0.6 em wide in the fonts we use; 1.5 px of tab on each side.
+  const w = Math.max((count > 9 ? 13 : 9.5) * scale, digits * 0.6 * countPx + 3 * scale);
   const notch = 2.5 * scale;
   const b = top + h;
   const path = `M${f(x)},${f(top)}L${f(x + w)},${f(top)}L${f(x + w)},${f(b)}L${f(x + notch * 2)},${f(b)}L${f(x)},${f(b + notch)}Z`;
-  return { path, textX: x + w / 2, textY: top + h * 0.78, width: w, height: h + notch };
+  // The digits' baseline, so that their 0.72 em height sits in the middle of the tab.
+  return { path, textX: x + w / 2, textY: top + (h + 0.72 * countPx) / 2, width: w, height: h + notch };
 }
 
 /** The wave's width for a note: up to the next note on the same system, within sensible bounds. */

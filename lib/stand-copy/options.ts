@@ -17,6 +17,18 @@ export const PX_PER_MM = 96 / 25.4;
 /** PDF points per millimetre (72 pt to the inch). */
 export const PT_PER_MM = 72 / 25.4;
 
+/** CSS pixels per point at print size (96 px and 72 pt to the inch). */
+export const PX_PER_PT = 96 / 72;
+
+/** The smallest text on the stand copy, in points: what a player can still read at the stand. */
+export const MIN_PRINT_TEXT_PT = 7;
+
+/**
+ * The size of the glyphs' numbers and counts on paper: half a point above the minimum, so
+ * rounding in the browser or the PDF never takes them under it.
+ */
+export const GLYPH_TEXT_PX = (MIN_PRINT_TEXT_PT + 0.5) * PX_PER_PT;
+
 /** The printable width and height inside the margins, in millimetres. */
 export function contentSizeMm(paper: Paper): { width: number; height: number } {
   return { width: paper.widthMm - 2 * paper.marginMm, height: paper.heightMm - 2 * paper.marginMm };
