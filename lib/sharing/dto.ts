@@ -47,7 +47,8 @@ export interface ThreadMarker extends ThreadSummary {
   openProposals: number;
 }
 
-export type ProposalStatus = "open" | "accepted" | "declined" | "stale";
+/** `withdrawn`: its author took it back before the owner decided. */
+export type ProposalStatus = "open" | "accepted" | "declined" | "stale" | "withdrawn";
 
 export interface ProposalDto {
   id: string;
