@@ -140,7 +140,7 @@ describe("sharing a part with a teacher", () => {
     await t.screenshot({ path: screenshotPath("sharing-teacher-studio"), fullPage: false });
 
     // ——— the teacher proposes on another note, then withdraws it ———
-    const otherKey = (await t.locator('[data-layer="hits"] rect[data-note-key]').nth(4).getAttribute("data-note-key"))!;
+    const otherKey = (await p.locator('[data-layer="hits"] rect[data-note-key]').nth(4).getAttribute("data-note-key"))!;
     await t.goto(`${APP_URL}/parts/${partId}?note=${encodeURIComponent(otherKey)}`);
     await waitForScore(t);
     const tPanel2 = t.getByTestId("discussion-panel");
