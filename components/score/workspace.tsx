@@ -468,7 +468,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
         >
           {/* Edge to edge, with content-sized tabs sharing what is left, so the three labels and
               their counts stay on one line in the 20rem rail (1024 px tablets and up). */}
-          <div className="-mx-4 mb-3 flex border-b border-rule px-1" role="tablist" aria-label="Side panel">
+          <div className="-mx-4 mb-3 flex gap-1 border-b border-rule px-2 lg:gap-0 lg:px-1" role="tablist" aria-label="Side panel">
             <Tab selected={sideView === "marking" && keys.length > 0} onClick={() => actions.setSideView("marking")} disabled={keys.length === 0}>
               Marking
             </Tab>
@@ -524,7 +524,7 @@ function Tab({ children, selected, onClick, disabled }: { children: React.ReactN
       aria-selected={selected}
       disabled={disabled}
       onClick={onClick}
-      className="-mb-px inline-flex h-11 flex-auto items-center justify-center whitespace-nowrap border-b-[3px] border-transparent px-1.5 text-sm font-medium text-graphite aria-selected:border-ink aria-selected:text-ink disabled:opacity-50"
+      className="-mb-px inline-flex h-11 items-center justify-center whitespace-nowrap border-b-[3px] border-transparent px-2 lg:flex-auto lg:px-1.5 text-sm font-medium text-graphite aria-selected:border-ink aria-selected:text-ink disabled:opacity-50"
     >
       {children}
     </button>
