@@ -4,7 +4,7 @@ import type { NotificationDto } from "@/lib/sharing/dto";
 import { db } from "./client";
 import { notifications, parts, users } from "./schema";
 
-export type NotificationKind = "comment" | "proposal" | "proposal_accepted" | "proposal_declined";
+export type NotificationKind = "comment" | "proposal" | "proposal_accepted" | "proposal_declined" | "invitation_accepted";
 
 export async function insertNotifications(rows: {
   userId: string;

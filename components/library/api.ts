@@ -4,6 +4,7 @@ import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient }
 
 export type { ListedPart } from "@/lib/parts/dto";
 import type { ListedPart } from "@/lib/parts/dto";
+import type { MarkingImport } from "@/lib/parts/import-report";
 
 export interface PartListPage {
   items: ListedPart[];
@@ -96,7 +97,7 @@ export function useTrySample() {
   });
 }
 
-export interface UploadResult {
+export interface UploadResult extends MarkingImport {
   id: string;
   url: string;
   parts: { id: string; name: string }[];

@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useId, useRef, useState } from "react";
 import { useQueryClient } from "@tanstack/react-query";
+import { describeMarkingImport } from "@/lib/parts/import-report";
 import { ApiError, partKeys, uploadPart, useChoosePart, useSamples, useTrySample, type UploadResult } from "./api";
 
 type UploadState =
@@ -10,6 +11,7 @@ type UploadState =
   | { phase: "sending"; fileName: string; fraction: number }
   | { phase: "reading"; fileName: string }
   | { phase: "choose"; fileName: string; result: UploadResult }
+  | { phase: "imported"; fileName: string; result: UploadResult }
   | { phase: "error"; fileName: string; code: string; message: string };
 
 const ACCEPT = ".musicxml,.xml,.mxl";
@@ -29,6 +31,9 @@ export function UploadPanel() {
   const finish = (result: UploadResult, fileName: string) => {
     qc.invalidateQueries({ queryKey: partKeys.all });
     if (result.parts.length > 1) setState({ phase: "choose", fileName, result });
+    // Markings that came in with the file are worth a pause: the player reads what was imported
+    // (and what could not be) before the part opens.
+    else if (describeMarkingImport(result)) setState({ phase: "imported", fileName, result });
     else router.push(result.url);
   };
 
@@ -100,6 +105,12 @@ export function UploadPanel() {
             <p className="mt-1 text-xs text-graphite">Error code: {state.code}</p>
           </div>
         )}
+        {(state.phase === "choose" || state.phase === "imported") && <ImportNotice fileName={state.fileName} result={state.result} />}
+        {state.phase === "imported" && (
+          <button type="button" autoFocus onClick={() => router.push(state.result.url)} className="mt-3 rounded-card bg-accent px-4 py-2 font-semibold text-white hover:bg-accent-strong">
+            Open the part
+          </button>
+        )}
         {state.phase === "choose" && (
           <PartChooser
             result={state.result}
@@ -142,6 +153,21 @@ export function UploadPanel() {
         </button>
       </div>
     </section>
+  );
+}
+
+/** What came in with the file: the markings imported from an Ondula export, and any left out. */
+function ImportNotice({ fileName, result }: { fileName: string; result: UploadResult }) {
+  const report = describeMarkingImport(result);
+  if (!report) return null;
+  return (
+    <div role="status" className="mb-3 rounded-card border border-rule bg-paper p-3 text-sm" data-testid="import-notice">
+      <p className="font-semibold">{report.headline}</p>
+      <p className="mt-1 text-graphite">
+        {fileName} carried Ondula markings; they are now the part&rsquo;s markings, and one undo in the workspace takes them all back.
+      </p>
+      {report.details ? <p className="mt-1">{report.details}</p> : null}
+    </div>
   );
 }
 

@@ -109,6 +109,16 @@ async function setDepth(value: string) {
 }
 
 describe("Workspace", () => {
+  it("shows the suggestions still to decide as a count badge on the tab, kept in its name", async () => {
+    open();
+    const tab = await screen.findByRole("tab", { name: /Suggestions/ });
+    await waitFor(() => expect(within(tab).queryByTestId("count-badge")).not.toBeNull());
+    expect(within(tab).getByTestId("count-badge").textContent).toBe("1");
+    expect(tab.textContent).not.toMatch(/\(/);
+    expect(screen.getByRole("tab", { name: "Suggestions 1 to decide" })).toBe(tab);
+    expect(screen.getByRole("button", { name: "Suggestions, 1 to decide" })).toBeTruthy();
+  });
+
   it("marks a clicked note, draws it and saves it with no version (new)", async () => {
     open();
     await waitFor(() => expect(hit(K[1])).toBeTruthy());

@@ -38,6 +38,7 @@ import { useCommentCounts, useNotifications } from "@/components/sharing/api";
 import { DiscussionPanel } from "@/components/sharing/discussion-panel";
 import { ShareButton } from "@/components/sharing/share-dialog";
 import { UnreadBadge } from "@/components/sharing/unread-badge";
+import { CountBadge } from "@/components/ui/count-badge";
 
 /** The marking workspace of one part: the engraved score with our overlay, and its panels. */
 /** `viewerId`: the signed-in person, so the discussion knows which comments are theirs. */
@@ -376,8 +377,13 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
         </div>
         <div className="flex items-center gap-1">
           {canEdit && part.data ? <ShareButton partId={partId} partTitle={part.data.title} /> : null}
-          <ToolButton onClick={() => actions.setSideView("suggestions")} label="Suggestions" pressed={panelOpen && (sideView === "suggestions" || keys.length === 0)}>
-            Suggestions{pending.length ? ` (${pending.length})` : ""}
+          <ToolButton
+            onClick={() => actions.setSideView("suggestions")}
+            label={pending.length ? `Suggestions, ${pending.length} to decide` : "Suggestions"}
+            pressed={panelOpen && (sideView === "suggestions" || keys.length === 0)}
+          >
+            Suggestions
+            <CountBadge count={pending.length} noun="to decide" className="ml-1" />
           </ToolButton>
           <ToolButton onClick={() => actions.setLegendOpen(!legendOpen)} label="Legend" pressed={legendOpen}>
             Legend
@@ -461,16 +467,19 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
           data-open={panelOpen ? "true" : "false"}
           className="no-print fixed inset-x-0 bottom-0 z-20 max-h-[45dvh] overflow-y-auto border-t border-ink/20 bg-paper p-4 shadow-[0_-4px_16px_rgba(27,26,23,0.12)] data-[open=false]:hidden lg:relative lg:z-auto lg:block lg:max-h-none lg:w-rail lg:shrink-0 lg:border-l lg:border-t-0 lg:border-rule lg:shadow-none lg:data-[open=false]:block"
         >
-          <div className="mb-3 flex gap-1 border-b border-rule" role="tablist" aria-label="Side panel">
+          {/* Edge to edge, with content-sized tabs sharing what is left, so the three labels and
+              their counts stay on one line in the 20rem rail (1024 px tablets and up). */}
+          <div className="-mx-4 mb-3 flex gap-1 border-b border-rule px-2 lg:gap-0 lg:px-1" role="tablist" aria-label="Side panel">
             <Tab selected={sideView === "marking" && keys.length > 0} onClick={() => actions.setSideView("marking")} disabled={keys.length === 0}>
               Marking
             </Tab>
             <Tab selected={sideView === "discussion"} onClick={() => actions.setSideView("discussion")}>
-              Discussion
+              Discussion{" "}
               <UnreadBadge count={unread} className="ml-1" />
             </Tab>
             <Tab selected={sideView === "suggestions" || (keys.length === 0 && sideView !== "discussion")} onClick={() => actions.setSideView("suggestions")}>
-              Suggestions{pending.length ? ` (${pending.length})` : ""}
+              Suggestions{" "}
+              <CountBadge count={pending.length} noun="to decide" className="ml-1" />
             </Tab>
             <button
               type="button"
@@ -501,7 +510,7 @@ function ToolButton({
       aria-label={label}
       title={label}
       aria-pressed={pressed}
-      className="h-11 min-w-11 rounded px-2.5 text-sm font-medium text-ink hover:bg-paper-deep disabled:cursor-not-allowed disabled:text-graphite/60 aria-pressed:bg-paper-deep aria-pressed:underline aria-pressed:underline-offset-4"
+      className="inline-flex h-11 min-w-11 items-center justify-center whitespace-nowrap rounded px-2.5 text-sm font-medium text-ink hover:bg-paper-deep disabled:cursor-not-allowed disabled:text-graphite/60 aria-pressed:bg-paper-deep aria-pressed:underline aria-pressed:underline-offset-4"
     >
       {children}
     </button>
@@ -516,7 +525,7 @@ function Tab({ children, selected, onClick, disabled }: { children: React.ReactN
       aria-selected={selected}
       disabled={disabled}
       onClick={onClick}
-      className="-mb-px h-11 border-b-[3px] border-transparent px-3 text-sm font-medium text-graphite aria-selected:border-ink aria-selected:text-ink disabled:opacity-50"
+      className="-mb-px inline-flex h-11 items-center justify-center whitespace-nowrap border-b-[3px] border-transparent px-2 lg:flex-auto lg:px-1.5 text-sm font-medium text-graphite aria-selected:border-ink aria-selected:text-ink disabled:opacity-50"
     >
       {children}
     </button>

@@ -163,6 +163,10 @@ export const useDeclineProposal = (partId: string) =>
   useProposalMutation(partId, (v: { proposalId: string; reply: string }) =>
     apiFetch<ProposalItem>(`/api/parts/${partId}/proposals/${v.proposalId}/decline`, send("POST", { reply: v.reply })),
   );
+export const useWithdrawProposal = (partId: string) =>
+  useProposalMutation(partId, (proposalId: string) =>
+    apiFetch<ProposalItem>(`/api/parts/${partId}/proposals/${proposalId}/withdraw`, send("POST")),
+  );
 
 // ——— notifications ———
 

@@ -41,7 +41,7 @@ export function DiscussionPanel(props: DiscussionPanelProps) {
         <ScopeButton pressed={!showNote} onClick={() => setScope("part")}>The whole part</ScopeButton>
       </div>
       {showNote ? (
-        <NoteDiscussion {...props} noteKey={noteKey} />
+        <NoteDiscussion key={noteKey} {...props} noteKey={noteKey} />
       ) : (
         <PartDiscussion partId={partId} viewerId={viewerId} labelOf={labelOf} onShowNote={props.onShowNote} />
       )}
@@ -67,15 +67,21 @@ function NoteDiscussion({ partId, permission, viewerId, noteKey, currentMarking,
   const proposals = useProposals(partId);
   const [proposing, setProposing] = useState(false);
   const label = labelOf(noteKey);
+  // Proposals this viewer just saw withdrawn stay where they were, shown as withdrawn, instead of
+  // vanishing into the earlier ones; they move there when the note is opened again.
+  const [seen, setSeen] = useState<ReadonlySet<string>>(() => new Set());
+  const keep = (id: string) => setSeen((s) => new Set(s).add(id));
   const mine = (proposals.data?.proposals ?? []).filter((p) => p.noteKey === noteKey);
-  const live = mine.filter((p) => p.status === "open" || p.status === "stale");
-  const decided = mine.filter((p) => p.status === "accepted" || p.status === "declined");
+  const live = mine.filter((p) => p.status === "open" || p.status === "stale" || seen.has(p.id));
+  const decided = mine.filter((p) => !live.includes(p));
   return (
     <>
       {live.length > 0 ? (
         <section aria-label="Proposals" className="grid gap-2">
           <h3 className="font-semibold">Proposals</h3>
-          {live.map((p) => <ProposalCard key={p.id} partId={partId} proposal={p} isOwner={permission === "owner"} label={label} />)}
+          {live.map((p) => (
+            <ProposalCard key={p.id} partId={partId} proposal={p} isOwner={permission === "owner"} viewerId={viewerId} label={label} onStateSeen={keep} />
+          ))}
         </section>
       ) : null}
       {permission === "propose" ? (
@@ -92,7 +98,7 @@ function NoteDiscussion({ partId, permission, viewerId, noteKey, currentMarking,
         <details className="text-sm">
           <summary className="cursor-pointer text-graphite">Earlier proposals ({decided.length})</summary>
           <div className="mt-2 grid gap-2">
-            {decided.map((p) => <ProposalCard key={p.id} partId={partId} proposal={p} isOwner={false} label={label} />)}
+            {decided.map((p) => <ProposalCard key={p.id} partId={partId} proposal={p} isOwner={false} viewerId={viewerId} label={label} />)}
           </div>
         </details>
       ) : null}

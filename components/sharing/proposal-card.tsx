@@ -5,7 +5,8 @@ import {
   DEFAULT_MARKING, ONSETS, PLACEMENTS, ROLES, SHAPES, markingValuesSchema, type MarkingDto, type MarkingValues,
 } from "@/lib/markings/schema";
 import { COMMENT_MAX_LENGTH } from "@/lib/sharing/comment-text";
-import { useAcceptProposal, useCreateProposal, useDeclineProposal, type ProposalItem } from "./api";
+import { ApiError } from "@/components/library/api";
+import { useAcceptProposal, useCreateProposal, useDeclineProposal, useWithdrawProposal, type ProposalItem } from "./api";
 import { formatWhen } from "./format";
 
 const VALUE_LABELS: Record<string, string> = {
@@ -34,19 +35,48 @@ const FIELDS: { key: keyof MarkingValues; label: string; show: (v: MarkingValues
 
 const STATUS_LABEL = { open: "Open", accepted: "Accepted", declined: "Declined", stale: "Out of date", withdrawn: "Withdrawn" } as const;
 
-/** The current marking and a proposal side by side; the owner accepts or declines with a reply. */
-export function ProposalCard({ partId, proposal, isOwner, label }: { partId: string; proposal: ProposalItem; isOwner: boolean; label: string }) {
+export interface ProposalCardProps {
+  partId: string;
+  proposal: ProposalItem;
+  isOwner: boolean;
+  /** The signed-in person: the proposal's author may withdraw it while it is undecided. */
+  viewerId?: string;
+  label: string;
+  /**
+   * Called when this card's own action changed the proposal's state under the viewer (they
+   * withdrew it, or found it withdrawn), so the list can keep the card in view to show that.
+   */
+  onStateSeen?: (proposalId: string) => void;
+}
+
+/**
+ * The current marking and a proposal side by side; the owner accepts or declines with a reply,
+ * the author may withdraw it while it is undecided.
+ */
+export function ProposalCard({ partId, proposal, isOwner, viewerId, label, onStateSeen }: ProposalCardProps) {
   const accept = useAcceptProposal(partId);
   const decline = useDeclineProposal(partId);
+  const withdraw = useWithdrawProposal(partId);
   const [reply, setReply] = useState<string | null>(null);
+  const [confirmingWithdraw, setConfirmingWithdraw] = useState(false);
   const replyId = useId();
   const current = proposal.current;
   const open = proposal.status === "open" && !proposal.stale;
   const decidable = proposal.status === "open" || proposal.status === "stale";
-  const error = accept.error ?? decline.error;
+  const withdrawn = proposal.status === "withdrawn";
+  const isAuthor = !isOwner && viewerId !== undefined && proposal.authorId === viewerId;
+  const error = accept.error ?? decline.error ?? withdraw.error;
+  const seeIfWithdrawn = (err: Error) => {
+    if (err instanceof ApiError && err.code === "conflict:proposal_withdrawn") onStateSeen?.(proposal.id);
+  };
 
   return (
-    <article className="rounded-card border border-ink/30 bg-paper-card p-3" data-testid="proposal-card" aria-label={`Proposal by ${proposal.authorName} for ${label}`}>
+    <article
+      className={`rounded-card border bg-paper-card p-3 ${withdrawn ? "border-dashed border-ink/40" : "border-ink/30"}`}
+      data-testid="proposal-card"
+      data-status={proposal.status}
+      aria-label={`Proposal by ${proposal.authorName} for ${label}`}
+    >
       <header className="flex flex-wrap items-baseline justify-between gap-2">
         <p className="text-sm">
           <span className="font-semibold">{proposal.authorName}</span> proposes · {formatWhen(proposal.createdAt)}
@@ -56,7 +86,13 @@ export function ProposalCard({ partId, proposal, isOwner, label }: { partId: str
         </span>
       </header>
       {proposal.comment ? <p className="mt-2 whitespace-pre-wrap break-words">{proposal.comment}</p> : null}
-      {proposal.stale ? (
+      {withdrawn ? (
+        <p className="mt-2 rounded border border-dashed border-ink/40 bg-paper-deep px-2 py-1 text-sm" role="status" data-testid="proposal-withdrawn">
+          {proposal.authorId === viewerId ? "You" : proposal.authorName} withdrew this proposal
+          {proposal.decidedAt ? ` · ${formatWhen(proposal.decidedAt)}` : ""}. It will not be applied.
+        </p>
+      ) : null}
+      {proposal.stale && !withdrawn ? (
         <p className="mt-2 rounded border border-caution bg-paper-deep px-2 py-1 text-sm" role="status">
           The marking changed after this proposal was made, so it cannot be applied as it is. Compare, then decline it or ask for a new one.
         </p>
@@ -93,7 +129,7 @@ export function ProposalCard({ partId, proposal, isOwner, label }: { partId: str
         reply === null ? (
           <div className="mt-3 flex flex-wrap gap-2">
             {open ? (
-              <button type="button" disabled={accept.isPending} onClick={() => accept.mutate(proposal.id)} className="rounded-card bg-ink px-3 py-1.5 text-sm font-semibold text-paper disabled:opacity-50">
+              <button type="button" disabled={accept.isPending} onClick={() => accept.mutate(proposal.id, { onError: seeIfWithdrawn })} className="rounded-card bg-ink px-3 py-1.5 text-sm font-semibold text-paper disabled:opacity-50">
                 Accept proposal
               </button>
             ) : null}
@@ -106,7 +142,7 @@ export function ProposalCard({ partId, proposal, isOwner, label }: { partId: str
             className="mt-3 grid gap-2"
             onSubmit={(e) => {
               e.preventDefault();
-              decline.mutate({ proposalId: proposal.id, reply }, { onSuccess: () => setReply(null) });
+              decline.mutate({ proposalId: proposal.id, reply }, { onSuccess: () => setReply(null), onError: seeIfWithdrawn });
             }}
           >
             <label htmlFor={replyId} className="text-sm text-graphite">Reply (optional)</label>
@@ -116,6 +152,40 @@ export function ProposalCard({ partId, proposal, isOwner, label }: { partId: str
               <button type="button" className="text-sm text-graphite underline" onClick={() => setReply(null)}>Cancel</button>
             </span>
           </form>
+        )
+      ) : null}
+      {isAuthor && decidable ? (
+        confirmingWithdraw ? (
+          <div className="mt-3 grid gap-2" role="group" aria-label="Withdraw this proposal?">
+            <p className="text-sm">Withdraw this proposal? The owner will see it as withdrawn; you can propose again later.</p>
+            <span className="flex flex-wrap gap-2">
+              <button
+                type="button"
+                disabled={withdraw.isPending}
+                onClick={() =>
+                  withdraw.mutate(proposal.id, {
+                    onSuccess: () => {
+                      setConfirmingWithdraw(false);
+                      onStateSeen?.(proposal.id);
+                    },
+                    onError: seeIfWithdrawn,
+                  })
+                }
+                className="min-h-11 rounded-card border border-ink/40 px-3 py-1.5 text-sm font-semibold disabled:opacity-50"
+              >
+                {withdraw.isPending ? "Withdrawing…" : "Withdraw proposal"}
+              </button>
+              <button type="button" className="min-h-11 px-2 text-sm text-graphite underline" onClick={() => setConfirmingWithdraw(false)}>
+                Keep it
+              </button>
+            </span>
+          </div>
+        ) : (
+          <div className="mt-3 flex flex-wrap gap-2">
+            <button type="button" onClick={() => setConfirmingWithdraw(true)} className="min-h-11 rounded-card border border-ink/40 px-3 py-1.5 text-sm font-semibold">
+              Withdraw
+            </button>
+          </div>
         )
       ) : null}
     </article>

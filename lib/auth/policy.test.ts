@@ -66,6 +66,34 @@ describe("policy: parts", () => {
   });
 });
 
+describe("policy: withdrawing a proposal", () => {
+  /** A proposal on the owner's part, made by the teacher with the propose permission. */
+  const proposalAs = (viewer: CurrentUser | null, authorId = teacherPropose.id): Resource => {
+    const { share } = partAs(viewer) as Extract<Resource, { type: "part" }>;
+    return { type: "proposal", part, share, proposal: { authorId } };
+  };
+  // Columns as in the part table: anon, owner, otherPlayer, teacherComment, teacherPropose, teacherNone, admin.
+  const expected: Expect[] = [401, 403, 404, 403, "ok", 404, 404];
+  viewers.forEach((viewer, i) => {
+    it(`proposal:withdraw as ${cols[i]} → ${expected[i]}`, () => {
+      expect(outcome(viewer, "proposal:withdraw", proposalAs(viewer))).toBe(expected[i]);
+      expect(can(viewer, "proposal:withdraw", proposalAs(viewer))).toBe(expected[i] === "ok");
+    });
+  });
+
+  it("lets an author whose share was narrowed to comment still take back their own proposal", () => {
+    expect(can(teacherComment, "proposal:withdraw", proposalAs(teacherComment, teacherComment.id))).toBe(true);
+  });
+
+  it("refuses an author who no longer sees the part, as if it did not exist", () => {
+    expect(outcome(teacherNone, "proposal:withdraw", proposalAs(teacherNone, teacherNone.id))).toBe(404);
+  });
+
+  it("does not apply to a part resource", () => {
+    expect(can(teacherPropose, "proposal:withdraw", partAs(teacherPropose))).toBe(false);
+  });
+});
+
 describe("policy: accounts and studios", () => {
   const studio = { id: "s1", teacherId: teacherNone.id };
   const member = person("member", "player");

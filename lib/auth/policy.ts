@@ -16,6 +16,9 @@ import type { CurrentUser } from "./types";
  * - Admins cannot change their own role or disable themselves (no lock-out by accident).
  * - A part's practice log and takes are the owner's: only the owner writes them; a teacher the
  *   part is shared with may read them (following progress is part of teaching), nobody else.
+ * - A proposal is withdrawn only by its author, and only while they still see the part (a
+ *   downgraded share may still take back what it proposed). Whether it is still open is a
+ *   question of state, answered 409 by the route, not of rights.
  */
 
 export type SharePermission = "comment" | "propose";
@@ -41,7 +44,8 @@ export type Resource =
   | { type: "studio"; studio: StudioRef; isMember: boolean }
   | { type: "studio_member"; studio: StudioRef; playerId: string }
   | { type: "invitation"; invitation: { email: string }; studio: StudioRef }
-  | { type: "part"; part: PartRef; share?: ShareRef | null };
+  | { type: "part"; part: PartRef; share?: ShareRef | null }
+  | { type: "proposal"; part: PartRef; share?: ShareRef | null; proposal: { authorId: string } };
 
 export type Action =
   | "admin:list_users"
@@ -62,6 +66,7 @@ export type Action =
   | "part:comment"
   | "part:propose"
   | "marking:write"
+  | "proposal:withdraw"
   | "practice:view"
   | "practice:write";
 
@@ -87,6 +92,7 @@ export const ACTION_RESOURCE: Record<Action, ResourceType> = {
   "part:comment": "part",
   "part:propose": "part",
   "marking:write": "part",
+  "proposal:withdraw": "proposal",
   "practice:view": "part",
   "practice:write": "part",
 };
@@ -111,6 +117,7 @@ function visible(user: CurrentUser, action: Action, resource: Resource): boolean
       // Whoever holds the token may see where it leads; acceptance checks the address.
       return true;
     case "part":
+    case "proposal":
       return resource.part.ownerId === user.id || !!resource.share;
   }
 }
@@ -156,6 +163,8 @@ function allowed(user: CurrentUser, action: Action, resource: Resource): boolean
       return resource.type === "part" && resource.part.ownerId === user.id;
     case "part:propose":
       return resource.type === "part" && resource.part.ownerId !== user.id && resource.share?.permission === "propose";
+    case "proposal:withdraw":
+      return resource.type === "proposal" && resource.proposal.authorId === user.id;
   }
 }
 
@@ -172,6 +181,7 @@ const FORBIDDEN_MESSAGES: Partial<Record<Action, string>> = {
   "invitation:accept": "This invitation was sent to a different e-mail address.",
   "part:propose": "Proposals need a share with the propose permission.",
   "practice:write": "Only the part's owner keeps its practice log and takes.",
+  "proposal:withdraw": "Only the person who made this proposal can withdraw it; the part's owner accepts or declines it.",
 };
 
 /**

@@ -50,11 +50,6 @@ export interface CreatedPart {
 }
 
 /**
- * Stores an uploaded file as a new part. A file exported by Ondula carries its markings in hidden
- * records (lib/export/README.md); those on the chosen part's notes become the new part's markings,
- * written by the uploader as one history step, so importing an export recovers every marking.
- */
-/**
  * For a page about one part: sends a visitor without a session to sign in (and back to `path`),
  * and answers "not found" for a part the viewer may not see, exactly as for one that is not there.
  */
@@ -80,6 +75,11 @@ export async function partTitleForViewer(partId: string): Promise<string | null>
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
+/**
+ * Stores an uploaded file as a new part. A file exported by Ondula carries its markings in hidden
+ * records (lib/export/README.md); those on the chosen part's notes become the new part's markings,
+ * written by the uploader as one history step, so importing an export recovers every marking.
+ */
 export async function createPartFromFile(user: CurrentUser, fileName: string, bytes: Uint8Array): Promise<CreatedPart> {
   const ingested = ingestScore(bytes, fileName, readLimits());
   const { markings, problems } = extractMarkingsWithReport(ingested.partwiseXml);

@@ -12,6 +12,7 @@ import {
 } from "@/db/shares";
 import type { Part, Share } from "@/db/schema";
 import { markEmailVerified } from "@/db/users";
+import { notifyParticipants } from "./notify";
 
 /** An invitation link works for 14 days. */
 export const SHARE_TTL_MS = 14 * 24 * 3600_000;
@@ -123,7 +124,17 @@ export async function acceptInvitation(token: string, viewer: CurrentUser): Prom
       if (!ok) throw new AppError("conflict:invitation_used", "This invitation has just been used or withdrawn.");
       // The link reached this mailbox, so the address is confirmed (as with studio invitations).
       if (!viewer.emailVerified) await markEmailVerified({ userId: viewer.id });
-      return { partId: found.invitation.share.partId };
+      const { partId } = found.invitation.share;
+      // The owner learns the part is now seen; part-wide, so opening the part's thread reads it.
+      await notifyParticipants({
+        partId,
+        actorId: viewer.id,
+        kind: "invitation_accepted",
+        threadKey: PART_THREAD,
+        summary: `${viewer.name} accepted your invitation to ${found.invitation.partTitle}`,
+        onlyUserIds: [found.invitation.ownerId],
+      });
+      return { partId };
     }
   }
 }

@@ -47,6 +47,7 @@ export interface ThreadMarker extends ThreadSummary {
   openProposals: number;
 }
 
+/** `withdrawn`: its author took it back before the owner decided. */
 export type ProposalStatus = "open" | "accepted" | "declined" | "stale" | "withdrawn";
 
 export interface ProposalDto {

@@ -90,4 +90,41 @@ describe("the library in the browser", () => {
     await page.waitForFunction((n) => document.querySelectorAll("tbody tr").length === n, 4);
     expect(await rowTitles(page)).not.toContain("Audition copy");
   });
+
+  it("tells how many markings came in with an Ondula export, and the library counts them", async () => {
+    // A marked part exported as MusicXML, through the same routes the workspace uses.
+    const exported = await page.evaluate(async () => {
+      const json = (method: string, body: unknown): RequestInit => ({ method, headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+      const source = await (await fetch("/api/parts/samples", json("POST", { name: "harbour-song.musicxml" }))).json();
+      const analysis = await (await fetch(`/api/parts/${source.id}/analysis`)).json();
+      const keys: string[] = analysis.notes.map((n: { key: string }) => n.key);
+      const values = [
+        { depthCents: 15, speedHz: 5, placement: "centered", onset: "immediate", shape: "steady", role: "phrase-start", comment: "" },
+        { depthCents: 30, speedHz: 6, placement: "centered", onset: "delayed", shape: "growing", role: "peak", comment: "Bloom" },
+        { depthCents: 0, speedHz: 5.5, placement: "centered", onset: "immediate", shape: "steady", role: "resolution", comment: "" },
+      ];
+      for (let i = 0; i < values.length; i++) {
+        const res = await fetch(`/api/parts/${source.id}/markings/${encodeURIComponent(keys[i * 3])}`, json("PUT", values[i]));
+        if (res.status !== 201) throw new Error(`marking answered ${res.status}`);
+      }
+      return (await fetch(`/api/parts/${source.id}/export?format=musicxml`)).text();
+    });
+    expect(exported).toContain("ondula-marking");
+
+    await backToLibrary(page);
+    await page.getByLabel("Choose a file").setInputFiles({ name: "harbour-song-marked.musicxml", mimeType: "application/xml", buffer: Buffer.from(exported) });
+    const notice = page.getByTestId("import-notice");
+    await notice.waitFor();
+    expect(await notice.getByText("Imported 3 markings from the file.").count()).toBe(1);
+    expect(await page.getByRole("button", { name: "Open the part" }).evaluate((b) => b === document.activeElement)).toBe(true);
+    await page.locator("section", { has: notice }).screenshot({ path: screenshotPath("library-import-notice") });
+
+    await page.getByRole("button", { name: "Open the part" }).click();
+    await page.waitForURL(/\/parts\/[0-9a-f-]{36}$/);
+    const partId = new URL(page.url()).pathname.split("/").pop()!;
+    await backToLibrary(page);
+    const row = page.locator("tbody tr", { has: page.locator(`a[href="/parts/${partId}"]`) });
+    // Columns: title, composer, key, bars, markings.
+    expect(await row.locator("td").nth(4).textContent()).toBe("3");
+  });
 });

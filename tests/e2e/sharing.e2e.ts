@@ -5,7 +5,8 @@ import type { BrowserContext, Page } from "playwright-core";
 import { launchContext, screenshotPath } from "../helpers/browser";
 import { APP_URL } from "../helpers/env";
 import { createUser, type TestUser } from "../helpers/session";
-import { waitForMails } from "../helpers/sharing";
+import { measureSideTabs } from "../helpers/pages";
+import { passEmailWindow, waitForMails } from "../helpers/sharing";
 
 const FIXTURE = path.resolve("tests/fixtures/sharing/two-bars.musicxml");
 const DIGEST = /new(?: items)? on “/;
@@ -73,6 +74,12 @@ describe("sharing a part with a teacher", () => {
     await t.waitForURL(new RegExp(`/parts/${partId}`), { timeout: 30_000 });
     await waitForScore(t);
 
+    // ——— the player hears at once that the invitation was accepted ———
+    const [accepted] = await waitForMails(player.email, DIGEST);
+    expect(accepted.text).toContain("Theo Teacher accepted your invitation to Two Bars for Sharing");
+    // So the comment below is e-mailed at once too, rather than waiting out the 10-minute batch.
+    await passEmailWindow(player.id, partId);
+
     // ——— comment on a note and propose a change ———
     const noteKey = (await t.locator('[data-layer="hits"] rect[data-note-key]').nth(2).getAttribute("data-note-key"))!;
     await t.getByRole("tab", { name: /Discussion/ }).click();
@@ -93,7 +100,7 @@ describe("sharing a part with a teacher", () => {
     await t.screenshot({ path: screenshotPath("sharing-teacher-proposes"), fullPage: false });
 
     // ——— the player is notified (in the app and by e-mail with a link to the note) ———
-    const [digest] = await waitForMails(player.email, DIGEST);
+    const [digest] = await waitForMails(player.email, DIGEST, 2);
     expect(digest.text).toContain("Theo Teacher commented");
     const noteLink = digest.links.find((l) => l.includes(`?note=${encodeURIComponent(noteKey)}`))!;
     expect(noteLink).toBeTruthy();
@@ -101,6 +108,9 @@ describe("sharing a part with a teacher", () => {
     await p.getByRole("row").filter({ hasText: "Two Bars for Sharing" }).getByTestId("unread-badge").waitFor();
     await p.goto(noteLink);
     await waitForScore(p);
+    // The Discussion tab's unread badge and the count of suggestions stay on one line beside the labels.
+    await p.getByRole("tab", { name: /^Discussion \d+ unread$/ }).waitFor();
+    expect(await measureSideTabs(p)).toMatchObject({ oneLine: true, clipped: [], rowOverflows: false });
     const pPanel = p.getByTestId("discussion-panel");
     const card = pPanel.getByTestId("proposal-card");
     await card.waitFor();
@@ -128,6 +138,38 @@ describe("sharing a part with a teacher", () => {
     expect(await shared.getByRole("rowheader").first().textContent()).toContain("Pia Player");
     expect(await row.getByTestId("unread-badge").textContent()).toBe("1");
     await t.screenshot({ path: screenshotPath("sharing-teacher-studio"), fullPage: false });
+
+    // ——— the teacher proposes on another note, then withdraws it ———
+    const otherKey = (await p.locator('[data-layer="hits"] rect[data-note-key]').nth(4).getAttribute("data-note-key"))!;
+    await t.goto(`${APP_URL}/parts/${partId}?note=${encodeURIComponent(otherKey)}`);
+    await waitForScore(t);
+    const tPanel2 = t.getByTestId("discussion-panel");
+    await tPanel2.getByRole("button", { name: "Propose a change to this marking" }).click();
+    const form2 = tPanel2.getByTestId("proposal-form");
+    await form2.getByLabel("Depth (cents)").fill("18");
+    await form2.getByLabel(/Why/).fill("Lighter, to leave room for the peak.");
+    await form2.getByRole("button", { name: "Send proposal" }).click();
+    const mine = tPanel2.getByRole("region", { name: "Proposals" }).getByTestId("proposal-card");
+    await mine.getByRole("button", { name: "Withdraw", exact: true }).click();
+    await mine.getByRole("button", { name: "Withdraw proposal" }).click();
+    await tPanel2.locator('[data-testid="proposal-card"][data-status="withdrawn"]').waitFor();
+    expect(await mine.getByTestId("proposal-status").textContent()).toBe("Withdrawn");
+    expect(await mine.getByTestId("proposal-withdrawn").textContent()).toMatch(/^You withdrew this proposal/);
+    expect(await mine.getByRole("button").count()).toBe(0);
+    await mine.screenshot({ path: screenshotPath("sharing-proposal-withdrawn-teacher") });
+    // The marker no longer counts a proposal on that note.
+    await t.locator(`[data-glyph="comment"][data-note-key="${otherKey}"]`).waitFor({ state: "detached" });
+
+    // The player sees it among the earlier proposals, as withdrawn, with nothing to decide.
+    await p.goto(`${APP_URL}/parts/${partId}?note=${encodeURIComponent(otherKey)}`);
+    await waitForScore(p);
+    const earlier = p.getByTestId("discussion-panel").locator("details", { hasText: "Earlier proposals (1)" });
+    await earlier.locator("summary").click();
+    const theirs = earlier.getByTestId("proposal-card");
+    expect(await theirs.getByTestId("proposal-status").textContent()).toBe("Withdrawn");
+    expect(await theirs.getByTestId("proposal-withdrawn").textContent()).toMatch(/^Theo Teacher withdrew this proposal/);
+    expect(await theirs.getByRole("button", { name: /Accept|Decline/ }).count()).toBe(0);
+    await theirs.screenshot({ path: screenshotPath("sharing-proposal-withdrawn-owner") });
 
     // ——— the player revokes; the teacher's next request is refused ———
     await p.getByRole("button", { name: "Share", exact: true }).click();

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { BrowserContext, Page } from "playwright-core";
 import { launchContext, screenshotPath } from "../helpers/browser";
 import { APP_URL } from "../helpers/env";
-import { signInThroughForm } from "../helpers/pages";
+import { measureSideTabs, signInThroughForm, widestTabCounts } from "../helpers/pages";
 import { createUser } from "../helpers/session";
 
 const hit = (page: Page, key: string) => page.locator(`[data-layer="hits"] [data-note-key="${key}"]`);
@@ -135,11 +135,29 @@ describe("the marking workspace", () => {
     await second.close();
   });
 
+  it("keeps the side panel's tab labels and counts on one line on laptops and tablets", async () => {
+    // 1280 px: a common laptop; 1024 px: a tablet held landscape (the narrowest width with the side rail).
+    for (const [width, height] of [[1280, 860], [1024, 768]]) {
+      await page.setViewportSize({ width, height });
+      await openWorkspace(page, partId);
+      const tab = page.getByRole("tab", { name: /^Suggestions \d+ to decide$/ });
+      await tab.waitFor();
+      const layout = await measureSideTabs(page);
+      expect(layout, `at ${width} px`).toMatchObject({ oneLine: true, clipped: [], rowOverflows: false });
+      expect(layout.labels[2]).toMatch(/^Suggestions\s*\d+$/);
+      await widestTabCounts(page);
+      expect(await measureSideTabs(page), `at ${width} px with 99+ on both`).toMatchObject({ oneLine: true, clipped: [], rowOverflows: false });
+      await page.getByRole("complementary", { name: "Marking and suggestions" }).screenshot({ path: screenshotPath(`workspace-side-tabs-${width}`) });
+    }
+  });
+
   it("fits a tablet", async () => {
     await page.setViewportSize({ width: 820, height: 1180 });
     await openWorkspace(page, partId);
     await hit(page, keys[4]).click();
     await page.getByTestId("marking-panel").waitFor();
+    // Held upright the side panel is a sheet across the whole width: the tabs fit with room to spare.
+    expect(await measureSideTabs(page)).toMatchObject({ oneLine: true, clipped: [], rowOverflows: false });
     await page.screenshot({ path: screenshotPath("workspace-tablet") });
   });
 });

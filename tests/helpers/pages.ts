@@ -31,3 +31,48 @@ export async function signUpAndSignIn(page: Page, o: { name: string; email: stri
   await page.getByText("Your e-mail address is confirmed.").waitFor();
   await signInThroughForm(page, o.email, o.password, o.callbackUrl);
 }
+
+export interface SideTabsLayout {
+  labels: string[];
+  /** Every tab on the same line, none taller than one 44 px row. */
+  oneLine: boolean;
+  /** Tabs whose label and count do not fit inside them, and whether the row itself overflows. */
+  clipped: string[];
+  rowOverflows: boolean;
+}
+
+/** Measures the workspace's side-panel tabs as laid out in the browser. */
+export async function measureSideTabs(page: Page): Promise<SideTabsLayout> {
+  return page.getByRole("tablist", { name: "Side panel" }).evaluate((list) => {
+    const tabs = [...list.querySelectorAll<HTMLElement>('[role="tab"]')];
+    const boxes = tabs.map((t) => t.getBoundingClientRect());
+    return {
+      labels: tabs.map((t) => t.textContent ?? ""),
+      oneLine: boxes.every((b) => Math.abs(b.top - boxes[0].top) < 1 && b.height <= 45),
+      clipped: tabs.filter((t) => t.scrollWidth > t.clientWidth + 0.5).map((t) => t.textContent ?? ""),
+      rowOverflows: list.scrollWidth > list.clientWidth + 0.5,
+    };
+  });
+}
+
+/**
+ * Puts the widest counts the badges can show ("99+") on the Suggestions and Discussion tabs, so a
+ * layout check covers the worst case without making a hundred of each.
+ */
+export async function widestTabCounts(page: Page): Promise<void> {
+  await page.getByRole("tablist", { name: "Side panel" }).evaluate((list) => {
+    const [, discussion, suggestions] = [...list.querySelectorAll<HTMLElement>('[role="tab"]')];
+    const count = suggestions.querySelector<HTMLElement>('[data-testid="count-badge"]');
+    if (!count) throw new Error("no count badge on the Suggestions tab");
+    count.textContent = "99+";
+    let unread = discussion.querySelector<HTMLElement>('[data-testid="unread-badge"]');
+    if (!unread) {
+      unread = document.createElement("span");
+      // The unread badge's own classes (components/sharing/unread-badge.tsx).
+      unread.className = "ml-1 inline-flex min-w-5 items-center justify-center rounded-full bg-ink px-1.5 text-xs font-semibold leading-5 text-paper";
+      unread.dataset.testid = "unread-badge";
+      discussion.append(unread);
+    }
+    unread.textContent = "99+";
+  });
+}

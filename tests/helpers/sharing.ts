@@ -1,4 +1,7 @@
 import { createHash } from "node:crypto";
+import { and, eq, sql } from "drizzle-orm";
+import { db } from "@/db/client";
+import { notifications } from "@/db/schema";
 import { MAIL_API_URL } from "./env";
 import type { Client } from "./parts";
 import type { CaughtMessage } from "@/lib/mail/caught-message";
@@ -52,4 +55,15 @@ export async function invite(owner: Client, partId: string, email: string, permi
 
 export async function accept(client: Client, token: string) {
   return client.fetch("/api/shares/accept", json({ token }));
+}
+
+/**
+ * Moves every e-mail stamp of the (recipient, part) pair back past the 10-minute batching window,
+ * so the next event e-mails at once.
+ */
+export async function passEmailWindow(userId: string, partId: string) {
+  await db()
+    .update(notifications)
+    .set({ emailedAt: sql`${notifications.emailedAt} - interval '11 minutes'` })
+    .where(and(eq(notifications.userId, userId), eq(notifications.partId, partId), sql`${notifications.emailedAt} is not null`));
 }

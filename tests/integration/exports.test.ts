@@ -69,6 +69,9 @@ describe("exports of a marked part", () => {
     const back = (await (await client.fetch(`/api/parts/${created.id}/markings`)).json()).markings as MarkingDto[];
     const values = new Map(back.map(({ noteKey, version: _v, authorId: _a, updatedAt: _u, ...v }) => [noteKey, v]));
     expect(values).toEqual(marked);
+    // The library's markings column counts them.
+    const listed = (await (await client.fetch("/api/parts?sort=-updated")).json()).items.find((p: { id: string }) => p.id === created.id);
+    expect(listed.markingCount).toBe(marked.size);
     // The engraving no longer prints the old labels: the markings live in the database now.
     const stored = await (await client.fetch(`/api/parts/${created.id}/musicxml`)).text();
     expect(stored).not.toContain("ondula-marking");

@@ -1,6 +1,6 @@
 import fs from "node:fs";
 import path from "node:path";
-import { and, eq, sql } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/db/client";
 import { markingHistory, notifications, proposals, shares, users } from "@/db/schema";
@@ -8,7 +8,7 @@ import { DEFAULT_MARKING } from "@/lib/markings/schema";
 import { COMMENT_MAX_LENGTH } from "@/lib/sharing/comment-text";
 import { multipartFile } from "../helpers/parts";
 import { createSignedInUser, type ApiClient, type TestUser } from "../helpers/session";
-import { accept, invite, json, mailTo, sha256, waitForMails } from "../helpers/sharing";
+import { accept, invite, json, mailTo, passEmailWindow, sha256, waitForMails } from "../helpers/sharing";
 
 const DIGEST = /new(?: items)? on “/;
 
@@ -26,14 +26,6 @@ async function newPart(owner: ApiClient) {
 
 async function person(role: "player" | "teacher") {
   return createSignedInUser({ role });
-}
-
-/** Moves every e-mail stamp of the pair back past the 10-minute window. */
-async function passWindow(userId: string, partId: string) {
-  await db()
-    .update(notifications)
-    .set({ emailedAt: sql`${notifications.emailedAt} - interval '11 minutes'` })
-    .where(and(eq(notifications.userId, userId), eq(notifications.partId, partId), sql`${notifications.emailedAt} is not null`));
 }
 
 describe("invitations", () => {
@@ -141,6 +133,188 @@ describe("invitations", () => {
     expect((await perm.json()).field).toBe("permission");
     const byStranger = await stranger.client.fetch(`/api/parts/${partId}/shares`, json({ email: "y@example.test", permission: "comment" }));
     expect(byStranger.status).toBe(404);
+  });
+});
+
+describe("the owner hears that an invitation was accepted", () => {
+  it("notifies the owner in the app and by e-mail, and only the owner", async () => {
+    const [owner, teacher, listener] = await Promise.all([person("player"), person("teacher"), person("teacher")]);
+    const { partId } = await newPart(owner.client);
+    const title = (await (await owner.client.fetch(`/api/parts/${partId}`)).json()).title;
+    expect(title).toBe("Two Bars for Sharing");
+    const { token } = await invite(owner.client, partId, teacher.user.email, "comment");
+
+    // A refused acceptance (another account) tells the owner nothing.
+    expect((await accept(listener.client, token)).status).toBe(403);
+    expect((await (await owner.client.fetch(`/api/notifications?partId=${partId}`)).json()).items).toEqual([]);
+
+    expect((await accept(teacher.client, token)).status).toBe(200);
+    const summary = `${teacher.user.name} accepted your invitation to Two Bars for Sharing`;
+    const inApp = await (await owner.client.fetch(`/api/notifications?partId=${partId}`)).json();
+    expect(inApp.unread).toBe(1);
+    expect(inApp.items).toEqual([
+      expect.objectContaining({ kind: "invitation_accepted", summary, actorName: teacher.user.name, read: false, threadKey: "part", url: `/parts/${partId}?thread=part` }),
+    ]);
+    // The library's badge reads the same per-part count.
+    const all = await (await owner.client.fetch(`/api/notifications`)).json();
+    expect(all.parts).toContainEqual({ partId, unread: 1 });
+    // Nobody is told of their own acceptance.
+    expect((await (await teacher.client.fetch(`/api/notifications?partId=${partId}`)).json()).items).toEqual([]);
+
+    // The batched e-mail goes out at once: nothing was e-mailed about this part to the owner before.
+    const [mail] = await waitForMails(owner.user.email, DIGEST, 1);
+    expect(mail.subject).toBe("Something new on “Two Bars for Sharing”");
+    expect(mail.text).toContain(summary);
+    expect(mail.links.some((l) => l.endsWith(`/parts/${partId}?thread=part`))).toBe(true);
+    expect((await mailTo(teacher.user.email)).filter((m) => DIGEST.test(m.subject))).toEqual([]);
+
+    // Opening the whole part's thread reads it, as the workspace's Discussion tab does.
+    const read = await owner.client.fetch(`/api/notifications/read`, json({ partId, thread: "part" }));
+    expect((await read.json()).updated).toBe(1);
+    expect((await (await owner.client.fetch(`/api/notifications?partId=${partId}`)).json()).unread).toBe(0);
+  });
+
+  it("is not repeated when the same invitation is tried again", async () => {
+    const [owner, teacher] = await Promise.all([person("player"), person("teacher")]);
+    const { partId } = await newPart(owner.client);
+    const { token } = await invite(owner.client, partId, teacher.user.email, "propose");
+    const [first, second] = await Promise.all([accept(teacher.client, token), accept(teacher.client, token)]);
+    expect([first.status, second.status].sort()).toEqual([200, 409]);
+    const rows = await db().select().from(notifications).where(and(eq(notifications.partId, partId), eq(notifications.kind, "invitation_accepted")));
+    expect(rows).toHaveLength(1);
+    expect(rows[0].userId).toBe(owner.user.id);
+  });
+});
+
+describe("withdrawing a proposal", () => {
+  let owner: { user: TestUser; client: ApiClient };
+  let teacher: { user: TestUser; client: ApiClient };
+  let listener: { user: TestUser; client: ApiClient };
+  let stranger: { user: TestUser; client: ApiClient };
+  let partId: string;
+  let keys: string[];
+
+  beforeAll(async () => {
+    [owner, teacher, listener, stranger] = await Promise.all([person("player"), person("teacher"), person("teacher"), person("teacher")]);
+    ({ partId, keys } = await newPart(owner.client));
+    const a = await invite(owner.client, partId, teacher.user.email, "propose");
+    expect((await accept(teacher.client, a.token)).status).toBe(200);
+    const b = await invite(owner.client, partId, listener.user.email, "propose");
+    expect((await accept(listener.client, b.token)).status).toBe(200);
+  });
+
+  const base = () => `/api/parts/${partId}/proposals`;
+  async function propose(noteKey: string, depthCents = 25, by = teacher.client) {
+    const markings = (await (await owner.client.fetch(`/api/parts/${partId}/markings`)).json()).markings as { noteKey: string; version: number }[];
+    const baseVersion = markings.find((m) => m.noteKey === noteKey)?.version ?? null;
+    const res = await by.fetch(base(), json({ noteKey, baseVersion, marking: { ...DEFAULT_MARKING, depthCents }, comment: "Try this." }));
+    expect(res.status).toBe(201);
+    return (await res.json()) as { id: string };
+  }
+  const act = (client: ApiClient, proposalId: string, action: "accept" | "decline" | "withdraw") =>
+    client.fetch(`${base()}/${proposalId}/${action}`, action === "decline" ? json({ reply: "" }) : { method: "POST" });
+  const openCount = async (noteKey: string) => {
+    const summary = await (await owner.client.fetch(`/api/parts/${partId}/comments/summary`)).json();
+    return summary.threads.find((t: { threadKey: string }) => t.threadKey === noteKey)?.openProposals ?? 0;
+  };
+
+  it("lets the author withdraw an open proposal; the owner can then neither accept nor decline it", async () => {
+    const key = keys[0];
+    const made = await propose(key);
+    expect(await openCount(key)).toBe(1);
+
+    const res = await act(teacher.client, made.id, "withdraw");
+    expect(res.status).toBe(200);
+    const body = await res.json();
+    expect(body).toMatchObject({ id: made.id, status: "withdrawn", stale: false });
+    expect(body.decidedAt).not.toBeNull();
+    expect(await openCount(key)).toBe(0);
+
+    const listed = await (await owner.client.fetch(`${base()}?status=withdrawn`)).json();
+    expect(listed.proposals.map((p: { id: string }) => p.id)).toEqual([made.id]);
+
+    for (const action of ["accept", "decline"] as const) {
+      const refused = await act(owner.client, made.id, action);
+      expect(refused.status, action).toBe(409);
+      expect(await refused.json()).toEqual({
+        code: "conflict:proposal_withdrawn",
+        message: `${teacher.user.name} withdrew this proposal, so there is nothing to ${action}.`,
+      });
+    }
+    // Nothing was applied and the proposal is still withdrawn, with no reply.
+    const markings = (await (await owner.client.fetch(`/api/parts/${partId}/markings`)).json()).markings as { noteKey: string }[];
+    expect(markings.find((m) => m.noteKey === key)).toBeUndefined();
+    expect((await db().select().from(markingHistory).where(eq(markingHistory.proposalId, made.id))).length).toBe(0);
+    const [stored] = await db().select().from(proposals).where(eq(proposals.id, made.id));
+    expect(stored).toMatchObject({ status: "withdrawn", reply: null });
+
+    const again = await act(teacher.client, made.id, "withdraw");
+    expect(again.status).toBe(409);
+    expect((await again.json()).message).toBe("You have already withdrawn this proposal.");
+  });
+
+  it("refuses to withdraw an accepted or declined proposal with 409", async () => {
+    const accepted = await propose(keys[1]);
+    expect((await act(owner.client, accepted.id, "accept")).status).toBe(200);
+    const late = await act(teacher.client, accepted.id, "withdraw");
+    expect(late.status).toBe(409);
+    const lateBody = await late.json();
+    expect(lateBody.code).toBe("conflict:proposal_decided");
+    expect(lateBody.message).toMatch(/already been accepted, so it can no longer be withdrawn/);
+
+    const declined = await propose(keys[2]);
+    expect((await act(owner.client, declined.id, "decline")).status).toBe(200);
+    const afterDecline = await act(teacher.client, declined.id, "withdraw");
+    expect(afterDecline.status).toBe(409);
+    expect((await afterDecline.json()).message).toMatch(/already been declined/);
+    const [stored] = await db().select().from(proposals).where(eq(proposals.id, declined.id));
+    expect(stored.status).toBe("declined");
+  });
+
+  it("lets only the author withdraw: the owner and another sharer get 403, a stranger 404", async () => {
+    const made = await propose(keys[3]);
+    const byOwner = await act(owner.client, made.id, "withdraw");
+    expect(byOwner.status).toBe(403);
+    expect((await byOwner.json()).message).toMatch(/Only the person who made this proposal can withdraw it/);
+    expect((await act(listener.client, made.id, "withdraw")).status).toBe(403);
+    expect((await act(stranger.client, made.id, "withdraw")).status).toBe(404);
+    expect((await teacher.client.fetch(`${base()}/not-a-uuid/withdraw`, { method: "POST" })).status).toBe(400);
+    expect((await teacher.client.fetch(`${base()}/00000000-0000-4000-8000-000000000000/withdraw`, { method: "POST" })).status).toBe(404);
+    const [stored] = await db().select().from(proposals).where(eq(proposals.id, made.id));
+    expect(stored.status).toBe("open");
+  });
+
+  it("lets the author take back a proposal that went stale", async () => {
+    const key = keys[4];
+    const url = `/api/parts/${partId}/markings/${encodeURIComponent(key)}`;
+    const v1 = (await (await owner.client.fetch(url, json({ ...DEFAULT_MARKING, depthCents: 10 }, "PUT"))).json()).marking;
+    const made = await propose(key, 40);
+    await owner.client.fetch(url, json({ ...DEFAULT_MARKING, depthCents: 15, version: v1.version }, "PUT"));
+    expect((await act(owner.client, made.id, "accept")).status).toBe(409);
+    const [stale] = await db().select().from(proposals).where(eq(proposals.id, made.id));
+    expect(stale.status).toBe("stale");
+    const res = await act(teacher.client, made.id, "withdraw");
+    expect(res.status).toBe(200);
+    expect((await res.json()).status).toBe("withdrawn");
+  });
+
+  it("lets exactly one of an accept and a withdrawal at the same moment win", async () => {
+    for (let i = 0; i < 3; i++) {
+      const key = keys[5 + i];
+      const made = await propose(key, 20 + i);
+      const [accepted, withdrawn] = await Promise.all([act(owner.client, made.id, "accept"), act(teacher.client, made.id, "withdraw")]);
+      expect([accepted.status, withdrawn.status].sort()).toEqual([200, 409]);
+      const [stored] = await db().select().from(proposals).where(eq(proposals.id, made.id));
+      const markings = (await (await owner.client.fetch(`/api/parts/${partId}/markings`)).json()).markings as { noteKey: string; depthCents: number }[];
+      if (accepted.status === 200) {
+        expect(stored.status).toBe("accepted");
+        expect(markings.find((m) => m.noteKey === key)?.depthCents).toBe(20 + i);
+      } else {
+        expect(stored.status).toBe("withdrawn");
+        expect((await accepted.json()).code).toBe("conflict:proposal_withdrawn");
+        expect(markings.find((m) => m.noteKey === key)).toBeUndefined();
+      }
+    }
   });
 });
 
@@ -333,41 +507,44 @@ describe("notification e-mail batching", () => {
     const { partId, keys } = await newPart(owner.client);
     const { token } = await invite(owner.client, partId, teacher.user.email, "comment");
     expect((await accept(teacher.client, token)).status).toBe(200);
+    // The acceptance is the pair's first e-mail; the comments below start after its window.
+    await waitForMails(owner.user.email, DIGEST, 1);
+    await passEmailWindow(owner.user.id, partId);
     const url = `/api/parts/${partId}/comments?thread=${encodeURIComponent(keys[1])}`;
 
     expect((await teacher.client.fetch(url, json({ body: "First thought" }))).status).toBe(201);
     expect((await teacher.client.fetch(url, json({ body: "Second thought" }))).status).toBe(201);
-    const first = await waitForMails(owner.user.email, DIGEST, 1);
+    const first = await waitForMails(owner.user.email, DIGEST, 2);
     await new Promise((r) => setTimeout(r, 300));
-    expect((await mailTo(owner.user.email)).filter((m) => DIGEST.test(m.subject))).toHaveLength(1);
+    expect((await mailTo(owner.user.email)).filter((m) => DIGEST.test(m.subject))).toHaveLength(2);
     expect(first[0].text).toContain("First thought");
     expect(first[0].text).not.toContain("Second thought");
     expect(first[0].links.some((l) => l.includes(`/parts/${partId}?note=${encodeURIComponent(keys[1])}`))).toBe(true);
 
     // The flush within the window sends nothing.
     const early = await (await fetch(new URL("/api/internal/flush-notifications", process.env.APP_URL), { method: "POST" })).json();
-    expect((await mailTo(owner.user.email)).filter((m) => DIGEST.test(m.subject))).toHaveLength(1);
+    expect((await mailTo(owner.user.email)).filter((m) => DIGEST.test(m.subject))).toHaveLength(2);
     expect(early.sent).toBeGreaterThanOrEqual(0);
 
-    await passWindow(owner.user.id, partId);
+    await passEmailWindow(owner.user.id, partId);
     const flushed = await fetch(new URL("/api/internal/flush-notifications", process.env.APP_URL), { method: "POST" });
     expect(flushed.status).toBe(200);
-    const second = await waitForMails(owner.user.email, DIGEST, 2);
+    const second = await waitForMails(owner.user.email, DIGEST, 3);
     expect(second[0].text).toContain("Second thought");
     expect(second[0].text).not.toContain("First thought");
 
     // After the window, the next event itself sends at once.
-    await passWindow(owner.user.id, partId);
+    await passEmailWindow(owner.user.id, partId);
     await teacher.client.fetch(url, json({ body: "Third thought" }));
-    const third = await waitForMails(owner.user.email, DIGEST, 3);
+    const third = await waitForMails(owner.user.email, DIGEST, 4);
     expect(third[0].text).toContain("Third thought");
 
     // E-mail turned off: the notification is in the app, no message goes out.
     await db().update(users).set({ emailNotifications: false }).where(eq(users.id, owner.user.id));
-    await passWindow(owner.user.id, partId);
+    await passEmailWindow(owner.user.id, partId);
     await teacher.client.fetch(url, json({ body: "Fourth thought" }));
     await new Promise((r) => setTimeout(r, 300));
-    expect((await mailTo(owner.user.email)).filter((m) => DIGEST.test(m.subject))).toHaveLength(3);
+    expect((await mailTo(owner.user.email)).filter((m) => DIGEST.test(m.subject))).toHaveLength(4);
     const inApp = await (await owner.client.fetch(`/api/notifications?partId=${partId}`)).json();
     expect(inApp.items[0].summary).toContain("Fourth thought");
   });

@@ -195,6 +195,14 @@ export const accessModule: AccessModule = {
       request: async (ctx) => ({ path: `/api/parts/${data(ctx).partId}/proposals/${await freshProposal(ctx)}/decline`, init: json("POST", { reply: "Not now." }) }),
       expect: ownerOnly(200),
     },
+    {
+      method: "POST",
+      route: "/api/parts/[partId]/proposals/[proposalId]/withdraw",
+      label: "the teacher's own open proposal",
+      request: async (ctx) => ({ path: `/api/parts/${data(ctx).partId}/proposals/${await freshProposal(ctx)}/withdraw` }),
+      // Only its author takes a proposal back; the owner declines instead.
+      expect: statuses(404, { anonymous: 401, owner: 403, teacherWithAccess: 200 }),
+    },
     { method: "GET", route: "/api/notifications", label: "all parts", request: () => ({ path: "/api/notifications" }), expect: signedIn },
     { method: "GET", route: "/api/notifications", label: "one part", request: (ctx) => ({ path: `/api/notifications?partId=${data(ctx).partId}` }), expect: view },
     {

@@ -28,6 +28,10 @@ export const POST = handle(async (request) => {
   const { name } = await parseJson(request, sampleBody);
   if (!(await sampleNames()).includes(name)) throw new AppError("not_found:sample", `There is no sample called ${name}.`);
   const bytes = new Uint8Array(await fs.readFile(path.join(samplesDir(), name)));
-  const { part } = await createPartFromFile(user, name, bytes);
-  return Response.json({ id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId }, { status: 201 });
+  const { part, importedMarkings, unreadableMarkings } = await createPartFromFile(user, name, bytes);
+  // The same answer as an upload, so the library treats both alike.
+  return Response.json(
+    { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId, importedMarkings, unreadableMarkings },
+    { status: 201 },
+  );
 });

@@ -16,7 +16,7 @@ export const dynamic = "force-dynamic";
 
 const listQuery = z.object({
   note: z.string().min(1).max(200).optional(),
-  status: z.enum(["open", "accepted", "declined", "stale", "all"]).default("all"),
+  status: z.enum(["open", "accepted", "declined", "stale", "withdrawn", "all"]).default("all"),
 });
 
 /** Proposals with the note's current marking beside each, so they can be compared. */

@@ -1,12 +1,12 @@
 import { randomUUID } from "node:crypto";
 import { handle, parseParams } from "@/lib/http/handler";
 import { requireUser } from "@/lib/auth/session";
-import { AppError } from "@/lib/errors";
 import { threadLabel } from "@/lib/sharing/note-label";
+import { PROPOSAL_ACTION_FROM } from "@/lib/sharing/proposal-state";
 import { proposalParams } from "@/lib/sharing/schemas";
 import { notifyParticipants } from "@/lib/server/notify";
 import { loadPart } from "@/lib/server/parts";
-import { loadProposal, proposalView } from "@/lib/server/proposals";
+import { assertProposalState, conflictAfterRace, loadProposal, proposalView } from "@/lib/server/proposals";
 import { getMarkingByNoteKey, writeMarking } from "@/db/markings";
 import { getProposalById, transitionProposal } from "@/db/proposals";
 
@@ -21,17 +21,10 @@ export const POST = handle(async (_request, { params }) => {
   const user = await requireUser();
   const { part } = await loadPart(user, partId, "marking:write");
   const proposal = await loadProposal(partId, proposalId);
-  if (proposal.status !== "open") {
-    throw new AppError(
-      proposal.status === "stale" ? "conflict:proposal_stale" : "conflict:proposal_decided",
-      proposal.status === "stale"
-        ? "This proposal was made against a marking that has changed since, so it cannot be applied. Decline it, or ask for a new one."
-        : `This proposal has already been ${proposal.status}.`,
-    );
-  }
-  // Claim first, so two windows accepting at once cannot both apply it.
-  const claimed = await transitionProposal({ proposalId, from: ["open"], to: "accepted" });
-  if (!claimed) throw new AppError("conflict:proposal_decided", "This proposal was decided in another window. Reload to see it.");
+  assertProposalState(proposal, "accept");
+  // Claim first, so two windows accepting at once (or the author withdrawing) cannot both win.
+  const claimed = await transitionProposal({ proposalId, from: [...PROPOSAL_ACTION_FROM.accept], to: "accepted" });
+  if (!claimed) throw await conflictAfterRace(partId, proposalId, "accept");
 
   const noteExists = part.noteKeys.includes(proposal.noteKey);
   let result: Awaited<ReturnType<typeof writeMarking>>;

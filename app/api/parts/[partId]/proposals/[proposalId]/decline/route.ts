@@ -1,12 +1,12 @@
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
 import { requireUser } from "@/lib/auth/session";
-import { AppError } from "@/lib/errors";
 import { excerpt } from "@/lib/sharing/comment-text";
 import { threadLabel } from "@/lib/sharing/note-label";
+import { PROPOSAL_ACTION_FROM } from "@/lib/sharing/proposal-state";
 import { declineBody, proposalParams } from "@/lib/sharing/schemas";
 import { notifyParticipants } from "@/lib/server/notify";
 import { loadPart } from "@/lib/server/parts";
-import { loadProposal, proposalView } from "@/lib/server/proposals";
+import { assertProposalState, conflictAfterRace, loadProposal, proposalView } from "@/lib/server/proposals";
 import { getMarkingByNoteKey } from "@/db/markings";
 import { getProposalById, transitionProposal } from "@/db/proposals";
 
@@ -19,8 +19,9 @@ export const POST = handle(async (request, { params }) => {
   const { reply } = await parseJson(request, declineBody);
   await loadPart(user, partId, "marking:write");
   const proposal = await loadProposal(partId, proposalId);
-  const declined = await transitionProposal({ proposalId, from: ["open", "stale"], to: "declined", reply: reply || null });
-  if (!declined) throw new AppError("conflict:proposal_decided", `This proposal has already been ${proposal.status}.`);
+  assertProposalState(proposal, "decline");
+  const declined = await transitionProposal({ proposalId, from: [...PROPOSAL_ACTION_FROM.decline], to: "declined", reply: reply || null });
+  if (!declined) throw await conflictAfterRace(partId, proposalId, "decline");
   await notifyParticipants({
     partId,
     actorId: user.id,
