@@ -1,12 +1,16 @@
 "use client";
 
 import { useEffect, useRef, useState } from "react";
-import { osmdNoteKeys } from "./osmd-note-keys";
+import type { NoteBox } from "@/lib/markings/glyph-geometry";
+import { measureNoteBoxes, noteBoxesFromModel } from "./measure-note-boxes";
+import { collectOsmdNotes, osmdNoteKeys } from "./osmd-note-keys";
 
 declare global {
   interface Window {
     /** Set by the development engraving page for the end-to-end key comparison. */
     __ondulaKeys?: string[];
+    /** The notes' boxes as the workspace reads them from the model, and as measured from the drawing. */
+    __ondulaNoteBoxes?: { model: NoteBox[] | null; drawn: NoteBox[] };
   }
 }
 
@@ -35,6 +39,13 @@ export function DevEngraving({ xml }: { xml: string }) {
         if (cancelled) return;
         osmd.render();
         window.__ondulaKeys = osmdNoteKeys(osmd);
+        const refs = collectOsmdNotes(osmd);
+        const svg = el.querySelector("svg")!.getBoundingClientRect();
+        const origin = el.getBoundingClientRect();
+        window.__ondulaNoteBoxes = {
+          model: noteBoxesFromModel(refs, { left: svg.left - origin.left, top: svg.top - origin.top }, osmd.Zoom),
+          drawn: measureNoteBoxes(refs, el, osmd.Zoom),
+        };
         setState("ready");
       } catch (err) {
         if (cancelled) return;
@@ -55,7 +66,7 @@ export function DevEngraving({ xml }: { xml: string }) {
           The score could not be engraved: {error}
         </p>
       )}
-      <div ref={host} className="bg-white" />
+      <div ref={host} className="relative bg-white" />
     </div>
   );
 }

@@ -3,6 +3,7 @@
  * the top line of its first staff and the bottom line of its last, in CSS pixels.
  */
 import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
+import type { StageOffset } from "./measure-note-boxes";
 
 export interface SystemBox {
   staffTop: number;
@@ -18,12 +19,9 @@ export interface SystemBox {
 /** OSMD's unit: 10 px at zoom 1. */
 const UNIT_PX = 10;
 
-export function measureSystems(osmd: OpenSheetMusicDisplay, stage: HTMLElement, zoom: number): SystemBox[] {
-  const origin = stage.getBoundingClientRect();
-  const svg = stage.querySelector("svg");
-  const svgRect = svg?.getBoundingClientRect();
-  const svgTop = (svgRect?.top ?? origin.top) - origin.top;
-  const svgLeft = (svgRect?.left ?? origin.left) - origin.left;
+/** From the engraver's model alone (no layout asked of the browser); `offset`: the SVG in the stage. */
+export function measureSystems(osmd: OpenSheetMusicDisplay, offset: StageOffset, zoom: number): SystemBox[] {
+  const { top: svgTop, left: svgLeft } = offset;
   const out: SystemBox[] = [];
   for (const page of osmd.GraphicSheet?.MusicPages ?? []) {
     for (const system of page.MusicSystems ?? []) {

@@ -4,7 +4,7 @@ import { ENGRAVING_OPTIONS } from "./engraving-options";
 import { useCallback, useEffect, useLayoutEffect, useRef, useState, type ReactNode } from "react";
 import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
 import { glyphBandHeight, type NoteBox } from "@/lib/markings/glyph-geometry";
-import { measureNoteBoxes } from "./measure-note-boxes";
+import { measureNoteBoxes, noteBoxesFromModel, type StageOffset } from "./measure-note-boxes";
 import { measureSystems, type SystemBox } from "./measure-systems";
 import { collectOsmdNotes } from "./osmd-note-keys";
 
@@ -25,9 +25,48 @@ export interface ScoreViewProps {
   children?: ReactNode;
   /** The overlay's glyph text is at least this many px (paper): the systems make room for it. */
   minTextPx?: number;
+  /**
+   * "model" (the workspace): notes placed from the engraver's model at once, then refined from the
+   * drawing after the first paint. "drawing" (the stand copy, which cuts the drawing into systems
+   * once): measured from the drawing only, one layout per render.
+   */
+  layoutFrom?: "model" | "drawing";
 }
 
 const RESIZE_DEBOUNCE_MS = 200;
+
+/**
+ * Each note's box reaching as far as either measure does: the model has the stem of a beamed
+ * note (drawn with its beam, outside the note's group), the drawing has the marks around it.
+ */
+function unionBoxes(model: readonly NoteBox[], drawn: readonly NoteBox[]): NoteBox[] {
+  const byKey = new Map(drawn.map((b) => [b.key, b]));
+  return model.map((m) => {
+    const d = byKey.get(m.key);
+    if (!d) return m;
+    const top = Math.min(m.y, d.y);
+    const bottom = Math.max(m.y + m.height, d.y + d.height);
+    return { ...m, y: top, height: bottom - top };
+  });
+}
+
+/** Within a pixel, note for note. */
+function sameBoxes(a: readonly NoteBox[], b: readonly NoteBox[]): boolean {
+  if (a.length !== b.length) return false;
+  return a.every((x, i) => {
+    const y = b[i];
+    return x.key === y.key && Math.abs(x.x - y.x) < 1 && Math.abs(x.y - y.y) < 1 && Math.abs(x.width - y.width) < 1 && Math.abs(x.y + x.height - (y.y + y.height)) < 1;
+  });
+}
+
+/** The drawing's size from the SVG's own attributes (reading the stage's size would force a layout). */
+function engravedSize(stage: HTMLElement, offset: StageOffset): { width: number; height: number } {
+  const svg = stage.querySelector("svg");
+  const width = Number.parseFloat(svg?.getAttribute("width") ?? "");
+  const height = Number.parseFloat(svg?.getAttribute("height") ?? "");
+  if (Number.isFinite(width) && Number.isFinite(height)) return { width: offset.left + width, height: offset.top + height };
+  return { width: stage.scrollWidth, height: stage.scrollHeight };
+}
 
 /**
  * The engraving library, fetched as soon as this module runs in the browser, so its download
@@ -42,7 +81,7 @@ if (typeof window !== "undefined") void loadEngraver();
  * is loaded on pages that show a score. Every render rebuilds its SVG; we never attach anything
  * to it and re-measure the notes instead.
  */
-export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0 }: ScoreViewProps) {
+export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layoutFrom = "model" }: ScoreViewProps) {
   const stageRef = useRef<HTMLDivElement>(null);
   const hostRef = useRef<HTMLDivElement>(null);
   const osmdRef = useRef<OpenSheetMusicDisplay | null>(null);
@@ -55,14 +94,65 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0 }: Scor
     onLayoutRef.current = onLayout;
   }, [onLayout]);
 
+  // Where the engraving's SVG sits in the stage. Assumed from the last check (the host has no
+  // padding, so it starts at 0, 0) and verified once the browser has laid the page out anyway.
+  const offsetRef = useRef<StageOffset>({ left: 0, top: 0 });
+  const lastRef = useRef<ScoreLayout | null>(null);
+  const fromModel = layoutFrom === "model";
+
+  const publish = useCallback((layout: ScoreLayout) => {
+    lastRef.current = layout;
+    onLayoutRef.current(layout);
+  }, []);
+
+  /** Right after engraving: positions from the engraver's model, without forcing a layout. */
   const measure = useCallback(() => {
     const osmd = osmdRef.current;
     const stage = stageRef.current;
     if (!osmd || !stage) return;
-    const boxes = measureNoteBoxes(collectOsmdNotes(osmd), stage, zoomRef.current);
-    const systems = measureSystems(osmd, stage, zoomRef.current);
-    onLayoutRef.current({ boxes, width: stage.scrollWidth, height: stage.scrollHeight, systems });
-  }, []);
+    const zoom = zoomRef.current;
+    const refs = collectOsmdNotes(osmd);
+    if (!fromModel) {
+      const origin = stage.getBoundingClientRect();
+      const at = stage.querySelector("svg")?.getBoundingClientRect() ?? origin;
+      offsetRef.current = { left: at.left - origin.left, top: at.top - origin.top };
+    }
+    const boxes = (fromModel ? noteBoxesFromModel(refs, offsetRef.current, zoom) : null) ?? measureNoteBoxes(refs, stage, zoom);
+    // "model" until the drawing has been measured after the paint ("drawn"); tests wait for it.
+    stage.dataset.layout = fromModel ? "model" : "drawn";
+    const offset = offsetRef.current;
+    const size = engravedSize(stage, offset);
+    publish({ boxes, width: size.width, height: size.height, systems: measureSystems(osmd, offset, zoom) });
+  }, [publish, fromModel]);
+
+  /**
+   * After the next paint, when the browser's boxes cost little: measure the drawing itself and
+   * publish it where it differs from the model's first guess (a mark drawn above a note, or the
+   * SVG not where it was assumed).
+   */
+  const refine = useCallback(() => {
+    requestAnimationFrame(() =>
+      setTimeout(() => {
+        const osmd = osmdRef.current;
+        const stage = stageRef.current;
+        const svg = stage?.querySelector("svg");
+        const last = lastRef.current;
+        if (!osmd || !stage || !svg || !last) return;
+        const zoom = zoomRef.current;
+        const origin = stage.getBoundingClientRect();
+        const at = svg.getBoundingClientRect();
+        const offset = { left: at.left - origin.left, top: at.top - origin.top };
+        const moved = Math.abs(offset.left - offsetRef.current.left) > 0.5 || Math.abs(offset.top - offsetRef.current.top) > 0.5;
+        offsetRef.current = offset;
+        const drawn = measureNoteBoxes(collectOsmdNotes(osmd), stage, zoom);
+        const boxes = moved ? drawn : unionBoxes(last.boxes, drawn);
+        stage.dataset.layout = "drawn";
+        if (!moved && sameBoxes(last.boxes, boxes)) return;
+        const size = engravedSize(stage, offset);
+        publish({ boxes, width: size.width, height: size.height, systems: measureSystems(osmd, offset, zoom) });
+      }, 0),
+    );
+  }, [publish]);
 
   const render = useCallback(() => {
     const osmd = osmdRef.current;
@@ -74,7 +164,8 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0 }: Scor
     performance.mark("ondula:rendered");
     measure();
     performance.mark("ondula:measured");
-  }, [measure]);
+    if (fromModel) refine();
+  }, [measure, refine, fromModel]);
 
   // A layout effect: it runs right after the first commit, before the browser paints, while a
   // passive effect after hydration can wait a frame or more — engraving is the slow part.

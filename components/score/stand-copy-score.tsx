@@ -86,7 +86,7 @@ export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolu
       {/* The source keeps its width but no height, in print too, so it never re-lays out. */}
       <div ref={sourceRef} className="pointer-events-none h-0 overflow-hidden" aria-hidden="true" inert>
         <div style={{ width }}>
-          <ScoreView xml={xml} zoom={zoom} onLayout={onLayout} minTextPx={GLYPH_TEXT_PX}>
+          <ScoreView xml={xml} zoom={zoom} onLayout={onLayout} minTextPx={GLYPH_TEXT_PX} layoutFrom="drawing">
             {layout ? (
               <MarkingOverlay
                 boxes={layout.boxes}

@@ -94,7 +94,7 @@ describe("the stand copy", () => {
 
   it("is reached from the workspace's export menu, next to audition with its caution", async () => {
     await page.goto(`${APP_URL}/parts/${partId}`);
-    await page.locator('[data-score-status="ready"]').waitFor({ timeout: 60_000 });
+    await page.locator('[data-score-status="ready"][data-layout="drawn"]').waitFor({ timeout: 60_000 });
     await expect(page.getByTestId("audition-caution").textContent()).resolves.toContain("Audio starts quiet; keep headphone volume moderate.");
     await page.locator(`[data-layer="hits"] [data-note-key="${markedKeys[1]}"]`).click();
     await page.getByRole("button", { name: "Audition the selected note" }).click();

@@ -10,7 +10,7 @@ const glyph = (page: Page, kind: string, key: string) => page.locator(`[data-gly
 
 async function openWorkspace(page: Page, partId: string) {
   await page.goto(`${APP_URL}/parts/${partId}`);
-  await page.locator('[data-score-status="ready"]').waitFor({ timeout: 60_000 });
+  await page.locator('[data-score-status="ready"][data-layout="drawn"]').waitFor({ timeout: 60_000 });
   await page.locator('[data-layer="hits"] [data-note-key]').first().waitFor();
 }
 
