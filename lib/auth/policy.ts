@@ -16,6 +16,10 @@ import type { CurrentUser } from "./types";
  * - Admins cannot change their own role or disable themselves (no lock-out by accident).
  * - A part's practice log and takes are the owner's: only the owner writes them; a teacher the
  *   part is shared with may read them (following progress is part of teaching), nobody else.
+ * - Practice assignments are set by a teacher the part is shared with (either permission: setting
+ *   practice changes nothing of the player's own work), for the part's owner. Only the teacher who
+ *   set one edits or removes it; only the owner ticks it done or open again. Everyone who sees
+ *   the part sees its assignments.
  */
 
 export type SharePermission = "comment" | "propose";
@@ -41,7 +45,8 @@ export type Resource =
   | { type: "studio"; studio: StudioRef; isMember: boolean }
   | { type: "studio_member"; studio: StudioRef; playerId: string }
   | { type: "invitation"; invitation: { email: string }; studio: StudioRef }
-  | { type: "part"; part: PartRef; share?: ShareRef | null };
+  | { type: "part"; part: PartRef; share?: ShareRef | null }
+  | { type: "assignment"; part: PartRef; share?: ShareRef | null; assignment: { assignedBy: string } };
 
 export type Action =
   | "admin:list_users"
@@ -63,7 +68,12 @@ export type Action =
   | "part:propose"
   | "marking:write"
   | "practice:view"
-  | "practice:write";
+  | "practice:write"
+  | "assignment:view"
+  | "assignment:create"
+  | "assignment:edit"
+  | "assignment:delete"
+  | "assignment:mark_done";
 
 type ResourceType = Resource["type"];
 
@@ -89,6 +99,11 @@ export const ACTION_RESOURCE: Record<Action, ResourceType> = {
   "marking:write": "part",
   "practice:view": "part",
   "practice:write": "part",
+  "assignment:view": "part",
+  "assignment:create": "part",
+  "assignment:edit": "assignment",
+  "assignment:delete": "assignment",
+  "assignment:mark_done": "assignment",
 };
 
 const isAdmin = (u: CurrentUser) => u.role === "admin";
@@ -111,9 +126,14 @@ function visible(user: CurrentUser, action: Action, resource: Resource): boolean
       // Whoever holds the token may see where it leads; acceptance checks the address.
       return true;
     case "part":
+    case "assignment":
       return resource.part.ownerId === user.id || !!resource.share;
   }
 }
+
+/** A teacher with a live share of someone else's part (studio membership alone grants nothing). */
+const sharedTeacher = (user: CurrentUser, r: { part: PartRef; share?: ShareRef | null }) =>
+  user.role === "teacher" && r.part.ownerId !== user.id && !!r.share;
 
 function allowed(user: CurrentUser, action: Action, resource: Resource): boolean {
   switch (action) {
@@ -156,6 +176,15 @@ function allowed(user: CurrentUser, action: Action, resource: Resource): boolean
       return resource.type === "part" && resource.part.ownerId === user.id;
     case "part:propose":
       return resource.type === "part" && resource.part.ownerId !== user.id && resource.share?.permission === "propose";
+    case "assignment:view":
+      return resource.type === "part" && (resource.part.ownerId === user.id || !!resource.share);
+    case "assignment:create":
+      return resource.type === "part" && sharedTeacher(user, resource);
+    case "assignment:edit":
+    case "assignment:delete":
+      return resource.type === "assignment" && sharedTeacher(user, resource) && resource.assignment.assignedBy === user.id;
+    case "assignment:mark_done":
+      return resource.type === "assignment" && resource.part.ownerId === user.id;
   }
 }
 
@@ -172,6 +201,10 @@ const FORBIDDEN_MESSAGES: Partial<Record<Action, string>> = {
   "invitation:accept": "This invitation was sent to a different e-mail address.",
   "part:propose": "Proposals need a share with the propose permission.",
   "practice:write": "Only the part's owner keeps its practice log and takes.",
+  "assignment:create": "Only a teacher this part is shared with can assign practice on it.",
+  "assignment:edit": "Only the teacher who set this practice can change it; its player can mark it done.",
+  "assignment:delete": "Only the teacher who set this practice can remove it.",
+  "assignment:mark_done": "Only the player who owns the part marks its practice done.",
 };
 
 /**
