@@ -104,4 +104,6 @@ export interface AssignmentListDto {
   canAssign: boolean;
   /** The viewer may tick practice done (the part's owner). */
   canMarkDone: boolean;
+  /** Who is asking, so the teacher's own practice shows its Edit and Remove. */
+  viewerId: string;
 }

@@ -28,7 +28,7 @@ export async function loadAssignment(user: CurrentUser, partId: string, assignme
 /** What the list shows the viewer they may do. */
 export function assignmentAbilities(user: CurrentUser, access: PartAccess) {
   const resource = { type: "part" as const, part: partRef(access), share: shareOf(access) };
-  return { canAssign: can(user, "assignment:create", resource), canMarkDone: access.part.ownerId === user.id };
+  return { canAssign: can(user, "assignment:create", resource), canMarkDone: access.part.ownerId === user.id, viewerId: user.id };
 }
 
 export function assertSettableDueDate(dueOn: string | null | undefined) {
