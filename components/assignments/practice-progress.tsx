@@ -52,7 +52,7 @@ export function PracticeProgress({ students }: { students: StudentProgress[] }) 
                         <span className="text-graphite">none open</span>
                       ) : (
                         <>
-                          {p.openAssignments} open
+                          {p.openAssignments} open{" "}
                           {p.overdueAssignments > 0 ? (
                             <span className="ml-2 inline-flex items-center gap-1 rounded border border-danger px-1.5 font-semibold text-danger">
                               <span aria-hidden="true">!</span>

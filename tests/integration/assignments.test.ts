@@ -4,11 +4,13 @@ import { and, eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import { db, pool } from "@/db/client";
 import { listPracticeProgressForTeacher } from "@/db/assignments";
-import { notifications, practiceAssignments, practiceEntries, shares, takes } from "@/db/schema";
+import { seedDemoAssignment } from "@/db/seed-demo-assignment";
+import { markings, notifications, parts, practiceAssignments, practiceEntries, shares, takes, users } from "@/db/schema";
 import { addDays, utcIsoDate } from "@/lib/assignments/due";
 import { progressWindowStart } from "@/lib/assignments/progress";
 import { multipartFile } from "../helpers/parts";
-import { createSignedInUser, type ApiClient, type TestUser } from "../helpers/session";
+import { DEMO_PASSWORD } from "../helpers/env";
+import { createSignedInUser, signIn, type ApiClient, type TestUser } from "../helpers/session";
 import { accept, invite, json, waitForMails } from "../helpers/sharing";
 
 const FIXTURE = path.resolve("tests/fixtures/sharing/two-bars.musicxml");
@@ -253,5 +255,29 @@ describe("studio progress", () => {
     expect(page).toContain("Ilse Progress");
     expect(page).toMatch(/1 overdue/);
     expect(page).toContain("32.5 min");
+  });
+});
+
+describe("demo seed", () => {
+  it("has the demo teacher's practice on the demo player's Harbour Song, once however often it runs", async () => {
+    const player = await signIn("player@demo.ondula.test", DEMO_PASSWORD);
+    const [part] = await db().select({ id: parts.id }).from(parts).innerJoin(users, eq(users.id, parts.ownerId))
+      .where(and(eq(users.email, "player@demo.ondula.test"), eq(parts.sourceFileName, "harbour-song.musicxml")));
+    const list = await (await player.fetch(`/api/parts/${part.id}/assignments`)).json();
+    expect(list.canMarkDone).toBe(true);
+    const fromTeacher = list.assignments.filter((a: { assignedByName: string }) => a.assignedByName === "Teo Barral");
+    expect(fromTeacher).toHaveLength(1);
+    expect(fromTeacher[0]).toMatchObject({ drill: "hold-ladder", minutesPerDay: 10 });
+    // On the note the seed marked as the phrase's peak.
+    const [peak] = await db().select({ noteKey: markings.noteKey }).from(markings).where(and(eq(markings.partId, part.id), eq(markings.role, "peak")));
+    expect(fromTeacher[0].noteKey).toBe(peak.noteKey);
+
+    const [playerRow, teacherRow] = await Promise.all(
+      ["player@demo.ondula.test", "teacher@demo.ondula.test"].map(async (email) => (await db().select().from(users).where(eq(users.email, email)))[0]),
+    );
+    await seedDemoAssignment({ player: playerRow, teacher: teacherRow });
+    const [count] = await db().select({ n: sql<number>`count(*)::int` }).from(practiceAssignments)
+      .where(and(eq(practiceAssignments.partId, part.id), eq(practiceAssignments.assignedBy, teacherRow.id)));
+    expect(count.n).toBe(1);
   });
 });
