@@ -1,5 +1,3 @@
-"use client";
-
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import type { AssignmentDto, AssignmentListDto, CreateAssignmentBody, PatchAssignmentBody } from "@/lib/assignments/schema";
 import { ApiError, fetchJson, partUrl } from "@/components/score/api/fetch-json";

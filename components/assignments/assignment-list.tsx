@@ -192,7 +192,8 @@ function AssignmentCard({ partId, assignment: a, today, labelOf, canMarkDone, on
             <label className="flex min-h-11 items-center gap-2 text-sm font-semibold">
               <input
                 type="checkbox"
-                checked={isDone}
+                // The tick shows at once; a refusal puts it back when the list is read again.
+                checked={update.isPending && update.variables?.done !== undefined ? update.variables.done : isDone}
                 disabled={update.isPending}
                 onChange={(e) => {
                   setConflict(null);

@@ -111,6 +111,26 @@ describe("practice assignments", () => {
     await log.getByTestId("total-minutes").filter({ hasText: "20 minutes in all" }).waitFor();
   });
 
+  it("the teacher sees the ticked practice on the practice page and sets a take there", async () => {
+    const t = await teacherContext.newPage();
+    await t.goto(`${APP_URL}/parts/${partId}/practice?note=${encodeURIComponent(noteKey)}`);
+    const section = t.getByTestId("assignments");
+    await section.getByRole("heading", { name: "Practice set on this part" }).waitFor();
+    expect(await section.getByText("1 open · 1 done").count()).toBe(1);
+    // The player's tick is theirs alone: the teacher sees no Done box.
+    expect(await section.getByRole("checkbox").count()).toBe(0);
+    await section.getByRole("button", { name: "Assign practice" }).click();
+    const form = section.getByTestId("assignment-form");
+    await form.getByLabel("Drill").selectOption("take");
+    await form.getByLabel(`On ${noteLabel}`).waitFor();
+    await form.getByLabel(/Minutes a day/).fill("5");
+    await form.getByLabel("Instructions").fill("Record two takes and compare the speed with the marking.");
+    await t.screenshot({ path: screenshotPath("assignments-teacher-practice-page"), fullPage: false });
+    await form.getByRole("button", { name: "Assign practice" }).click();
+    await section.getByText(`Practice set: Take on ${noteLabel}. The player has been told.`).waitFor();
+    expect(await section.getByTestId("assignment").filter({ hasText: "Take" }).getByRole("button", { name: "Edit" }).count()).toBe(1);
+  });
+
   it("the teacher follows the progress on the studio page", async () => {
     const t = await teacherContext.newPage();
     await t.goto(`${APP_URL}/studio`);
@@ -118,8 +138,9 @@ describe("practice assignments", () => {
     const row = progress.getByTestId("progress-row").filter({ hasText: "Stone Bridge" });
     await row.waitFor();
     expect(await progress.getByRole("rowheader").filter({ hasText: "Pello Player" }).count()).toBe(1);
-    expect((await row.getByTestId("progress-open").innerText()).replace(/\s+/g, " ")).toMatch(/^1 open\s*!?\s*1 overdue$/);
-    expect(await row.getByTestId("progress-minutes").innerText()).toBe("20 min");
+    expect((await row.getByTestId("progress-open").innerText()).replace(/\s+/g, " ")).toMatch(/^2 open\s*!?\s*1 overdue$/);
+    // 5 minutes a day asked by the open take, over the 7-day window: 35.
+    expect(await row.getByTestId("progress-minutes").innerText()).toBe("20 min of 35 asked");
     expect(await row.getByTestId("progress-take").innerText()).toBe("none yet");
     await progress.scrollIntoViewIfNeeded();
     await t.screenshot({ path: screenshotPath("assignments-studio"), fullPage: true });
