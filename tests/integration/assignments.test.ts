@@ -134,6 +134,15 @@ describe("practice assignments API", () => {
     expect(undone).toMatchObject({ doneAt: null, version: 3 });
   });
 
+  it("lets the teacher reword late practice without moving its date, but not move a date into the past", async () => {
+    const [late] = await db().insert(practiceAssignments).values({ partId, assignedBy: teacher.user.id, drill: "take", dueOn: addDays(today(), -4) }).returning();
+    const reworded = await teacher.client.fetch(`${url()}/${late.id}`, json({ version: 1, instructions: "Still worth doing.", dueOn: late.dueOn }, "PATCH"));
+    expect(reworded.status).toBe(200);
+    const moved = await teacher.client.fetch(`${url()}/${late.id}`, json({ version: 2, dueOn: addDays(today(), -3) }, "PATCH"));
+    expect(moved.status).toBe(400);
+    expect((await moved.json()).field).toBe("dueOn");
+  });
+
   it("lets only the teacher who set practice change or remove it", async () => {
     const a = await (await teacher.client.fetch(url(), json({ drill: "free", instructions: "Scales in the key" }))).json();
     const other = await otherTeacher.client.fetch(`${url()}/${a.id}`, json({ version: 1, instructions: "Something else" }, "PATCH"));

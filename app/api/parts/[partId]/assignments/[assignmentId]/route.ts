@@ -16,10 +16,11 @@ export const PATCH = handle(async (request, { params }) => {
   const user = await requireUser();
   const { version, done, ...fields } = await parseJson(request, patchAssignmentBody);
   const marking = done !== undefined;
-  const { access } = await loadAssignment(user, partId, assignmentId, marking ? "assignment:mark_done" : "assignment:edit");
+  const { access, assignment } = await loadAssignment(user, partId, assignmentId, marking ? "assignment:mark_done" : "assignment:edit");
   if (!marking) {
     assertNoteOfPart(access.part, fields.noteKey);
-    assertSettableDueDate(fields.dueOn);
+    // Late practice keeps its date when only its other fields change.
+    if (fields.dueOn !== assignment.dueOn) assertSettableDueDate(fields.dueOn);
   }
   const result = await updateAssignmentById({ partId, assignmentId, expectedVersion: version, changes: marking ? { done } : fields });
   if (!result.ok) return assignmentConflict(result.current);
