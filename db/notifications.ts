@@ -4,7 +4,7 @@ import type { NotificationDto } from "@/lib/sharing/dto";
 import { db } from "./client";
 import { notifications, parts, users } from "./schema";
 
-export type NotificationKind = "comment" | "proposal" | "proposal_accepted" | "proposal_declined" | "invitation_accepted";
+export type NotificationKind = "comment" | "proposal" | "proposal_accepted" | "proposal_declined" | "invitation_accepted" | "assignment";
 
 export async function insertNotifications(rows: {
   userId: string;
@@ -46,7 +46,7 @@ export async function countUnreadByPart({ userId, partId }: { userId: string; pa
     .groupBy(notifications.partId);
 }
 
-export async function markNotificationsRead({ userId, partId, threadKey }: { userId: string; partId: string; threadKey?: string }): Promise<number> {
+export async function markNotificationsRead({ userId, partId, threadKey, kind }: { userId: string; partId: string; threadKey?: string; kind?: NotificationKind }): Promise<number> {
   const rows = await db()
     .update(notifications)
     .set({ readAt: new Date() })
@@ -56,6 +56,7 @@ export async function markNotificationsRead({ userId, partId, threadKey }: { use
         eq(notifications.partId, partId),
         isNull(notifications.readAt),
         threadKey ? eq(notifications.noteKey, threadKey) : undefined,
+        kind ? eq(notifications.kind, kind) : undefined,
       ),
     )
     .returning({ id: notifications.id });

@@ -3,6 +3,7 @@ import { eq, sql } from "drizzle-orm";
 import { config } from "@/lib/config";
 import { hashPassword } from "@/lib/auth/password";
 import { closeDb, db } from "./client";
+import { seedDemoAssignment } from "./seed-demo-assignment";
 import { seedDemoPart } from "./seed-demo-part";
 import { studioMembers, studios, users } from "./schema";
 
@@ -33,6 +34,7 @@ export async function seedDemo(): Promise<void> {
   if (!studio) [studio] = await db().insert(studios).values({ teacherId: teacher.id, name: `${teacher.name}'s studio` }).returning();
   await db().insert(studioMembers).values({ studioId: studio.id, playerId: player.id }).onConflictDoNothing();
   await seedDemoPart({ player, teacher });
+  await seedDemoAssignment({ player, teacher });
 }
 
 if (process.argv[1] && import.meta.url.endsWith(path.basename(process.argv[1]))) {

@@ -5,6 +5,8 @@ import { useMemo, useRef, useState } from "react";
 import { auditionNotes, DEFAULT_VOLUME, type AuditionHandle } from "@/lib/export/audition";
 import type { MarkingValues } from "@/lib/markings/schema";
 import { formatNumber, pulsesPerBeat } from "@/lib/markings/pulses";
+import type { AssignmentDto } from "@/lib/assignments/schema";
+import { PracticeAssignments } from "@/components/assignments/assignment-list";
 import { selectClass } from "@/components/ui/styles";
 import { AudioCaution, VolumeControl } from "./audio-caution";
 import { audioContext } from "./audio";
@@ -32,7 +34,19 @@ interface Props {
   tempoAssumed: boolean;
   notes: PracticeNote[];
   canWrite: boolean;
+  /** The note to open on (from `?note=`); otherwise the first marked note. */
+  initialNoteKey?: string | null;
+  /** The server's day, for due dates until the browser's own calendar takes over. */
+  serverToday: string;
 }
+
+/** Where each drill lives on the page (its section heading's id); free practice goes to the log. */
+const DRILL_SECTION: Record<AssignmentDto["drill"], string> = {
+  "pulse-trainer": "pulse-trainer",
+  "hold-ladder": "hold-ladder",
+  take: "take",
+  free: "practice-log",
+};
 
 function markingSummary(m: MarkingValues | null): string {
   if (!m) return "not marked";
@@ -41,10 +55,10 @@ function markingSummary(m: MarkingValues | null): string {
 }
 
 /** The practice page of one part: choose a note, then drill it with the pulse trainer, the hold ladder and takes. */
-export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, canWrite }: Props) {
+export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, canWrite, initialNoteKey = null, serverToday }: Props) {
   const marked = useMemo(() => notes.filter((n) => n.marking), [notes]);
   const others = useMemo(() => notes.filter((n) => !n.marking), [notes]);
-  const [noteKey, setNoteKey] = useState<string | null>(marked[0]?.key ?? notes[0]?.key ?? null);
+  const [noteKey, setNoteKey] = useState<string | null>(initialNoteKey ?? marked[0]?.key ?? notes[0]?.key ?? null);
   const [volume, setVolume] = useState(DEFAULT_VOLUME);
   const [hearing, setHearing] = useState(false);
   const audition = useRef<AuditionHandle | null>(null);
@@ -63,6 +77,16 @@ export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, canWri
     audition.current = handle;
     setHearing(true);
     void handle.finished.then(() => audition.current === handle && setHearing(false));
+  };
+  /** Opens an assignment's drill on its note: the note is chosen, then its section is brought into view. */
+  const practise = (a: AssignmentDto) => {
+    if (a.noteKey && notes.some((n) => n.key === a.noteKey)) setNoteKey(a.noteKey);
+    // After the room has re-rendered on the new note.
+    requestAnimationFrame(() => {
+      const heading = document.getElementById(DRILL_SECTION[a.drill]);
+      const reduce = window.matchMedia?.("(prefers-reduced-motion: reduce)").matches;
+      heading?.scrollIntoView({ behavior: reduce ? "auto" : "smooth", block: "start" });
+    });
   };
   const stopHearing = () => {
     audition.current?.stop();
@@ -86,6 +110,14 @@ export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, canWri
           </p>
         </div>
       </header>
+
+      <PracticeAssignments
+        partId={partId}
+        labelOf={(k) => labels.get(k) ?? k}
+        chosenNote={note ? { key: note.key, label: note.label } : null}
+        serverToday={serverToday}
+        onPractise={practise}
+      />
 
       <section aria-labelledby="note-heading" className="rounded-card border border-rule bg-paper-card p-5">
         <h2 id="note-heading" className="sr-only">

@@ -3,6 +3,7 @@
 import { useState } from "react";
 import type { MarkingDto } from "@/lib/markings/schema";
 import { PART_THREAD } from "@/lib/sharing/schemas";
+import { AssignOnNote } from "@/components/assignments/assign-on-note";
 import { useNotifications, useProposals } from "./api";
 import { CommentThread } from "./comment-thread";
 import { formatWhen } from "./format";
@@ -93,6 +94,7 @@ function NoteDiscussion({ partId, permission, viewerId, noteKey, currentMarking,
           </button>
         )
       ) : null}
+      {permission !== "owner" ? <AssignOnNote partId={partId} noteKey={noteKey} label={label} /> : null}
       <CommentThread partId={partId} threadKey={noteKey} label={label} viewerId={viewerId} canComment />
       {decided.length > 0 ? (
         <details className="text-sm">

@@ -17,11 +17,9 @@ const admin = person("admin", "admin");
 
 const part = { id: "p1", ownerId: owner.id };
 /** What the route would load: the viewer's own share of the part, if any. */
-const partAs = (viewer: CurrentUser | null): Resource => ({
-  type: "part",
-  part,
-  share: viewer === teacherComment ? { permission: "comment" } : viewer === teacherPropose ? { permission: "propose" } : null,
-});
+const shareOf = (viewer: CurrentUser | null) =>
+  viewer === teacherComment ? { permission: "comment" as const } : viewer === teacherPropose ? { permission: "propose" as const } : null;
+const partAs = (viewer: CurrentUser | null): Resource => ({ type: "part", part, share: shareOf(viewer) });
 
 type Expect = "ok" | 401 | 403 | 404;
 const viewers = [null, owner, otherPlayer, teacherComment, teacherPropose, teacherNone, admin] as const;
@@ -38,6 +36,8 @@ const partTable: Array<[Action, Expect[]]> = [
   ["part:propose", [401, 403, 404, 403, "ok", 404, 404]],
   ["practice:view", [401, "ok", 404, "ok", "ok", 404, 404]],
   ["practice:write", [401, "ok", 404, 403, 403, 404, 404]],
+  ["assignment:view", [401, "ok", 404, "ok", "ok", 404, 404]],
+  ["assignment:create", [401, 403, 404, "ok", "ok", 404, 404]],
 ];
 
 function outcome(user: CurrentUser | null, action: Action, resource: Resource): Expect {
@@ -91,6 +91,43 @@ describe("policy: withdrawing a proposal", () => {
 
   it("does not apply to a part resource", () => {
     expect(can(teacherPropose, "proposal:withdraw", partAs(teacherPropose))).toBe(false);
+  });
+});
+
+describe("policy: practice assignments", () => {
+  /** An assignment on the owner's part set by `by`, as the route would load it for `viewer`. */
+  const assignmentAs = (viewer: CurrentUser | null, by: CurrentUser): Resource => ({
+    type: "assignment",
+    part,
+    share: shareOf(viewer),
+    assignment: { assignedBy: by.id },
+  });
+  // Columns as above: anon, owner, otherPlayer, teacherComment, teacherPropose, teacherNone, admin.
+  const table: Array<[Action, CurrentUser, Expect[]]> = [
+    ["assignment:edit", teacherComment, [401, 403, 404, "ok", 403, 404, 404]],
+    ["assignment:delete", teacherComment, [401, 403, 404, "ok", 403, 404, 404]],
+    ["assignment:edit", teacherPropose, [401, 403, 404, 403, "ok", 404, 404]],
+    ["assignment:mark_done", teacherComment, [401, "ok", 404, 403, 403, 404, 404]],
+  ];
+  for (const [action, by, expected] of table) {
+    viewers.forEach((viewer, i) => {
+      it(`${action} of ${by.id}'s assignment as ${cols[i]} → ${expected[i]}`, () => {
+        const resource = assignmentAs(viewer, by);
+        expect(outcome(viewer, action, resource)).toBe(expected[i]);
+        expect(can(viewer, action, resource)).toBe(expected[i] === "ok");
+      });
+    });
+  }
+
+  it("refuses practice from a player the part is shared with, and from a teacher on their own part", () => {
+    const sharedPlayer = person("shared-player", "player");
+    expect(can(sharedPlayer, "assignment:create", { type: "part", part, share: { permission: "propose" } })).toBe(false);
+    const teachersPart = { id: "p2", ownerId: teacherNone.id };
+    expect(can(teacherNone, "assignment:create", { type: "part", part: teachersPart, share: null })).toBe(false);
+  });
+
+  it("keeps an assignment's author from editing once their share is gone (then it is not found)", () => {
+    expect(outcome(teacherNone, "assignment:edit", { type: "assignment", part, share: null, assignment: { assignedBy: teacherNone.id } })).toBe(404);
   });
 });
 

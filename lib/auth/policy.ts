@@ -19,6 +19,10 @@ import type { CurrentUser } from "./types";
  * - A proposal is withdrawn only by its author, and only while they still see the part (a
  *   downgraded share may still take back what it proposed). Whether it is still open is a
  *   question of state, answered 409 by the route, not of rights.
+ * - Practice assignments are set by a teacher the part is shared with (either permission: setting
+ *   practice changes nothing of the player's own work), for the part's owner. Only the teacher who
+ *   set one edits or removes it; only the owner ticks it done or open again. Everyone who sees
+ *   the part sees its assignments.
  */
 
 export type SharePermission = "comment" | "propose";
@@ -45,7 +49,8 @@ export type Resource =
   | { type: "studio_member"; studio: StudioRef; playerId: string }
   | { type: "invitation"; invitation: { email: string }; studio: StudioRef }
   | { type: "part"; part: PartRef; share?: ShareRef | null }
-  | { type: "proposal"; part: PartRef; share?: ShareRef | null; proposal: { authorId: string } };
+  | { type: "proposal"; part: PartRef; share?: ShareRef | null; proposal: { authorId: string } }
+  | { type: "assignment"; part: PartRef; share?: ShareRef | null; assignment: { assignedBy: string } };
 
 export type Action =
   | "admin:list_users"
@@ -68,7 +73,12 @@ export type Action =
   | "marking:write"
   | "proposal:withdraw"
   | "practice:view"
-  | "practice:write";
+  | "practice:write"
+  | "assignment:view"
+  | "assignment:create"
+  | "assignment:edit"
+  | "assignment:delete"
+  | "assignment:mark_done";
 
 type ResourceType = Resource["type"];
 
@@ -95,6 +105,11 @@ export const ACTION_RESOURCE: Record<Action, ResourceType> = {
   "proposal:withdraw": "proposal",
   "practice:view": "part",
   "practice:write": "part",
+  "assignment:view": "part",
+  "assignment:create": "part",
+  "assignment:edit": "assignment",
+  "assignment:delete": "assignment",
+  "assignment:mark_done": "assignment",
 };
 
 const isAdmin = (u: CurrentUser) => u.role === "admin";
@@ -118,9 +133,14 @@ function visible(user: CurrentUser, action: Action, resource: Resource): boolean
       return true;
     case "part":
     case "proposal":
+    case "assignment":
       return resource.part.ownerId === user.id || !!resource.share;
   }
 }
+
+/** A teacher with a live share of someone else's part (studio membership alone grants nothing). */
+const sharedTeacher = (user: CurrentUser, r: { part: PartRef; share?: ShareRef | null }) =>
+  user.role === "teacher" && r.part.ownerId !== user.id && !!r.share;
 
 function allowed(user: CurrentUser, action: Action, resource: Resource): boolean {
   switch (action) {
@@ -165,6 +185,15 @@ function allowed(user: CurrentUser, action: Action, resource: Resource): boolean
       return resource.type === "part" && resource.part.ownerId !== user.id && resource.share?.permission === "propose";
     case "proposal:withdraw":
       return resource.type === "proposal" && resource.proposal.authorId === user.id;
+    case "assignment:view":
+      return resource.type === "part" && (resource.part.ownerId === user.id || !!resource.share);
+    case "assignment:create":
+      return resource.type === "part" && sharedTeacher(user, resource);
+    case "assignment:edit":
+    case "assignment:delete":
+      return resource.type === "assignment" && sharedTeacher(user, resource) && resource.assignment.assignedBy === user.id;
+    case "assignment:mark_done":
+      return resource.type === "assignment" && resource.part.ownerId === user.id;
   }
 }
 
@@ -182,6 +211,10 @@ const FORBIDDEN_MESSAGES: Partial<Record<Action, string>> = {
   "part:propose": "Proposals need a share with the propose permission.",
   "practice:write": "Only the part's owner keeps its practice log and takes.",
   "proposal:withdraw": "Only the person who made this proposal can withdraw it; the part's owner accepts or declines it.",
+  "assignment:create": "Only a teacher this part is shared with can assign practice on it.",
+  "assignment:edit": "Only the teacher who set this practice can change it; its player can mark it done.",
+  "assignment:delete": "Only the teacher who set this practice can remove it.",
+  "assignment:mark_done": "Only the player who owns the part marks its practice done.",
 };
 
 /**

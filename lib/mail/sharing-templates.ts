@@ -21,6 +21,8 @@ export function shareInviteMail({ ownerName, partTitle, permission, url }: {
 }
 
 export interface DigestItem {
+  /** The notification's kind; practice leads to the practice page. */
+  kind?: string;
   threadKey: string | null;
   summary: string;
   url: string;
@@ -42,7 +44,7 @@ export function activityDigestMail({ name, partTitle, items, settingsUrl }: {
       `${count} on “${partTitle}”:`,
       ...items.map((i) => `• ${i.summary}${i.threadKey ? ` (${threadLabel(i.threadKey)})` : ""} — ${i.url}`),
     ],
-    action: { label: first.threadKey ? `Open ${threadLabel(first.threadKey)}` : "Open the part", url: first.url },
+    action: { label: first.kind === "assignment" ? "Open the practice page" : first.threadKey ? `Open ${threadLabel(first.threadKey)}` : "Open the part", url: first.url },
     after: `Ondula sends at most one message per part every 10 minutes. Turn these e-mails off in your settings: ${settingsUrl}`,
   });
 }

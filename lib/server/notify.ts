@@ -4,7 +4,7 @@ import { activityDigestMail } from "@/lib/mail/sharing-templates";
 import { appLink } from "@/lib/mail/templates";
 import { sendMail } from "@/lib/mail/send";
 import { EMAIL_WINDOW_MS } from "@/lib/sharing/batching";
-import { threadPath } from "@/lib/sharing/note-label";
+import { notificationPath } from "@/lib/sharing/note-label";
 import { claimEmailBatch, insertNotifications, listDueEmailPairs, releaseEmailBatch, type NotificationKind } from "@/db/notifications";
 import { listParticipantsByPartId } from "@/db/shares";
 
@@ -42,7 +42,7 @@ async function emailIfDue({ userId, partId }: { userId: string; partId: string }
       activityDigestMail({
         name: batch.recipient.name,
         partTitle: batch.partTitle,
-        items: batch.items.map((i) => ({ threadKey: i.threadKey, summary: i.summary, url: appLink(appUrl, threadPath(partId, i.threadKey)) })),
+        items: batch.items.map((i) => ({ kind: i.kind, threadKey: i.threadKey, summary: i.summary, url: appLink(appUrl, notificationPath(partId, i.kind, i.threadKey)) })),
         settingsUrl: appLink(appUrl, "/settings"),
       }),
     );

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { threadLabel, threadPath } from "./note-label";
+import { notificationPath, threadLabel, threadPath } from "./note-label";
 
 describe("thread labels and links", () => {
   it("names the bar of a note key counting bars from 1", () => {
@@ -19,5 +19,12 @@ describe("thread labels and links", () => {
     expect(decodeURIComponent(threadPath(id, "P1:m2:s1:v1:0/1:70").split("note=")[1])).toBe("P1:m2:s1:v1:0/1:70");
     expect(threadPath(id, "part")).toBe(`/parts/${id}?thread=part`);
     expect(threadPath(id, null)).toBe(`/parts/${id}`);
+  });
+
+  it("sends practice notifications to the practice page, the rest to their thread", () => {
+    const id = "2f6c1f5e-1111-4222-8333-444455556666";
+    expect(notificationPath(id, "assignment", null)).toBe(`/parts/${id}/practice#assignments`);
+    expect(notificationPath(id, "comment", "part")).toBe(`/parts/${id}?thread=part`);
+    expect(notificationPath(id, "proposal", "P1:m0:s1:v1:0/1:72")).toBe(threadPath(id, "P1:m0:s1:v1:0/1:72"));
   });
 });

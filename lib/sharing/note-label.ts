@@ -11,6 +11,15 @@ export function threadLabel(threadKey: string): string {
   return m ? `bar ${Number(m[1]) + 1}` : "a note";
 }
 
+/** Notifications about practice set on a part, which the practice page lists. */
+export const ASSIGNMENT_NOTIFICATION = "assignment";
+
+/** Where a notification leads: the practice page for practice, else the thread it is about. */
+export function notificationPath(partId: string, kind: string, threadKey: string | null): string {
+  if (kind === ASSIGNMENT_NOTIFICATION) return `/parts/${partId}/practice#assignments`;
+  return threadPath(partId, threadKey);
+}
+
 /** The workspace address that opens a note's thread (or the part's). */
 export function threadPath(partId: string, threadKey: string | null): string {
   const base = `/parts/${partId}`;

@@ -91,5 +91,7 @@ export const readBody = z
     partId: z.string().uuid("That is not a part id."),
     /** Only this thread's notifications (a note key or "part"); all of the part's when absent. */
     thread: z.string().min(1).max(200).optional(),
+    /** Only notifications of this kind (the practice page reads the practice it lists). */
+    kind: z.enum(["assignment"]).optional(),
   })
   .strict();

@@ -1,7 +1,7 @@
 import { handle, parseQuery } from "@/lib/http/handler";
 import { requireUser } from "@/lib/auth/session";
 import { notificationsQuery } from "@/lib/sharing/schemas";
-import { threadPath } from "@/lib/sharing/note-label";
+import { notificationPath } from "@/lib/sharing/note-label";
 import { loadPart } from "@/lib/server/parts";
 import { countUnreadByPart, listNotificationsForUser } from "@/db/notifications";
 
@@ -22,6 +22,6 @@ export const GET = handle(async (request) => {
   return Response.json({
     unread: counts.reduce((n, c) => n + c.unread, 0),
     parts: counts,
-    items: items.map((i) => ({ ...i, url: threadPath(i.partId, i.threadKey) })),
+    items: items.map((i) => ({ ...i, url: notificationPath(i.partId, i.kind, i.threadKey) })),
   });
 });

@@ -10,6 +10,6 @@ export const POST = handle(async (request) => {
   const user = await requireUser();
   const body = await parseJson(request, readBody);
   // Only the caller's own rows are touched, so a part they lost access to needs no policy check.
-  const updated = await markNotificationsRead({ userId: user.id, partId: body.partId, threadKey: body.thread });
+  const updated = await markNotificationsRead({ userId: user.id, partId: body.partId, threadKey: body.thread, kind: body.kind });
   return Response.json({ updated });
 });

@@ -4,6 +4,10 @@ import { noteLabel } from "@/lib/markings/note-labels";
 import { beatsOfDuration } from "@/lib/practice/hold-ladder";
 import { chosenPartAnalysis, loadPartForPage } from "@/lib/server/parts";
 import { canWritePractice } from "@/lib/server/practice";
+import { assignmentAbilities } from "@/lib/server/assignments";
+import { utcIsoDate } from "@/lib/assignments/due";
+import { listAssignmentsByPartId } from "@/db/assignments";
+import { assignmentKeys } from "@/components/assignments/api";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listPracticeEntriesByPartId, listTakesByPartId } from "@/db/practice";
 import { practiceKeys } from "@/components/practice/api";
@@ -15,15 +19,17 @@ export const metadata: Metadata = { title: "Practise" };
 /** A part without a tempo marking is practised at a moderate ♩ = 72 (common practice for slow work). */
 const ASSUMED_TEMPO = 72;
 
-export default async function PracticePage({ params }: { params: Promise<{ partId: string }> }) {
+export default async function PracticePage({ params, searchParams }: { params: Promise<{ partId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const { partId } = await params;
+  const { note } = await searchParams;
   const { user, access } = await loadPartForPage({ partId, action: "practice:view", path: `/parts/${partId}/practice` });
   const { part } = access;
-  const [analysis, markings, log, takes] = await Promise.all([
+  const [analysis, markings, log, takes, assignments] = await Promise.all([
     chosenPartAnalysis(part),
     listMarkingsByPartId({ partId }),
     listPracticeEntriesByPartId({ partId, userId: part.ownerId }),
     listTakesByPartId({ partId, userId: part.ownerId }),
+    listAssignmentsByPartId({ partId }),
   ]);
   const byKey = new Map(markings.map((m) => [m.noteKey, m]));
   const notes: PracticeNote[] = analysis.notes.map((n) => {
@@ -40,10 +46,13 @@ export default async function PracticePage({ params }: { params: Promise<{ partI
   const queryClient = new QueryClient();
   queryClient.setQueryData(practiceKeys.log(partId), { ...log, canWrite });
   queryClient.setQueryData(practiceKeys.takes(partId), { takes });
+  queryClient.setQueryData(assignmentKeys.list(partId), { assignments, ...assignmentAbilities(user, access) });
+  // `?note=` (from a link to practice on a note) opens the room on that note.
+  const initialNoteKey = typeof note === "string" && part.noteKeys.includes(note) ? note : null;
 
   return (
     <HydrationBoundary state={dehydrate(queryClient)}>
-      <PracticeRoom partId={partId} title={part.title} tempo={part.tempo ?? ASSUMED_TEMPO} tempoAssumed={!part.tempo} notes={notes} canWrite={canWrite} />
+      <PracticeRoom partId={partId} title={part.title} tempo={part.tempo ?? ASSUMED_TEMPO} tempoAssumed={!part.tempo} notes={notes} canWrite={canWrite} initialNoteKey={initialNoteKey} serverToday={utcIsoDate(new Date())} />
     </HydrationBoundary>
   );
 }
