@@ -68,7 +68,10 @@ describe("PracticeAssignments", () => {
     );
     fireEvent.click(screen.getByRole("button", { name: "Practise this: Hold ladder, Bar 3 · A5" }));
     expect(onPractise).toHaveBeenCalledWith(expect.objectContaining({ id: "a9" }));
-    fireEvent.click(screen.getByLabelText("Done: Hold ladder, Bar 3 · A5"));
+    const box = screen.getByLabelText<HTMLInputElement>("Done: Hold ladder, Bar 3 · A5");
+    fireEvent.click(box);
+    // Ticked in the same turn as the click, before the request has even left.
+    expect(box.checked).toBe(true);
     await waitFor(() => expect(calls.some((c) => c.url.endsWith("/assignments/a9"))).toBe(true));
     const patch = calls.find((c) => c.url.endsWith("/assignments/a9"))!;
     expect(patch.init?.method).toBe("PATCH");

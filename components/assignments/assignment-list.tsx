@@ -146,6 +146,10 @@ function AssignmentCard({ partId, assignment: a, today, labelOf, canMarkDone, on
   const [editing, setEditing] = useState(false);
   const [confirming, setConfirming] = useState(false);
   const [conflict, setConflict] = useState<string | null>(null);
+  // The tick as clicked, until the list is read again. Local state rather than the mutation's
+  // variables: a controlled checkbox is put back to its rendered value right after the click, and
+  // the mutation's state reaches React only on a later tick.
+  const [tick, setTick] = useState<boolean | null>(null);
   const isDone = a.doneAt !== null;
   const what = `${DRILL_LABELS[a.drill]}${a.noteKey ? `, ${labelOf(a.noteKey)}` : ""}`;
   const failure = [update.error, remove.error].find((e) => e instanceof ApiError) as ApiError | undefined;
@@ -193,11 +197,15 @@ function AssignmentCard({ partId, assignment: a, today, labelOf, canMarkDone, on
               <input
                 type="checkbox"
                 // The tick shows at once; a refusal puts it back when the list is read again.
-                checked={update.isPending && update.variables?.done !== undefined ? update.variables.done : isDone}
+                checked={tick ?? isDone}
                 disabled={update.isPending}
                 onChange={(e) => {
                   setConflict(null);
-                  update.mutate({ id: a.id, version: a.version, done: e.target.checked }, { onError: (err) => err instanceof ApiError && err.isConflict && onConflict() });
+                  setTick(e.target.checked);
+                  update.mutate(
+                    { id: a.id, version: a.version, done: e.target.checked },
+                    { onError: (err) => err instanceof ApiError && err.isConflict && onConflict(), onSettled: () => setTick(null) },
+                  );
                 }}
                 className="h-5 w-5 accent-accent"
                 aria-label={`Done: ${what}`}
