@@ -14,13 +14,18 @@ export function BareScore({ xml }: { xml: string }) {
   useLayoutEffect(() => {
     let cancelled = false;
     (async () => {
+      // The same stage marks as the workspace, for the benchmark's side-by-side.
+      performance.mark("ondula:engraver-import");
       const { OpenSheetMusicDisplay } = await import("opensheetmusicdisplay");
+      performance.mark("ondula:engraver-loaded");
       const el = host.current;
       if (cancelled || !el) return;
       const osmd = new OpenSheetMusicDisplay(el, { ...ENGRAVING_OPTIONS });
       await osmd.load(xml);
+      performance.mark("ondula:loaded");
       if (cancelled) return;
       osmd.render();
+      performance.mark("ondula:rendered");
       setReady(true);
     })();
     return () => {

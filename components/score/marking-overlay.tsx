@@ -1,6 +1,6 @@
 "use client";
 
-import { memo, useMemo } from "react";
+import { memo, useLayoutEffect, useMemo } from "react";
 import type { Role } from "@/lib/analysis/types";
 import type { MarkingState } from "@/lib/markings/changes";
 import {
@@ -169,6 +169,9 @@ const CommentMarkerLayer = memo(function CommentMarkerLayer({
 const HitLayer = memo(function HitLayer({
   placed, scale, onNoteClick,
 }: { placed: Map<string, Placed>; scale: number; onNoteClick?: MarkingOverlayProps["onNoteClick"] }) {
+  useLayoutEffect(() => {
+    if (placed.size > 0) performance.mark("ondula:notes-selectable");
+  }, [placed]);
   return (
     <g data-layer="hits">
       {[...placed.values()].map(({ box, rowTop }) => {

@@ -2,6 +2,7 @@
 
 import { ENGRAVING_OPTIONS } from "./engraving-options";
 import { useCallback, useEffect, useLayoutEffect, useRef, useState, type ReactNode } from "react";
+import { flushSync } from "react-dom";
 import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
 import { glyphBandHeight, type NoteBox } from "@/lib/markings/glyph-geometry";
 import { measureNoteBoxes, noteBoxesFromModel, type StageOffset } from "./measure-note-boxes";
@@ -131,8 +132,11 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
    * SVG not where it was assumed).
    */
   const refine = useCallback(() => {
+    // When the browser is idle after the paint: the notes are selectable already, and a click
+    // or a key press should not wait behind this.
+    const whenIdle = (fn: () => void) => (typeof requestIdleCallback === "function" ? requestIdleCallback(fn, { timeout: 500 }) : setTimeout(fn, 0));
     requestAnimationFrame(() =>
-      setTimeout(() => {
+      whenIdle(() => {
         const osmd = osmdRef.current;
         const stage = stageRef.current;
         const svg = stage?.querySelector("svg");
@@ -150,7 +154,7 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
         if (!moved && sameBoxes(last.boxes, boxes)) return;
         const size = engravedSize(stage, offset);
         publish({ boxes, width: size.width, height: size.height, systems: measureSystems(osmd, offset, zoom) });
-      }, 0),
+      }),
     );
   }, [publish]);
 
@@ -189,8 +193,14 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
       performance.mark("ondula:loaded");
       if (cancelled) return;
       osmdRef.current = osmd;
-      render();
-      setStatus("ready");
+      // The notes' positions, the overlay and the ready state reach the DOM in this same task, so
+      // the browser lays out and paints the engraving once, with everything on it. Left to
+      // React's scheduler, the engraving alone is laid out and painted first, then again with
+      // the overlay.
+      flushSync(() => {
+        render();
+        setStatus("ready");
+      });
     })().catch((e: unknown) => {
       if (cancelled) return;
       setError(e instanceof Error ? e.message : String(e));
@@ -213,14 +223,17 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
   useEffect(() => {
     const stage = stageRef.current;
     if (!stage || typeof ResizeObserver === "undefined") return;
-    let width = stage.clientWidth;
+    // The width from the observer's entry: reading the stage's own size would force a layout.
+    let width: number | null = null;
     let timer: ReturnType<typeof setTimeout> | undefined;
-    const observer = new ResizeObserver(() => {
-      const next = stage.clientWidth;
+    const observer = new ResizeObserver((entries) => {
+      const next = entries[entries.length - 1].contentRect.width;
+      if (width === null) width = next; // the first report is the size it starts at
       if (Math.abs(next - width) < 4) return;
       width = next;
       clearTimeout(timer);
-      timer = setTimeout(render, RESIZE_DEBOUNCE_MS);
+      // As on load: the new positions in the same task as the new engraving (one layout, one paint).
+      timer = setTimeout(() => flushSync(render), RESIZE_DEBOUNCE_MS);
     });
     observer.observe(stage);
     return () => {

@@ -14,7 +14,7 @@ import { multipartFile } from "../../tests/helpers/parts";
 import { createSignedInUser } from "../../tests/helpers/session";
 
 const APP_URL = process.env.APP_URL ?? "http://127.0.0.1:3000";
-const RUNS = 7;
+const RUNS = Number(process.env.BENCH_RUNS ?? 7);
 
 /**
  * Records, inside the page, the moment (ms since navigation start) a condition first holds in the
@@ -70,6 +70,21 @@ async function clickToPanel(page: Page, index: number): Promise<number> {
     await new Promise((r) => requestAnimationFrame(() => r(null)));
     return performance.now() - t0;
   }, index);
+}
+
+/** The page's navigation timings and our stage marks (the last of each name), ms since navigation. */
+function stagesOf(page: Page) {
+  return page.evaluate(() => {
+    const nav = performance.getEntriesByType("navigation")[0] as PerformanceNavigationTiming;
+    const marks = performance.getEntriesByType("mark").filter((m) => m.name.startsWith("ondula:"));
+    return {
+      firstByte: Math.round(nav.responseStart),
+      html: Math.round(nav.responseEnd),
+      domReady: Math.round(nav.domContentLoadedEventEnd),
+      ...Object.fromEntries(marks.map((m) => [m.name.slice(7), Math.round(m.startTime)])),
+      ...Object.fromEntries(marks.filter((m) => m.name === "ondula:notes-selectable").slice(0, 1).map((m) => ["first notes-selectable", Math.round(m.startTime)])),
+    };
+  });
 }
 
 function median(xs: number[]): number {
@@ -134,16 +149,15 @@ const section: BenchSection = {
         await profileLoad(page, async () => void (await timeToReady(page, `${APP_URL}/dev/bare-score/${id}`)), `bare-${bars}`);
         await timeToReady(page, `${APP_URL}/parts/${id}`);
       }
-      const stages = await page.evaluate(() => {
-        const nav = performance.getEntriesByType("navigation")[0] as PerformanceNavigationTiming;
-        return {
-          firstByte: Math.round(nav.responseStart),
-          html: Math.round(nav.responseEnd),
-          domReady: Math.round(nav.domContentLoadedEventEnd),
-          ...Object.fromEntries(performance.getEntriesByType("mark").filter((m) => m.name.startsWith("ondula:")).map((m) => [m.name.slice(7), Math.round(m.startTime)])),
-        };
-      });
-      console.log(`${bars} bars, last workspace run, ms since navigation:`, JSON.stringify(stages), `in DOM ${Math.round(workspace[workspace.length - 1].inDom)}, drawn ${Math.round(workspace[workspace.length - 1].drawn)}`);
+      const lastWorkspace = workspace[workspace.length - 1];
+      console.log(`${bars} bars, last workspace run, ms since navigation:`, JSON.stringify(await stagesOf(page)), `in DOM ${Math.round(lastWorkspace.inDom)}, drawn ${Math.round(lastWorkspace.drawn)}`);
+      if (process.env.BENCH_RESOURCES) console.log("workspace scripts:", await page.evaluate(() => performance.getEntriesByType("resource").filter((r) => (r as PerformanceResourceTiming).initiatorType === "script").map((r) => r.name.split("/").pop()).join(" ")));
+      const bareRun = await timeToReady(page, `${APP_URL}/dev/bare-score/${id}`);
+      console.log(`${bars} bars, a bare run, ms since navigation:`, JSON.stringify(await stagesOf(page)), `in DOM ${Math.round(bareRun.inDom)}, drawn ${Math.round(bareRun.drawn)}`);
+      if (process.env.BENCH_RESOURCES) console.log("bare page scripts:", await page.evaluate(() => performance.getEntriesByType("resource").filter((r) => (r as PerformanceResourceTiming).initiatorType === "script").map((r) => r.name.split("/").pop()).join(" ")));
+      await timeToReady(page, `${APP_URL}/parts/${id}`);
+      const htmlBytes = async (url: string) => (await (await context.request.get(url)).body()).length;
+      console.log(`${bars} bars, HTML bytes: workspace ${await htmlBytes(`${APP_URL}/parts/${id}`)}, bare ${await htmlBytes(`${APP_URL}/dev/bare-score/${id}`)}, MusicXML ${xml.length}`);
       const clicks: number[] = [];
       for (let i = 0; i < 15; i++) {
         const ms = await clickToPanel(page, i * 7 + 1);
