@@ -32,6 +32,8 @@ export interface ScoreViewProps {
    * once): measured from the drawing only, one layout per render.
    */
   layoutFrom?: "model" | "drawing";
+  /** Called when the part cannot be engraved (the message is shown in place of the score). */
+  onError?: () => void;
 }
 
 const RESIZE_DEBOUNCE_MS = 200;
@@ -82,7 +84,7 @@ if (typeof window !== "undefined") void loadEngraver();
  * is loaded on pages that show a score. Every render rebuilds its SVG; we never attach anything
  * to it and re-measure the notes instead.
  */
-export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layoutFrom = "model" }: ScoreViewProps) {
+export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layoutFrom = "model", onError }: ScoreViewProps) {
   const stageRef = useRef<HTMLDivElement>(null);
   const hostRef = useRef<HTMLDivElement>(null);
   const osmdRef = useRef<OpenSheetMusicDisplay | null>(null);
@@ -91,9 +93,11 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
   const [status, setStatus] = useState<"loading" | "ready" | "error">("loading");
   const [error, setError] = useState<string | null>(null);
 
+  const onErrorRef = useRef(onError);
   useEffect(() => {
     onLayoutRef.current = onLayout;
-  }, [onLayout]);
+    onErrorRef.current = onError;
+  }, [onLayout, onError]);
 
   // Where the engraving's SVG sits in the stage. Assumed from the last check (the host has no
   // padding, so it starts at 0, 0) and verified once the browser has laid the page out anyway.
@@ -205,6 +209,7 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
       if (cancelled) return;
       setError(e instanceof Error ? e.message : String(e));
       setStatus("error");
+      onErrorRef.current?.();
     });
     return () => {
       cancelled = true;

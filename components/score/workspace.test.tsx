@@ -7,10 +7,16 @@ import type { MarkingDto } from "@/lib/markings/schema";
 import type { ScoreViewProps } from "./score-view";
 import { K, fakeBoxes } from "./test-fixtures";
 
-// The engraving library cannot run in jsdom: the score view reports a fixed layout instead.
+// The engraving library cannot run in jsdom: the score view reports a fixed layout instead, at
+// once or, while `engraving.hold` is set, when the test calls `engraving.finish()`.
+const engraving = vi.hoisted(() => ({ hold: false, finish: () => {} }));
 vi.mock("./score-view", () => ({
   ScoreView: ({ onLayout, children }: ScoreViewProps) => {
-    useEffect(() => onLayout({ boxes: fakeBoxes, width: 800, height: 400, systems: [] }), [onLayout]);
+    useEffect(() => {
+      const publish = () => onLayout({ boxes: fakeBoxes, width: 800, height: 400, systems: [] });
+      if (engraving.hold) engraving.finish = publish;
+      else publish();
+    }, [onLayout]);
     return <div data-testid="score">{children}</div>;
   },
 }));
@@ -84,6 +90,7 @@ class FakeServer {
 let server: FakeServer;
 
 beforeEach(() => {
+  engraving.hold = false;
   server = new FakeServer();
   vi.stubGlobal("fetch", vi.fn((input: string, init?: RequestInit) => server.fetch(input, init)));
 });
@@ -109,6 +116,19 @@ async function setDepth(value: string) {
 }
 
 describe("Workspace", () => {
+  it("asks for the analysis, history, comments and notifications only once the score is drawn", async () => {
+    engraving.hold = true;
+    open();
+    await screen.findByTestId("score");
+    // The markings and the text come first (the page carries them); nothing else competes with the engraving.
+    await waitFor(() => expect(server.requests.some((r) => r.url === "/api/parts/part-1/markings")).toBe(true));
+    const later = ["/api/parts/part-1/analysis", "/api/parts/part-1/history", "/api/parts/part-1/comments/summary", "/api/notifications?partId=part-1"];
+    expect(server.requests.filter((r) => later.includes(r.url))).toEqual([]);
+    act(() => engraving.finish());
+    await waitFor(() => expect(later.filter((u) => !server.requests.some((r) => r.url === u))).toEqual([]));
+    await waitFor(() => expect(within(screen.getByRole("tab", { name: /Suggestions/ })).queryByTestId("count-badge")).not.toBeNull());
+  });
+
   it("shows the suggestions still to decide as a count badge on the tab, kept in its name", async () => {
     open();
     const tab = await screen.findByRole("tab", { name: /Suggestions/ });

@@ -72,10 +72,14 @@ function prefersReducedMotion(): boolean {
 function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: string }) {
   const part = usePart(partId);
   const xml = useMusicXml(partId);
-  const analysis = useAnalysis(partId);
+  // What the first drawing does not need is asked for once the score is drawn (or could not be):
+  // on a small machine the server's answers would otherwise compete with the engraving.
+  const [scoreSettled, setScoreSettled] = useState(false);
+  const afterScore = { enabled: scoreSettled || xml.isError };
+  const analysis = useAnalysis(partId, afterScore);
   const markingsQuery = useMarkings(partId);
   const decisionsQuery = useDecisions(partId);
-  const history = useHistory(partId);
+  const history = useHistory(partId, afterScore);
   useSaveStateSync(partId);
   const commit = useCommitMarkings(partId);
   const undo = useHistoryStep(partId, "undo");
@@ -102,8 +106,8 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   const [size, setSize] = useState<{ width: number; height: number; systems?: ScoreLayout["systems"] }>({ width: 0, height: 0 });
 
   const canEdit = part.data?.permission === "owner";
-  const commentCounts = useCommentCounts(partId);
-  const unread = useNotifications(partId).data?.unread ?? 0;
+  const commentCounts = useCommentCounts(partId, afterScore);
+  const unread = useNotifications(partId, afterScore).data?.unread ?? 0;
   const tempo = part.data?.tempo ?? null;
   const markings = useMemo(() => toState(markingsQuery.data?.markings ?? []), [markingsQuery.data]);
 
@@ -139,10 +143,12 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
     }
   }, [boxes, permission, actions]);
 
+  const settleScore = useCallback(() => setScoreSettled(true), []);
   const onLayout = useCallback(
     (layout: ScoreLayout) => {
       actions.setLayout(layout.boxes);
       setSize({ width: layout.width, height: layout.height, systems: layout.systems });
+      setScoreSettled(true);
     },
     [actions],
   );
@@ -434,7 +440,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
               panel, Escape clears the selection, Delete clears the marking, Ctrl+C and Ctrl+V copy and paste a marking.
             </p>
             {xml.data ? (
-              <ScoreView xml={xml.data} zoom={zoom} onLayout={onLayout}>
+              <ScoreView xml={xml.data} zoom={zoom} onLayout={onLayout} onError={settleScore}>
                 <MarkingOverlay
                   boxes={boxes}
                   width={size.width}

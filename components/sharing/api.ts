@@ -1,5 +1,6 @@
 "use client";
 
+import { useMemo } from "react";
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { apiFetch } from "@/components/library/api";
 import type { MarkingDto, MarkingValues } from "@/lib/markings/schema";
@@ -83,8 +84,9 @@ export function useThread(partId: string, threadKey: string) {
   return useQuery(threadOptions(partId, threadKey));
 }
 
-export function useCommentSummary(partId: string) {
+export function useCommentSummary(partId: string, { enabled = true } = {}) {
   return useQuery({
+    enabled,
     queryKey: sharingKeys.summary(partId),
     queryFn: () => apiFetch<{ threads: ThreadSummary[] }>(`/api/parts/${partId}/comments/summary`),
     refetchInterval: 60_000,
@@ -92,14 +94,17 @@ export function useCommentSummary(partId: string) {
 }
 
 /** Comment and open-proposal counts per note: what the score's comment markers show. */
-export function useCommentCounts(partId: string): Record<string, number> {
-  const summary = useCommentSummary(partId);
-  const out: Record<string, number> = {};
-  for (const t of summary.data?.threads ?? []) {
-    const n = (t.unresolved ? t.count : 0) + t.openProposals;
-    if (n > 0) out[t.threadKey] = n;
-  }
-  return out;
+export function useCommentCounts(partId: string, { enabled = true } = {}): Record<string, number> {
+  const threads = useCommentSummary(partId, { enabled }).data?.threads;
+  // The same object until the summary changes: the overlay re-places every note when it changes.
+  return useMemo(() => {
+    const out: Record<string, number> = {};
+    for (const t of threads ?? []) {
+      const n = (t.unresolved ? t.count : 0) + t.openProposals;
+      if (n > 0) out[t.threadKey] = n;
+    }
+    return out;
+  }, [threads]);
 }
 
 function useThreadMutation<V, R>(partId: string, threadKey: string, request: (v: V) => Promise<R>) {
@@ -170,8 +175,9 @@ export const useWithdrawProposal = (partId: string) =>
 
 // ——— notifications ———
 
-export function useNotifications(partId?: string) {
+export function useNotifications(partId?: string, { enabled = true } = {}) {
   return useQuery({
+    enabled,
     queryKey: sharingKeys.notifications(partId),
     queryFn: () => apiFetch<NotificationsPage>(`/api/notifications${partId ? `?partId=${partId}` : ""}`),
     refetchInterval: 30_000,

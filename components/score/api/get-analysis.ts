@@ -13,4 +13,5 @@ export const getAnalysis = async (partId: string) => {
 export const analysisQueryOptions = (partId: string) =>
   queryOptions({ queryKey: partKeys.analysis(partId), queryFn: () => getAnalysis(partId), staleTime: 5 * 60_000 });
 
-export const useAnalysis = (partId: string) => useQuery(analysisQueryOptions(partId));
+/** `enabled: false` holds the request back (the workspace asks once the score is drawn). */
+export const useAnalysis = (partId: string, { enabled = true } = {}) => useQuery({ ...analysisQueryOptions(partId), enabled });

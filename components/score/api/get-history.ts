@@ -22,4 +22,4 @@ export const getHistory = (partId: string) => fetchJson<HistoryState>(`${partUrl
 export const historyQueryOptions = (partId: string) =>
   queryOptions({ queryKey: historyKeys.list(partId), queryFn: () => getHistory(partId) });
 
-export const useHistory = (partId: string) => useQuery(historyQueryOptions(partId));
+export const useHistory = (partId: string, { enabled = true } = {}) => useQuery({ ...historyQueryOptions(partId), enabled });

@@ -18,8 +18,8 @@ export default async function PartWorkspacePage({ params }: { params: Promise<{ 
   const { partId } = await params;
   const { user, access } = await loadPartForPage({ partId, action: "part:view", path: `/parts/${partId}` });
   // The text to engrave and the markings travel with the page, so engraving starts without a
-  // round trip; the analysis (as large as the text) follows through its own request while the
-  // engraver works. The client keeps all of it fresh through the same query keys.
+  // round trip; the analysis (as large as the text), the history and the discussion's counts are
+  // asked for once the score is drawn. The client keeps all of it fresh through the same query keys.
   const [markings, decisions] = await Promise.all([listMarkingsByPartId({ partId }), listDecisionsByPartId({ partId })]);
   const queryClient = new QueryClient();
   queryClient.setQueryData(partKeys.detail(partId), partDto(access));
