@@ -65,6 +65,11 @@ function isTyping(target: EventTarget | null): boolean {
   return el.isContentEditable || ["INPUT", "TEXTAREA", "SELECT"].includes(el.tagName);
 }
 
+function afterPaint(fn: () => void): void {
+  if (typeof requestAnimationFrame === "function") requestAnimationFrame(() => setTimeout(fn, 0));
+  else setTimeout(fn, 0);
+}
+
 function prefersReducedMotion(): boolean {
   return typeof window !== "undefined" && window.matchMedia?.("(prefers-reduced-motion: reduce)").matches === true;
 }
@@ -148,7 +153,9 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
     (layout: ScoreLayout) => {
       actions.setLayout(layout.boxes);
       setSize({ width: layout.width, height: layout.height, systems: layout.systems });
-      setScoreSettled(true);
+      // After the paint: starting the requests costs time of its own, which the first frame
+      // should not wait for.
+      afterPaint(() => setScoreSettled(true));
     },
     [actions],
   );

@@ -87,6 +87,12 @@ function stagesOf(page: Page) {
   });
 }
 
+/** The median and range of workspace ÷ bare over runs taken one after the other. */
+function pairedRatios(bare: Ready[], workspace: Ready[]): string {
+  const ratios = workspace.map((w, i) => w.drawn / bare[i].drawn).sort((a, b) => a - b);
+  return `${median(ratios).toFixed(2)} (${ratios[0].toFixed(2)}–${ratios[ratios.length - 1].toFixed(2)})`;
+}
+
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
   return s[Math.floor(s.length / 2)];
@@ -171,6 +177,8 @@ const section: BenchSection = {
         "bare OSMD page ms": Math.round(drawn(bare)),
         "workspace ms": Math.round(drawn(workspace)),
         "workspace ÷ bare": +(drawn(workspace) / drawn(bare)).toFixed(2),
+        // Each workspace run against the bare run just before it: steadier on a shared machine.
+        "paired ÷ (median, range)": pairedRatios(bare, workspace),
         "in DOM, before paint: ÷": +(inDom(workspace) / inDom(bare)).toFixed(2),
         "click → panel ms (median)": +median(clicks).toFixed(1),
         "click → panel ms (max)": +Math.max(...clicks).toFixed(1),
