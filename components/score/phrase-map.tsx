@@ -1,6 +1,6 @@
 "use client";
 
-import { useMemo } from "react";
+import { memo, useMemo } from "react";
 import type { PhraseResult } from "@/lib/analysis/types";
 import type { MarkingState } from "@/lib/markings/changes";
 import { ROLE_INFO } from "@/lib/markings/roles";
@@ -18,7 +18,8 @@ export interface PhraseMapProps {
 const H = 44;
 
 /** A strip of the whole part: each phrase a span with its start, peak and end, and the marked notes. */
-export function PhraseMap({ noteOrder, phrases, markings, labelOf, onJump }: PhraseMapProps) {
+/** Memoized: a click on a note re-renders the workspace, and nothing here depends on the selection. */
+export const PhraseMap = memo(function PhraseMap({ noteOrder, phrases, markings, labelOf, onJump }: PhraseMapProps) {
   const index = useMemo(() => new Map(noteOrder.map((k, i) => [k, i])), [noteOrder]);
   const n = Math.max(1, noteOrder.length - 1);
   const pct = (key: string) => ((index.get(key) ?? 0) / n) * 100;
@@ -65,7 +66,7 @@ export function PhraseMap({ noteOrder, phrases, markings, labelOf, onJump }: Phr
       </div>
     </nav>
   );
-}
+});
 
 function Mark({ at, role, label, onClick }: { at: number; role: "phrase-start" | "peak"; label: string; onClick: () => void }) {
   return (

@@ -116,6 +116,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   const tempo = part.data?.tempo ?? null;
   const markings = useMemo(() => toState(markingsQuery.data?.markings ?? []), [markingsQuery.data]);
 
+  const noteOrder = useMemo(() => (analysis.data?.notes ?? []).map((n) => n.key), [analysis.data]);
   const notesByKey = useMemo(() => new Map((analysis.data?.notes ?? []).map((n) => [n.key, n])), [analysis.data]);
   const labelOf = useCallback((key: string) => noteLabel(key, notesByKey.get(key)), [notesByKey]);
   const durations = useMemo(() => noteDurations(analysis.data?.notes ?? [], tempo), [analysis.data, tempo]);
@@ -415,7 +416,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
       {analysis.data && analysis.data.phrases.length > 0 ? (
         <div className="no-print border-b border-rule px-gutter pb-1 pt-1">
           <PhraseMap
-            noteOrder={analysis.data.notes.map((n) => n.key)}
+            noteOrder={noteOrder}
             phrases={analysis.data.phrases}
             markings={markings}
             labelOf={labelOf}
