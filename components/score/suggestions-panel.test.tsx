@@ -10,7 +10,7 @@ const s = (note: string, role: Suggestion["role"], confidence: number, reason = 
 });
 
 function setup(pending: Suggestion[], canEdit = true) {
-  const handlers = { onAccept: vi.fn(), onDismiss: vi.fn(), onShow: vi.fn() };
+  const handlers = { onAccept: vi.fn(), onDismiss: vi.fn(), onShow: vi.fn(), onEdit: vi.fn() };
   render(<SuggestionsPanel pending={pending} decidedCount={2} labelOf={(k) => `Note ${k}`} canEdit={canEdit} {...handlers} />);
   return handlers;
 }
@@ -37,6 +37,8 @@ describe("SuggestionsPanel", () => {
       { noteKey: "a", role: "tension" },
       { noteKey: "c", role: "tension" },
     ]);
+    fireEvent.click(screen.getByRole("button", { name: "Accept and edit peak at Note b" }));
+    expect(h.onEdit).toHaveBeenLastCalledWith({ noteKey: "b", role: "peak" });
     fireEvent.click(screen.getByRole("button", { name: "Dismiss peak at Note b" }));
     expect(h.onDismiss).toHaveBeenCalledWith({ noteKey: "b", role: "peak" });
     fireEvent.click(screen.getByRole("button", { name: "Show me Note c" }));

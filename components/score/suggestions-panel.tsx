@@ -15,10 +15,12 @@ export interface SuggestionsPanelProps {
   onAccept: (items: { noteKey: string; role: Role }[]) => void;
   onDismiss: (item: { noteKey: string; role: Role }) => void;
   onShow: (noteKey: string) => void;
+  /** Accepts it and opens the marking panel on its note, to change depth, speed or role. */
+  onEdit?: (item: { noteKey: string; role: Role }) => void;
 }
 
 /** The analysis' suggestions by role, each with its reason, to accept, dismiss or look at. */
-export function SuggestionsPanel({ pending, decidedCount, labelOf, canEdit, onAccept, onDismiss, onShow }: SuggestionsPanelProps) {
+export function SuggestionsPanel({ pending, decidedCount, labelOf, canEdit, onAccept, onDismiss, onShow, onEdit }: SuggestionsPanelProps) {
   const groups = groupByRole(pending, ROLE_ORDER);
   return (
     <section aria-label="Suggestions" className="space-y-5" data-testid="suggestions-panel">
@@ -72,6 +74,16 @@ export function SuggestionsPanel({ pending, decidedCount, labelOf, canEdit, onAc
                         >
                           Accept
                         </button>
+                        {onEdit ? (
+                          <button
+                            type="button"
+                            onClick={() => onEdit({ noteKey: s.note, role: s.role })}
+                            className="h-11 rounded border border-ink/40 px-3 text-sm font-semibold hover:bg-paper-deep"
+                            aria-label={`Accept and edit ${ROLE_INFO[s.role].label.toLowerCase()} at ${labelOf(s.note)}`}
+                          >
+                            Accept and edit
+                          </button>
+                        ) : null}
                         <button
                           type="button"
                           onClick={() => onDismiss({ noteKey: s.note, role: s.role })}

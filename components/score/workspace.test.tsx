@@ -233,6 +233,21 @@ describe("Workspace", () => {
     await waitFor(() => expect(document.querySelector(`[data-glyph="suggestion"][data-note-key="${K[3]}"]`)).not.toBeNull());
   });
 
+  it("accepts a suggestion and opens its note in the marking panel to edit it", async () => {
+    open();
+    await screen.findByText("B is the leading tone of C major; it rises to C.");
+    fireEvent.click(screen.getByRole("button", { name: /Accept and edit tension tone/ }));
+    await waitFor(() => expect(server.markings.get(K[3])?.role).toBe("tension"));
+    expect(server.requests.some((r) => r.method === "POST" && r.url.endsWith("/suggestions/decisions") && (r.body as { decision: string }).decision === "accepted")).toBe(true);
+    const panel = await screen.findByTestId("marking-panel");
+    expect(within(panel).getByRole("heading", { level: 2 }).textContent).toBe("Bar 3 · B4");
+    expect(within(panel).getByRole("radio", { name: /Tension tone/ })).toHaveProperty("checked", true);
+    // Edited there like any marking: the depth goes out with the version the acceptance got back.
+    await setDepth("25");
+    await waitFor(() => expect(server.markings.get(K[3])?.depthCents).toBe(25));
+    expect(server.markings.get(K[3])?.role).toBe("tension");
+  });
+
   it("moves from note to note with the keyboard and opens the panel with Enter", async () => {
     open();
     await waitFor(() => expect(hit(K[0])).toBeTruthy());

@@ -233,6 +233,17 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
     actions.setPanelOpen(true);
     requestAnimationFrame(() => railRef.current?.querySelector<HTMLElement>("input:not([type=range]):not([disabled])")?.focus());
   }, [actions]);
+  // "Accept and edit": the suggestion becomes a marking, and its note opens in the marking panel
+  // (depth and speed to set, or the role to change).
+  const acceptAndEdit = useCallback(
+    (item: { noteKey: string; role: Role }) => {
+      accept([item]);
+      actions.select(item.noteKey);
+      actions.reveal(item.noteKey);
+      openPanel();
+    },
+    [accept, actions, openPanel],
+  );
 
   const onScoreKey = (e: KeyboardEvent<HTMLDivElement>) => {
     const move = ARROWS[e.key];
@@ -336,6 +347,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
         canEdit={canEdit}
         onAccept={accept}
         onDismiss={dismiss}
+        onEdit={acceptAndEdit}
         onShow={show}
       />
     ) : (

@@ -101,6 +101,7 @@ describe("the marking workspace", () => {
     await item.waitFor();
     const suggested = (await item.getAttribute("data-suggestion"))!;
     const accept = item.getByRole("button", { name: /^Accept tension tone at / });
+    await page.getByRole("complementary", { name: "Marking and suggestions" }).screenshot({ path: screenshotPath("workspace-suggestions") });
     const markingsNow = async () =>
       (await page.evaluate(async (id) => (await fetch(`/api/parts/${id}/markings`)).json(), partId)).markings as Array<{ noteKey: string; role: string | null }>;
     expect((await markingsNow()).some((m) => m.role === "tension")).toBe(false);
