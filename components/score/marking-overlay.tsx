@@ -102,40 +102,43 @@ function place(boxes: NoteBox[], systems: readonly OverlaySystem[] | undefined, 
   return { placed, tops: rows.map((r) => r.top) };
 }
 
-/** Our SVG layer over the engraving: marking glyphs, suggestion outlines, selection and hit areas. */
+/** Our SVG layers over the engraving: marking glyphs, suggestion outlines and hit areas; the selection above them. */
 export function MarkingOverlay(props: MarkingOverlayProps) {
   const glyphed = useMemo(
     () => new Set([...Object.keys(props.markings), ...(props.suggestions ?? []).map((s) => s.noteKey), ...Object.keys(props.commentCounts ?? {})]),
     [props.markings, props.suggestions, props.commentCounts],
   );
   const { placed, tops } = useMemo(() => place(props.boxes, props.systems, glyphed, props.scale), [props.boxes, props.systems, glyphed, props.scale]);
+  const size = { width: props.width, height: props.height, viewBox: `0 0 ${props.width} ${props.height}` };
   return (
-    <svg
-      className="pointer-events-none absolute left-0 top-0 select-none"
-      width={props.width}
-      height={props.height}
-      viewBox={`0 0 ${props.width} ${props.height}`}
-      data-testid="marking-overlay"
-      aria-hidden="true"
-    >
-      <SelectionLayer placed={placed} selection={props.selection} scale={props.scale} />
-      <GlyphLayer
-        placed={placed}
-        scale={props.scale}
-        markings={props.markings}
-        suggestions={props.suggestions}
-        resolutions={props.resolutions}
-        durations={props.durations}
-        commentCounts={props.commentCounts}
-        focus={props.selection.focus}
-        systems={props.systems}
-        tops={tops}
-        width={props.width}
-        minTextPx={props.minTextPx}
-      />
-      <CommentMarkerLayer placed={placed} scale={props.scale} markings={props.markings} commentCounts={props.commentCounts} minTextPx={props.minTextPx} />
-      <HitLayer placed={placed} scale={props.scale} onNoteClick={props.onNoteClick} />
-    </svg>
+    <>
+      <svg className="pointer-events-none absolute left-0 top-0 select-none" {...size} data-testid="marking-overlay" aria-hidden="true">
+        <GlyphLayer
+          placed={placed}
+          scale={props.scale}
+          markings={props.markings}
+          suggestions={props.suggestions}
+          resolutions={props.resolutions}
+          durations={props.durations}
+          commentCounts={props.commentCounts}
+          focus={props.selection.focus}
+          systems={props.systems}
+          tops={tops}
+          width={props.width}
+          minTextPx={props.minTextPx}
+        />
+        <CommentMarkerLayer placed={placed} scale={props.scale} markings={props.markings} commentCounts={props.commentCounts} minTextPx={props.minTextPx} />
+        <HitLayer placed={placed} scale={props.scale} onNoteClick={props.onNoteClick} />
+      </svg>
+      {/* The selection in an SVG and a compositor layer of its own: selecting a note repaints
+          this small drawing, not the whole score with its glyphs (measured: most of a click's
+          cost on a long, marked part was painting). */}
+      {props.selection.keys.length > 0 ? (
+        <svg className="pointer-events-none absolute left-0 top-0 select-none [will-change:transform]" {...size} data-layer-svg="selection" aria-hidden="true">
+          <SelectionLayer placed={placed} selection={props.selection} scale={props.scale} />
+        </svg>
+      ) : null}
+    </>
   );
 }
 
@@ -255,34 +258,12 @@ const GlyphLayer = memo(function GlyphLayer({
 }) {
   const size = GLYPH.roleSize * scale;
   const text = glyphText(scale, minTextPx);
-  const roleAnchor = (key: string, offset = 0) => {
-    const p = placed.get(key);
-    if (!p) return null;
-    const slots = glyphSlots(p.box, scale, p.rowTop, minTextPx);
-    return { x: p.box.x + p.box.width / 2 + offset, y: slots.roleY, row: p.row };
-  };
-  // Each system's margins and the height an arc keeps over it (the top of its role shapes).
-  const arcRows: (ArcRow | undefined)[] = (systems ?? []).map((s, row) => ({
-    left: s.left,
-    right: s.right,
-    y: glyphSlots({ y: tops[row] ?? s.staffTop, staffTop: s.staffTop }, scale, tops[row], minTextPx).roleY - size / 2,
-  }));
-
-  const arcs: { key: string; pieces: ReturnType<typeof tensionArcPieces>; dashed: boolean }[] = [];
-  const addArc = (key: string, fromKey: string, toKey: string | undefined, dashed: boolean) => {
-    const from = roleAnchor(fromKey);
-    const to = toKey ? roleAnchor(toKey) : null;
-    if (!from || !to) return;
-    arcs.push({ key, dashed, pieces: tensionArcPieces({ ...from, y: from.y - size / 2 }, { ...to, y: to.y - size / 2 }, arcRows, scale) });
-  };
-  for (const marking of Object.values(markings)) {
-    if (marking.role !== "tension") continue;
-    addArc(marking.noteKey, marking.noteKey, resolutions?.[marking.noteKey] ?? nextResolution(placed, markings, marking.noteKey), false);
-  }
-  for (const s of suggestions ?? []) {
-    if (s.role !== "tension" || !s.resolvesTo || markings[s.noteKey]?.role === "tension") continue;
-    addArc(`s:${s.noteKey}`, s.noteKey, s.resolvesTo, true);
-  }
+  const roleAnchor = (key: string) => roleAnchorOf(placed, key, scale, minTextPx);
+  // Independent of the focus: a click on a note does not redraw the arcs.
+  const arcs = useMemo(
+    () => tensionArcs({ placed, markings, resolutions, suggestions, systems, tops, scale, minTextPx }),
+    [placed, markings, resolutions, suggestions, systems, tops, scale, minTextPx],
+  );
 
   // On paper the numbers stay large, so they are kept apart rather than fitted to their waves.
   const paperLabels = minTextPx
@@ -320,65 +301,18 @@ const GlyphLayer = memo(function GlyphLayer({
       {Object.values(markings).map((marking) => {
         const p = placed.get(marking.noteKey);
         if (!p) return null;
-        const { box, next, rowTop } = p;
-        const slots = glyphSlots(box, scale, rowTop, minTextPx);
-        const width = waveWidth(box, next, scale);
-        const hairlineY = marking.placement === "top-on-pitch" ? slots.hangingHairline : slots.centredHairline;
-        const wave = vibratoWave({
-          x: box.x,
-          width,
-          hairline: hairlineY,
-          depthCents: marking.depthCents,
-          speedHz: marking.speedHz,
-          placement: marking.placement,
-          onset: marking.onset,
-          shape: marking.shape,
-          durationSeconds: durations?.[marking.noteKey],
-          scale,
-        });
-        const label = labelOf(marking);
-        const labelFits = paperLabels ? paperLabels.has(marking.noteKey) : width >= label.length * 4.2 * scale || marking.noteKey === focus;
-        const cx = box.x + box.width / 2;
-        const comments = commentCounts?.[marking.noteKey] ?? (marking.comment.trim() ? 1 : 0);
-        // A tension tone's arc leaves to the right, so its comment tab stands on the left.
-        const tabWidth = commentMarker(0, 0, comments, scale, text.count).width;
-        const tabX = marking.role === "tension" ? cx - size * 0.7 - tabWidth : cx + size * 0.7;
-        const marker = comments > 0 ? commentMarker(tabX, slots.commentY, comments, scale, text.count) : null;
         return (
-          <g key={marking.noteKey} data-marking={marking.noteKey} data-system={p.row}>
-            <title>{describe(marking)}</title>
-            <g data-glyph="wave" data-note-key={marking.noteKey} data-kind={wave.kind} data-crests={formatNumber(wave.crests, 2)}>
-              {wave.kind === "wave" ? (
-                <line x1={wave.hairline.x1} x2={wave.hairline.x2} y1={wave.hairline.y} y2={wave.hairline.y} stroke={GRAPHITE} strokeWidth={0.5} strokeOpacity={0.7} />
-              ) : null}
-              <path d={wave.path} fill="none" stroke={INK} strokeWidth={wave.kind === "wave" ? 1.3 : 1.6} strokeLinejoin="round" strokeLinecap="round" />
-            </g>
-            {labelFits ? (
-              <text x={box.x} y={slots.labelY} fontSize={text.label} fill={GRAPHITE} data-glyph="numbers" data-glyph-text="numbers" data-note-key={marking.noteKey}>
-                {label}
-              </text>
-            ) : null}
-            {marking.role ? (
-              <path
-                d={roleShapePath(marking.role, cx, slots.roleY, size)}
-                fill={ROLE_INFO[marking.role].color}
-                stroke={INK}
-                strokeWidth={0.9}
-                strokeLinejoin="round"
-                data-glyph="role"
-                data-role={marking.role}
-                data-note-key={marking.noteKey}
-              />
-            ) : null}
-            {marker ? (
-              <g data-glyph="comment" data-note-key={marking.noteKey} data-count={comments}>
-                <path d={marker.path} fill={PAPER} stroke={INK} strokeWidth={0.9} strokeLinejoin="round" />
-                <text x={marker.textX} y={marker.textY} fontSize={text.count} textAnchor="middle" fill={INK} data-glyph-text="count">
-                  {comments}
-                </text>
-              </g>
-            ) : null}
-          </g>
+          <MarkingGlyph
+            key={marking.noteKey}
+            marking={marking}
+            placed={p}
+            scale={scale}
+            minTextPx={minTextPx}
+            durationSeconds={durations?.[marking.noteKey]}
+            comments={commentCounts?.[marking.noteKey] ?? (marking.comment.trim() ? 1 : 0)}
+            focused={marking.noteKey === focus}
+            paperLabel={paperLabels ? paperLabels.has(marking.noteKey) : null}
+          />
         );
       })}
       {(suggestions ?? []).map((s) => {
@@ -406,6 +340,130 @@ const GlyphLayer = memo(function GlyphLayer({
     </g>
   );
 });
+
+/**
+ * One marked note's glyphs. Memoized: selecting a note changes only the glyphs of the notes that
+ * gain or lose the focus, and a long part may carry hundreds of marked notes.
+ */
+const MarkingGlyph = memo(function MarkingGlyph({
+  marking, placed: p, scale, minTextPx, durationSeconds, comments, focused, paperLabel,
+}: {
+  marking: MarkingState[string];
+  placed: Placed;
+  scale: number;
+  minTextPx?: number;
+  durationSeconds: number | undefined;
+  comments: number;
+  focused: boolean;
+  /** On paper, whether the numbers found room (null on screen, where they fit their wave). */
+  paperLabel: boolean | null;
+}) {
+  const size = GLYPH.roleSize * scale;
+  const text = glyphText(scale, minTextPx);
+  const { box, next, rowTop } = p;
+  const slots = glyphSlots(box, scale, rowTop, minTextPx);
+  const width = waveWidth(box, next, scale);
+  const hairlineY = marking.placement === "top-on-pitch" ? slots.hangingHairline : slots.centredHairline;
+  const wave = vibratoWave({
+    x: box.x,
+    width,
+    hairline: hairlineY,
+    depthCents: marking.depthCents,
+    speedHz: marking.speedHz,
+    placement: marking.placement,
+    onset: marking.onset,
+    shape: marking.shape,
+    durationSeconds,
+    scale,
+  });
+  const label = labelOf(marking);
+  const labelFits = paperLabel ?? (width >= label.length * 4.2 * scale || focused);
+  const cx = box.x + box.width / 2;
+  // A tension tone's arc leaves to the right, so its comment tab stands on the left.
+  const tabWidth = commentMarker(0, 0, comments, scale, text.count).width;
+  const tabX = marking.role === "tension" ? cx - size * 0.7 - tabWidth : cx + size * 0.7;
+  const marker = comments > 0 ? commentMarker(tabX, slots.commentY, comments, scale, text.count) : null;
+  return (
+    <g data-marking={marking.noteKey} data-system={p.row}>
+      <title>{describe(marking)}</title>
+      <g data-glyph="wave" data-note-key={marking.noteKey} data-kind={wave.kind} data-crests={formatNumber(wave.crests, 2)}>
+        {wave.kind === "wave" ? (
+          <line x1={wave.hairline.x1} x2={wave.hairline.x2} y1={wave.hairline.y} y2={wave.hairline.y} stroke={GRAPHITE} strokeWidth={0.5} strokeOpacity={0.7} />
+        ) : null}
+        <path d={wave.path} fill="none" stroke={INK} strokeWidth={wave.kind === "wave" ? 1.3 : 1.6} strokeLinejoin="round" strokeLinecap="round" />
+      </g>
+      {labelFits ? (
+        <text x={box.x} y={slots.labelY} fontSize={text.label} fill={GRAPHITE} data-glyph="numbers" data-glyph-text="numbers" data-note-key={marking.noteKey}>
+          {label}
+        </text>
+      ) : null}
+      {marking.role ? (
+        <path
+          d={roleShapePath(marking.role, cx, slots.roleY, size)}
+          fill={ROLE_INFO[marking.role].color}
+          stroke={INK}
+          strokeWidth={0.9}
+          strokeLinejoin="round"
+          data-glyph="role"
+          data-role={marking.role}
+          data-note-key={marking.noteKey}
+        />
+      ) : null}
+      {marker ? (
+        <g data-glyph="comment" data-note-key={marking.noteKey} data-count={comments}>
+          <path d={marker.path} fill={PAPER} stroke={INK} strokeWidth={0.9} strokeLinejoin="round" />
+          <text x={marker.textX} y={marker.textY} fontSize={text.count} textAnchor="middle" fill={INK} data-glyph-text="count">
+            {comments}
+          </text>
+        </g>
+      ) : null}
+    </g>
+  );
+});
+
+/** Where a note's role shape sits (its centre), or null when the note is not on the score. */
+function roleAnchorOf(placed: Map<string, Placed>, key: string, scale: number, minTextPx?: number) {
+  const p = placed.get(key);
+  if (!p) return null;
+  const slots = glyphSlots(p.box, scale, p.rowTop, minTextPx);
+  return { x: p.box.x + p.box.width / 2, y: slots.roleY, row: p.row };
+}
+
+/** The arcs from tension tones to their resolutions: marked ones solid, suggested ones dashed. */
+function tensionArcs({ placed, markings, resolutions, suggestions, systems, tops, scale, minTextPx }: {
+  placed: Map<string, Placed>;
+  markings: MarkingState;
+  resolutions?: Readonly<Record<string, string>>;
+  suggestions?: PendingSuggestion[];
+  systems?: readonly OverlaySystem[];
+  tops: number[];
+  scale: number;
+  minTextPx?: number;
+}): { key: string; pieces: ReturnType<typeof tensionArcPieces>; dashed: boolean }[] {
+  const size = GLYPH.roleSize * scale;
+  // Each system's margins and the height an arc keeps over it (the top of its role shapes).
+  const arcRows: (ArcRow | undefined)[] = (systems ?? []).map((s, row) => ({
+    left: s.left,
+    right: s.right,
+    y: glyphSlots({ y: tops[row] ?? s.staffTop, staffTop: s.staffTop }, scale, tops[row], minTextPx).roleY - size / 2,
+  }));
+  const arcs: { key: string; pieces: ReturnType<typeof tensionArcPieces>; dashed: boolean }[] = [];
+  const addArc = (key: string, fromKey: string, toKey: string | undefined, dashed: boolean) => {
+    const from = roleAnchorOf(placed, fromKey, scale, minTextPx);
+    const to = toKey ? roleAnchorOf(placed, toKey, scale, minTextPx) : null;
+    if (!from || !to) return;
+    arcs.push({ key, dashed, pieces: tensionArcPieces({ ...from, y: from.y - size / 2 }, { ...to, y: to.y - size / 2 }, arcRows, scale) });
+  };
+  for (const marking of Object.values(markings)) {
+    if (marking.role !== "tension") continue;
+    addArc(marking.noteKey, marking.noteKey, resolutions?.[marking.noteKey] ?? nextResolution(placed, markings, marking.noteKey), false);
+  }
+  for (const s of suggestions ?? []) {
+    if (s.role !== "tension" || !s.resolvesTo || markings[s.noteKey]?.role === "tension") continue;
+    addArc(`s:${s.noteKey}`, s.noteKey, s.resolvesTo, true);
+  }
+  return arcs;
+}
 
 /** The numbers under a wave: depth in cents, then speed in Hz; "none" under a flat line. */
 function labelOf(m: { depthCents: number; speedHz: number }): string {

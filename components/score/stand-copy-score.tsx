@@ -44,7 +44,7 @@ export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolu
   // Measured once per engraving, right after it is drawn (the overlay is not there yet).
   const onLayout = useCallback((l: ScoreLayout) => {
     const stage = sourceRef.current?.querySelector<HTMLElement>("[data-score-status]");
-    const engraving = stage?.querySelector<SVGSVGElement>('svg:not([data-testid="marking-overlay"])');
+    const engraving = stage?.querySelector<SVGSVGElement>('svg:not([data-testid="marking-overlay"]):not([data-layer-svg])');
     setSky(stage && engraving ? measureSky(engraving, stage, l.systems) : []);
     setLayout(l);
   }, []);
@@ -57,7 +57,7 @@ export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolu
     let frame = 0;
     const build = () => {
       const stage = source.querySelector<HTMLElement>("[data-score-status]");
-      const engraving = stage?.querySelector<SVGSVGElement>('svg:not([data-testid="marking-overlay"])');
+      const engraving = stage?.querySelector<SVGSVGElement>('svg:not([data-testid="marking-overlay"]):not([data-layer-svg])');
       const overlay = stage?.querySelector('[data-testid="marking-overlay"]');
       if (!stage || !engraving || !overlay) {
         frame = requestAnimationFrame(build);
