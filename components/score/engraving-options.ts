@@ -13,3 +13,9 @@ export const ENGRAVING_OPTIONS: IOSMDOptions = {
   drawMeasureNumbers: true,
   drawMeasureNumbersOnlyAtSystemStart: true,
 };
+
+/**
+ * The engraving's own SVG inside a score stage (the stage also holds our overlay SVGs): the
+ * engraver draws into the element marked `data-engraving`.
+ */
+export const ENGRAVING_SVG = "[data-engraving] svg";

@@ -134,7 +134,7 @@ export function MarkingOverlay(props: MarkingOverlayProps) {
           this small drawing, not the whole score with its glyphs (measured: most of a click's
           cost on a long, marked part was painting). */}
       {props.selection.keys.length > 0 ? (
-        <svg className="pointer-events-none absolute left-0 top-0 select-none [will-change:transform]" {...size} data-layer-svg="selection" aria-hidden="true">
+        <svg className="pointer-events-none absolute left-0 top-0 select-none [will-change:transform]" {...size} data-layer="selection-svg" aria-hidden="true">
           <SelectionLayer placed={placed} selection={props.selection} scale={props.scale} />
         </svg>
       ) : null}
@@ -258,7 +258,6 @@ const GlyphLayer = memo(function GlyphLayer({
 }) {
   const size = GLYPH.roleSize * scale;
   const text = glyphText(scale, minTextPx);
-  const roleAnchor = (key: string) => roleAnchorOf(placed, key, scale, minTextPx);
   // Independent of the focus: a click on a note does not redraw the arcs.
   const arcs = useMemo(
     () => tensionArcs({ placed, markings, resolutions, suggestions, systems, tops, scale, minTextPx }),
@@ -316,7 +315,7 @@ const GlyphLayer = memo(function GlyphLayer({
         );
       })}
       {(suggestions ?? []).map((s) => {
-        const anchor = roleAnchor(s.noteKey);
+        const anchor = roleAnchorOf(placed, s.noteKey, scale, minTextPx);
         if (!anchor) return null;
         // When the note already carries another role, the suggestion stands beside it.
         const offset = markings[s.noteKey]?.role ? size + 3 * scale : 0;

@@ -11,6 +11,7 @@
  */
 import type { NoteBox } from "@/lib/markings/glyph-geometry";
 import type { OsmdNoteRef } from "./osmd-note-keys";
+import { ENGRAVING_SVG } from "./engraving-options";
 
 /** OSMD's unit: 10 px at zoom 1. */
 const UNIT_PX = 10;
@@ -105,7 +106,7 @@ export function noteBoxesFromModel(refs: readonly OsmdNoteRef[], offset: StageOf
 /** Every selectable note's box measured from the drawn SVG (forces a layout; the fallback). */
 export function measureNoteBoxes(refs: readonly OsmdNoteRef[], stage: HTMLElement, zoom: number): NoteBox[] {
   const origin = stage.getBoundingClientRect();
-  const svg = stage.querySelector("svg");
+  const svg = stage.querySelector(ENGRAVING_SVG);
   const svgTop = (svg?.getBoundingClientRect().top ?? origin.top) - origin.top;
   const boxes: NoteBox[] = [];
   const seen = new Set<string>();

@@ -1,6 +1,6 @@
 "use client";
 
-import { ENGRAVING_OPTIONS } from "./engraving-options";
+import { ENGRAVING_OPTIONS, ENGRAVING_SVG } from "./engraving-options";
 import { useCallback, useEffect, useLayoutEffect, useRef, useState, type ReactNode } from "react";
 import { flushSync } from "react-dom";
 import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
@@ -32,11 +32,25 @@ export interface ScoreViewProps {
    * once): measured from the drawing only, one layout per render.
    */
   layoutFrom?: "model" | "drawing";
-  /** Called when the part cannot be engraved (the message is shown in place of the score). */
-  onError?: () => void;
+  /**
+   * Called once the first drawing is on the screen (after its paint), or when the part cannot be
+   * engraved: what the page holds back until then can be asked for.
+   */
+  onSettled?: () => void;
 }
 
 const RESIZE_DEBOUNCE_MS = 200;
+
+/** Runs `fn` in the task after the next frame has been painted. */
+function afterPaint(fn: () => void): void {
+  requestAnimationFrame(() => setTimeout(fn, 0));
+}
+
+/** Runs `fn` when the browser is idle (within half a second), where it can say so. */
+function whenIdle(fn: () => void): void {
+  if (typeof requestIdleCallback === "function") requestIdleCallback(fn, { timeout: 500 });
+  else setTimeout(fn, 0);
+}
 
 /**
  * Each note's box reaching as far as either measure does: the model has the stem of a beamed
@@ -64,7 +78,7 @@ function sameBoxes(a: readonly NoteBox[], b: readonly NoteBox[]): boolean {
 
 /** The drawing's size from the SVG's own attributes (reading the stage's size would force a layout). */
 function engravedSize(stage: HTMLElement, offset: StageOffset): { width: number; height: number } {
-  const svg = stage.querySelector("svg");
+  const svg = stage.querySelector(ENGRAVING_SVG);
   const width = Number.parseFloat(svg?.getAttribute("width") ?? "");
   const height = Number.parseFloat(svg?.getAttribute("height") ?? "");
   if (Number.isFinite(width) && Number.isFinite(height)) return { width: offset.left + width, height: offset.top + height };
@@ -84,7 +98,7 @@ if (typeof window !== "undefined") void loadEngraver();
  * is loaded on pages that show a score. Every render rebuilds its SVG; we never attach anything
  * to it and re-measure the notes instead.
  */
-export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layoutFrom = "model", onError }: ScoreViewProps) {
+export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layoutFrom = "model", onSettled }: ScoreViewProps) {
   const stageRef = useRef<HTMLDivElement>(null);
   const hostRef = useRef<HTMLDivElement>(null);
   const osmdRef = useRef<OpenSheetMusicDisplay | null>(null);
@@ -93,11 +107,11 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
   const [status, setStatus] = useState<"loading" | "ready" | "error">("loading");
   const [error, setError] = useState<string | null>(null);
 
-  const onErrorRef = useRef(onError);
+  const onSettledRef = useRef(onSettled);
   useEffect(() => {
     onLayoutRef.current = onLayout;
-    onErrorRef.current = onError;
-  }, [onLayout, onError]);
+    onSettledRef.current = onSettled;
+  }, [onLayout, onSettled]);
 
   // Where the engraving's SVG sits in the stage. Assumed from the last check (the host has no
   // padding, so it starts at 0, 0) and verified once the browser has laid the page out anyway.
@@ -119,7 +133,7 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
     const refs = collectOsmdNotes(osmd);
     if (!fromModel) {
       const origin = stage.getBoundingClientRect();
-      const at = stage.querySelector("svg")?.getBoundingClientRect() ?? origin;
+      const at = stage.querySelector(ENGRAVING_SVG)?.getBoundingClientRect() ?? origin;
       offsetRef.current = { left: at.left - origin.left, top: at.top - origin.top };
     }
     const boxes = (fromModel ? noteBoxesFromModel(refs, offsetRef.current, zoom) : null) ?? measureNoteBoxes(refs, stage, zoom);
@@ -138,12 +152,11 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
   const refine = useCallback(() => {
     // When the browser is idle after the paint: the notes are selectable already, and a click
     // or a key press should not wait behind this.
-    const whenIdle = (fn: () => void) => (typeof requestIdleCallback === "function" ? requestIdleCallback(fn, { timeout: 500 }) : setTimeout(fn, 0));
     requestAnimationFrame(() =>
       whenIdle(() => {
         const osmd = osmdRef.current;
         const stage = stageRef.current;
-        const svg = stage?.querySelector("svg");
+        const svg = stage?.querySelector(ENGRAVING_SVG);
         const last = lastRef.current;
         if (!osmd || !stage || !svg || !last) return;
         const zoom = zoomRef.current;
@@ -205,11 +218,12 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
         render();
         setStatus("ready");
       });
+      afterPaint(() => !cancelled && onSettledRef.current?.());
     })().catch((e: unknown) => {
       if (cancelled) return;
       setError(e instanceof Error ? e.message : String(e));
       setStatus("error");
-      onErrorRef.current?.();
+      onSettledRef.current?.();
     });
     return () => {
       cancelled = true;
@@ -249,7 +263,7 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
 
   return (
     <div ref={stageRef} className="relative w-full" data-score-status={status}>
-      <div ref={hostRef} aria-hidden="true" />
+      <div ref={hostRef} aria-hidden="true" data-engraving="" />
       {status === "ready" ? children : null}
       {status === "loading" ? <p className="px-gutter py-12 text-graphite" role="status">Engraving the part…</p> : null}
       {status === "error" ? (

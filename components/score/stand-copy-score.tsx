@@ -7,6 +7,7 @@ import { ScoreView, type ScoreLayout } from "./score-view";
 import { buildSystemSlices } from "./system-slices";
 import { measureSky, type SkyBox } from "./engraving-sky";
 import { GLYPH_TEXT_PX } from "@/lib/stand-copy/options";
+import { ENGRAVING_SVG } from "./engraving-options";
 
 export interface StandCopyScoreProps {
   xml: string;
@@ -44,7 +45,7 @@ export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolu
   // Measured once per engraving, right after it is drawn (the overlay is not there yet).
   const onLayout = useCallback((l: ScoreLayout) => {
     const stage = sourceRef.current?.querySelector<HTMLElement>("[data-score-status]");
-    const engraving = stage?.querySelector<SVGSVGElement>('svg:not([data-testid="marking-overlay"]):not([data-layer-svg])');
+    const engraving = stage?.querySelector<SVGSVGElement>(ENGRAVING_SVG);
     setSky(stage && engraving ? measureSky(engraving, stage, l.systems) : []);
     setLayout(l);
   }, []);
@@ -57,7 +58,7 @@ export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolu
     let frame = 0;
     const build = () => {
       const stage = source.querySelector<HTMLElement>("[data-score-status]");
-      const engraving = stage?.querySelector<SVGSVGElement>('svg:not([data-testid="marking-overlay"]):not([data-layer-svg])');
+      const engraving = stage?.querySelector<SVGSVGElement>(ENGRAVING_SVG);
       const overlay = stage?.querySelector('[data-testid="marking-overlay"]');
       if (!stage || !engraving || !overlay) {
         frame = requestAnimationFrame(build);

@@ -11,12 +11,15 @@ import { K, fakeBoxes } from "./test-fixtures";
 // once or, while `engraving.hold` is set, when the test calls `engraving.finish()`.
 const engraving = vi.hoisted(() => ({ hold: false, finish: () => {} }));
 vi.mock("./score-view", () => ({
-  ScoreView: ({ onLayout, children }: ScoreViewProps) => {
+  ScoreView: ({ onLayout, onSettled, children }: ScoreViewProps) => {
     useEffect(() => {
-      const publish = () => onLayout({ boxes: fakeBoxes, width: 800, height: 400, systems: [] });
+      const publish = () => {
+        onLayout({ boxes: fakeBoxes, width: 800, height: 400, systems: [] });
+        onSettled?.();
+      };
       if (engraving.hold) engraving.finish = publish;
       else publish();
-    }, [onLayout]);
+    }, [onLayout, onSettled]);
     return <div data-testid="score">{children}</div>;
   },
 }));

@@ -65,11 +65,6 @@ function isTyping(target: EventTarget | null): boolean {
   return el.isContentEditable || ["INPUT", "TEXTAREA", "SELECT"].includes(el.tagName);
 }
 
-function afterPaint(fn: () => void): void {
-  if (typeof requestAnimationFrame === "function") requestAnimationFrame(() => setTimeout(fn, 0));
-  else setTimeout(fn, 0);
-}
-
 function prefersReducedMotion(): boolean {
   return typeof window !== "undefined" && window.matchMedia?.("(prefers-reduced-motion: reduce)").matches === true;
 }
@@ -77,8 +72,9 @@ function prefersReducedMotion(): boolean {
 function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: string }) {
   const part = usePart(partId);
   const xml = useMusicXml(partId);
-  // What the first drawing does not need is asked for once the score is drawn (or could not be):
-  // on a small machine the server's answers would otherwise compete with the engraving.
+  // What the first drawing does not need is asked for once the score is on the screen (or could
+  // not be engraved): on a small machine the requests and the server's answers would otherwise
+  // compete with the engraving and delay its first paint.
   const [scoreSettled, setScoreSettled] = useState(false);
   const afterScore = { enabled: scoreSettled || xml.isError };
   const analysis = useAnalysis(partId, afterScore);
@@ -154,9 +150,6 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
     (layout: ScoreLayout) => {
       actions.setLayout(layout.boxes);
       setSize({ width: layout.width, height: layout.height, systems: layout.systems });
-      // After the paint: starting the requests costs time of its own, which the first frame
-      // should not wait for.
-      afterPaint(() => setScoreSettled(true));
     },
     [actions],
   );
@@ -460,7 +453,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
               panel, Escape clears the selection, Delete clears the marking, Ctrl+C and Ctrl+V copy and paste a marking.
             </p>
             {xml.data ? (
-              <ScoreView xml={xml.data} zoom={zoom} onLayout={onLayout} onError={settleScore}>
+              <ScoreView xml={xml.data} zoom={zoom} onLayout={onLayout} onSettled={settleScore}>
                 <MarkingOverlay
                   boxes={boxes}
                   width={size.width}

@@ -125,16 +125,31 @@ async function clicksOnAMarkedPart(client: SignedInClient, context: BrowserConte
   const clicks = await timeClicks(page);
   if (process.env.BENCH_PROFILE) await profileLoad(page, async () => void (await timeClicks(page)), "workspace-300-marked-clicks");
   if (process.env.BENCH_TRACE) {
-    const browser = context.browser()!;
-    await browser.startTracing(page, { categories: ["devtools.timeline"] });
-    await timeClicks(page);
-    const trace = JSON.parse((await browser.stopTracing()).toString("utf8")) as { traceEvents: { name: string; ph: string; dur?: number }[] };
-    const byName = new Map<string, number>();
-    for (const e of trace.traceEvents) if (e.ph === "X" && e.dur) byName.set(e.name, (byName.get(e.name) ?? 0) + e.dur / 1000);
-    console.log("15 clicks on the marked part, main-thread time by trace event (ms):", JSON.stringify(Object.fromEntries([...byName].sort((a, b) => b[1] - a[1]).slice(0, 16).map(([k, v]) => [k, Math.round(v)]))));
+    console.log("15 clicks on the marked part, main-thread time by trace event (ms):", JSON.stringify(await traceTimes(page, () => timeClicks(page))));
   }
   await page.close();
   return clicks;
+}
+
+/** The scripts the page has loaded, by file name. */
+function scriptNames(page: Page): Promise<string> {
+  return page.evaluate(() =>
+    (performance.getEntriesByType("resource") as PerformanceResourceTiming[])
+      .filter((r) => r.initiatorType === "script")
+      .map((r) => r.name.split("/").pop())
+      .join(" "),
+  );
+}
+
+/** Main-thread time by trace event (paint, layout, script…) while `work` runs, largest first, ms. */
+async function traceTimes(page: Page, work: () => Promise<unknown>): Promise<Record<string, number>> {
+  const browser = page.context().browser()!;
+  await browser.startTracing(page, { categories: ["devtools.timeline"] });
+  await work();
+  const trace = JSON.parse((await browser.stopTracing()).toString("utf8")) as { traceEvents: { name: string; ph: string; dur?: number }[] };
+  const byName = new Map<string, number>();
+  for (const e of trace.traceEvents) if (e.ph === "X" && e.dur) byName.set(e.name, (byName.get(e.name) ?? 0) + e.dur / 1000);
+  return Object.fromEntries([...byName].sort((a, b) => b[1] - a[1]).slice(0, 16).map(([k, v]) => [k, Math.round(v)]));
 }
 
 function median(xs: number[]): number {
@@ -202,10 +217,10 @@ const section: BenchSection = {
       }
       const lastWorkspace = workspace[workspace.length - 1];
       console.log(`${bars} bars, last workspace run, ms since navigation:`, JSON.stringify(await stagesOf(page)), `in DOM ${Math.round(lastWorkspace.inDom)}, drawn ${Math.round(lastWorkspace.drawn)}`);
-      if (process.env.BENCH_RESOURCES) console.log("workspace scripts:", await page.evaluate(() => performance.getEntriesByType("resource").filter((r) => (r as PerformanceResourceTiming).initiatorType === "script").map((r) => r.name.split("/").pop()).join(" ")));
+      if (process.env.BENCH_RESOURCES) console.log("workspace scripts:", await scriptNames(page));
       const bareRun = await timeToReady(page, `${APP_URL}/dev/bare-score/${id}`);
       console.log(`${bars} bars, a bare run, ms since navigation:`, JSON.stringify(await stagesOf(page)), `in DOM ${Math.round(bareRun.inDom)}, drawn ${Math.round(bareRun.drawn)}`);
-      if (process.env.BENCH_RESOURCES) console.log("bare page scripts:", await page.evaluate(() => performance.getEntriesByType("resource").filter((r) => (r as PerformanceResourceTiming).initiatorType === "script").map((r) => r.name.split("/").pop()).join(" ")));
+      if (process.env.BENCH_RESOURCES) console.log("bare page scripts:", await scriptNames(page));
       await timeToReady(page, `${APP_URL}/parts/${id}`);
       const htmlBytes = async (url: string) => (await (await context.request.get(url)).body()).length;
       console.log(`${bars} bars, HTML bytes: workspace ${await htmlBytes(`${APP_URL}/parts/${id}`)}, bare ${await htmlBytes(`${APP_URL}/dev/bare-score/${id}`)}, MusicXML ${xml.length}`);
