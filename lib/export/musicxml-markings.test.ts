@@ -99,7 +99,7 @@ describe("MusicXML with markings", () => {
   it("writes markings that validate against the MusicXML 4.0 XSD", async () => {
     const { xml, unplaced } = embedMarkingsWithReport(duet, markings);
     expect(unplaced).toEqual([]);
-    // MusicXML 4.0 XSD (../shared/standards/musicxml-4.0/musicxml.xsd), validated by libxml2.
+    // MusicXML 4.0 XSD (tests/fixtures/standards/musicxml-4.0/musicxml.xsd), validated by libxml2.
     const result = await validateMusicXml(xml);
     expect(result.errors).toEqual([]);
     expect(result.valid).toBe(true);

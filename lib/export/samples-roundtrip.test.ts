@@ -75,7 +75,7 @@ describe("every sample, marked", () => {
 
     const { xml, unplaced } = embedMarkingsWithReport(partwiseXml, markings);
     expect(unplaced).toEqual([]);
-    // MusicXML 4.0 XSD (../shared/standards/musicxml-4.0/musicxml.xsd) through libxml2.
+    // MusicXML 4.0 XSD (tests/fixtures/standards/musicxml-4.0/musicxml.xsd) through libxml2.
     const valid = await validateMusicXml(xml, file);
     expect(valid.errors).toEqual([]);
 

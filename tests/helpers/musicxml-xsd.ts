@@ -2,8 +2,8 @@ import { readFileSync } from "node:fs";
 import path from "node:path";
 import { validateXML } from "xmllint-wasm";
 
-/** The MusicXML 4.0 schema kept beside the project (see its README): `../shared/standards/musicxml-4.0`. */
-const SCHEMA_DIR = path.resolve(import.meta.dirname, "../../../shared/standards/musicxml-4.0");
+/** The MusicXML 4.0 schema kept in the repository (see its README): `tests/fixtures/standards/musicxml-4.0`. */
+export const SCHEMA_DIR = path.resolve(import.meta.dirname, "../fixtures/standards/musicxml-4.0");
 
 let schemaFiles: { main: string; xml: string; xlink: string } | null = null;
 

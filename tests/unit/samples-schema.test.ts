@@ -7,9 +7,9 @@ import { buildMxl, MXL_MIMETYPE } from "../../scripts/make-sample-mxl";
 
 // Every sample must be valid MusicXML 4.0 according to the W3C Music Notation Community Group's
 // own XSD (MusicXML 4.0 Final Community Group Report, June 2021; schema/musicxml.xsd), which the
-// project keeps beside the repository so validation never touches the network.
+// project keeps in tests/fixtures/standards so validation never touches the network.
 const root = path.resolve(import.meta.dirname, "../..");
-const schemaDir = path.resolve(root, "../shared/standards/musicxml-4.0");
+const schemaDir = path.join(root, "tests/fixtures/standards/musicxml-4.0");
 const samplesDir = path.join(root, "samples");
 
 const read = (file: string): XMLFileInfo => ({ fileName: file, contents: fs.readFileSync(path.join(schemaDir, file), "utf8") });
