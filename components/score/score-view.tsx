@@ -8,6 +8,8 @@ import { glyphBandHeight, type NoteBox } from "@/lib/markings/glyph-geometry";
 import { measureNoteBoxes, noteBoxesFromModel, type StageOffset } from "./measure-note-boxes";
 import { measureSystems, type SystemBox } from "./measure-systems";
 import { collectOsmdNotes } from "./osmd-note-keys";
+import { findUndrawableMeasures } from "./find-undrawable";
+import { barNumbers, blankMeasures, firstMeasures, listBars, measureCount, mendForEngraving } from "@/lib/engraving/repair";
 
 export interface ScoreLayout {
   boxes: NoteBox[];
@@ -40,6 +42,15 @@ export interface ScoreViewProps {
 }
 
 const RESIZE_DEBOUNCE_MS = 200;
+
+/** A long part's opening, drawn first: a screen or two of music. */
+const OPENING_BARS = 24;
+
+/** What the player reads when some bars are shown as rests. */
+export function leftOutMessage(bars: readonly string[]): string {
+  const one = bars.length === 1;
+  return `The music of ${listBars(bars)} could not be drawn here, so ${one ? "it is" : "they are"} shown as ${one ? "a rest bar" : "rest bars"}. ${one ? "Its" : "Their"} notes are still in the part: analysis, practice and playback use them.`;
+}
 
 /** Runs `fn` in the task after the next frame has been painted. */
 function afterPaint(fn: () => void): void {
@@ -105,7 +116,10 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
   const zoomRef = useRef(zoom);
   const onLayoutRef = useRef(onLayout);
   const [status, setStatus] = useState<"loading" | "ready" | "error">("loading");
-  const [error, setError] = useState<string | null>(null);
+  /** Written numbers of the bars drawn as rest bars because the engraver could not draw them. */
+  const [leftOut, setLeftOut] = useState<string[]>([]);
+  /** Counts fresh engravings asked for after a redraw failed. */
+  const [attempt, setAttempt] = useState(0);
 
   const onSettledRef = useRef(onSettled);
   useEffect(() => {
@@ -193,35 +207,101 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
   useLayoutEffect(() => {
     let cancelled = false;
     const host = hostRef.current;
-    if (!host) return;
+    const stage = stageRef.current;
+    if (!host || !stage) return;
     setStatus("loading");
-    (async () => {
-      performance.mark("ondula:engraver-import");
-      const { OpenSheetMusicDisplay } = await loadEngraver();
-      performance.mark("ondula:engraver-loaded");
-      if (cancelled) return;
-      host.replaceChildren();
-      const osmd = new OpenSheetMusicDisplay(host, { ...ENGRAVING_OPTIONS });
+    setLeftOut([]);
+    let OSMD: typeof OpenSheetMusicDisplay | null = null;
+
+    /** A fresh engraver in `into`, with our room above every system and the current zoom. */
+    const make = (into: HTMLElement) => {
+      const osmd = new OSMD!(into, { ...ENGRAVING_OPTIONS });
       // Room above every system for our glyph band (OSMD units: 10 px at zoom 1, scaled by the zoom).
       const band = glyphBandHeight(zoomRef.current, minTextPx) / (10 * zoomRef.current);
       osmd.EngravingRules.MinSkyBottomDistBetweenSystems = Math.max(osmd.EngravingRules.MinSkyBottomDistBetweenSystems, band + 1);
       osmd.EngravingRules.PageTopMargin = Math.max(osmd.EngravingRules.PageTopMargin, band);
-      await osmd.load(xml);
+      osmd.Zoom = zoomRef.current;
+      return osmd;
+    };
+
+    /** Loads `text` into the stage and draws it; throws what the engraver throws. */
+    const draw = async (text: string, engraved: "opening" | "whole") => {
+      const osmd = make(host);
+      await osmd.load(text);
       performance.mark("ondula:loaded");
       if (cancelled) return;
+      host.replaceChildren();
       osmdRef.current = osmd;
+      let failure: unknown = null;
       // The notes' positions, the overlay and the ready state reach the DOM in this same task, so
       // the browser lays out and paints the engraving once, with everything on it. Left to
       // React's scheduler, the engraving alone is laid out and painted first, then again with
       // the overlay.
       flushSync(() => {
-        render();
-        setStatus("ready");
+        try {
+          stage.dataset.engraved = engraved;
+          render();
+          setStatus("ready");
+        } catch (e) {
+          failure = e;
+        }
       });
-      afterPaint(() => !cancelled && onSettledRef.current?.());
+      if (failure) {
+        osmdRef.current = null;
+        throw failure;
+      }
+    };
+
+    /** The whole part; bars the engraver cannot draw are found and drawn as rest bars. */
+    const drawWhole = async (text: string) => {
+      try {
+        await draw(text, "whole");
+        return;
+      } catch (e) {
+        if (cancelled) return;
+        console.error("Engraving the whole part failed; looking for the bars that cause it.", e);
+      }
+      const width = stage.clientWidth || 1000;
+      const bad = await findUndrawableMeasures(make, text, width, () => cancelled);
+      if (cancelled) return;
+      await draw(blankMeasures(text, bad), "whole");
+      setLeftOut(barNumbers(text, [...bad].sort((a, b) => a - b)));
+    };
+
+    (async () => {
+      performance.mark("ondula:engraver-import");
+      ({ OpenSheetMusicDisplay: OSMD } = await loadEngraver());
+      performance.mark("ondula:engraver-loaded");
+      if (cancelled) return;
+      host.replaceChildren();
+      const text = mendForEngraving(xml);
+      // A long part: its opening is drawn (and selectable) first, the whole when the page is idle.
+      const opening = fromModel && measureCount(text) > OPENING_BARS * 2 ? mendForEngraving(firstMeasures(text, OPENING_BARS)) : null;
+      let drewOpening = false;
+      if (opening) {
+        try {
+          await draw(opening, "opening");
+          drewOpening = !cancelled;
+        } catch (e) {
+          console.error("Engraving the opening failed; drawing the whole part instead.", e);
+        }
+      }
+      if (cancelled) return;
+      if (drewOpening) {
+        afterPaint(() => !cancelled && onSettledRef.current?.());
+        await new Promise<void>((resolve) => afterPaint(() => whenIdle(() => resolve())));
+        if (cancelled) return;
+        await drawWhole(text);
+      } else {
+        await drawWhole(text);
+        afterPaint(() => !cancelled && onSettledRef.current?.());
+      }
     })().catch((e: unknown) => {
       if (cancelled) return;
-      setError(e instanceof Error ? e.message : String(e));
+      // The engraver's own words mean nothing to a player: they go to the console only.
+      console.error("The part could not be engraved.", e);
+      osmdRef.current = null;
+      host.replaceChildren();
       setStatus("error");
       onSettledRef.current?.();
     });
@@ -230,13 +310,26 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
       osmdRef.current = null;
       host.replaceChildren();
     };
-  }, [xml, render, minTextPx]);
+  }, [xml, render, minTextPx, fromModel, attempt]);
+
+  /**
+   * Drawing again at a new zoom or width can fail where the first drawing did not (a line of music
+   * breaks elsewhere): then the part is engraved afresh, which finds the bars at fault.
+   */
+  const redraw = useCallback(() => {
+    try {
+      render();
+    } catch (e) {
+      console.error("Drawing the part again failed; engraving it afresh.", e);
+      setAttempt((a) => a + 1);
+    }
+  }, [render]);
 
   useEffect(() => {
     if (zoomRef.current === zoom) return;
     zoomRef.current = zoom;
-    render();
-  }, [zoom, render]);
+    redraw();
+  }, [zoom, redraw]);
 
   // Re-lay out when the available width changes (debounced: a drag of the window is one render).
   useEffect(() => {
@@ -252,23 +345,28 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
       width = next;
       clearTimeout(timer);
       // As on load: the new positions in the same task as the new engraving (one layout, one paint).
-      timer = setTimeout(() => flushSync(render), RESIZE_DEBOUNCE_MS);
+      timer = setTimeout(() => flushSync(redraw), RESIZE_DEBOUNCE_MS);
     });
     observer.observe(stage);
     return () => {
       observer.disconnect();
       clearTimeout(timer);
     };
-  }, [render]);
+  }, [redraw]);
 
   return (
     <div ref={stageRef} className="relative w-full" data-score-status={status}>
+      {leftOut.length > 0 ? (
+        <p className="mx-gutter mb-2 rounded-card border border-rule bg-paper-card px-3 py-2 text-sm" role="status" data-testid="bars-left-out">
+          {leftOutMessage(leftOut)}
+        </p>
+      ) : null}
       <div ref={hostRef} aria-hidden="true" data-engraving="" />
       {status === "ready" ? children : null}
       {status === "loading" ? <p className="px-gutter py-12 text-graphite" role="status">Engraving the part…</p> : null}
       {status === "error" ? (
         <p className="px-gutter py-12 text-danger" role="alert">
-          The part could not be engraved{error ? `: ${error}` : "."}
+          This part could not be drawn on screen. The file and your markings are kept; try a wider window or reload the page.
         </p>
       ) : null}
     </div>
