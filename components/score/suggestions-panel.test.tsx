@@ -51,3 +51,39 @@ describe("SuggestionsPanel", () => {
     expect(screen.getByRole("button", { name: /Show me/ })).toBeTruthy();
   });
 });
+
+describe("SuggestionsPanel on a long part", () => {
+  // Forty notes in two phrases (n0–n19, n20–n39); thirty suggestions, more than the panel's cap.
+  const noteOrder = Array.from({ length: 40 }, (_, i) => `n${i}`);
+  const phrases = [
+    { start: "n0", peak: "n10", end: "n19" },
+    { start: "n20", peak: "n30", end: "n39" },
+  ];
+  const many: Suggestion[] = Array.from({ length: 30 }, (_, i) => s(`n${i}`, i % 2 === 0 ? "tension" : "resolution", 0.3 + (i % 10) * 0.05));
+
+  it("shows the strongest of each kind in each phrase, and the rest one click away", () => {
+    render(<SuggestionsPanel pending={many} decidedCount={0} labelOf={(k) => k} canEdit onAccept={vi.fn()} onDismiss={vi.fn()} onShow={vi.fn()} phrases={phrases} noteOrder={noteOrder} />);
+    const shown = () => [...document.querySelectorAll("[data-suggestion]")].map((e) => `${e.getAttribute("data-suggestion")}|${e.getAttribute("data-role")}`);
+    // Phrase 1: tension n8 (0.7) and resolution n9 (0.75) are the strongest; phrase 2: n28 and n29.
+    expect(shown().sort()).toEqual(["n28|tension", "n29|resolution", "n8|tension", "n9|resolution"]);
+    expect(screen.getByTestId("suggestions-ranking").textContent).toMatch(/Showing the 4 strongest.*26 more/);
+    fireEvent.click(screen.getByRole("button", { name: "Show all 30" }));
+    expect(shown()).toHaveLength(30);
+    fireEvent.click(screen.getByRole("button", { name: "Show the 4 strongest only" }));
+    expect(shown()).toHaveLength(4);
+  });
+
+  it("ranks by the analysis' strength where it gives one", () => {
+    const strong = many.map((x) => (x.note === "n2" ? { ...x, strength: 0.99 } : { ...x, strength: 0.1 }));
+    render(<SuggestionsPanel pending={strong} decidedCount={0} labelOf={(k) => k} canEdit onAccept={vi.fn()} onDismiss={vi.fn()} onShow={vi.fn()} phrases={phrases} noteOrder={noteOrder} />);
+    const tensions = [...document.querySelectorAll('[data-role="tension"]')].map((e) => e.getAttribute("data-suggestion"));
+    expect(tensions).toContain("n2");
+    expect(tensions).not.toContain("n8");
+  });
+
+  it("shows a short list whole", () => {
+    render(<SuggestionsPanel pending={many.slice(0, 5)} decidedCount={0} labelOf={(k) => k} canEdit onAccept={vi.fn()} onDismiss={vi.fn()} onShow={vi.fn()} phrases={phrases} noteOrder={noteOrder} />);
+    expect(document.querySelectorAll("[data-suggestion]")).toHaveLength(5);
+    expect(screen.queryByTestId("suggestions-ranking")).toBeNull();
+  });
+});

@@ -1,8 +1,9 @@
 "use client";
 
-import type { Role, Suggestion } from "@/lib/analysis/types";
+import { useMemo, useState } from "react";
+import type { PhraseResult, Role, Suggestion } from "@/lib/analysis/types";
 import { ROLE_INFO, ROLE_ORDER } from "@/lib/markings/roles";
-import { confidenceLabel, groupByRole } from "@/lib/markings/suggestions";
+import { confidenceLabel, groupByRole, rankSuggestions } from "@/lib/markings/suggestions";
 import { RoleIcon } from "./role-icon";
 
 export interface SuggestionsPanelProps {
@@ -17,11 +18,16 @@ export interface SuggestionsPanelProps {
   onShow: (noteKey: string) => void;
   /** Accepts it and opens the marking panel on its note, to change depth, speed or role. */
   onEdit?: (item: { noteKey: string; role: Role }) => void;
+  /** The analysis' phrases and note order: on a long part the strongest of each phrase come first. */
+  phrases?: readonly PhraseResult[];
+  noteOrder?: readonly string[];
 }
 
 /** The analysis' suggestions by role, each with its reason, to accept, dismiss or look at. */
-export function SuggestionsPanel({ pending, decidedCount, labelOf, canEdit, onAccept, onDismiss, onShow, onEdit }: SuggestionsPanelProps) {
-  const groups = groupByRole(pending, ROLE_ORDER);
+export function SuggestionsPanel({ pending, decidedCount, labelOf, canEdit, onAccept, onDismiss, onShow, onEdit, phrases = [], noteOrder = [] }: SuggestionsPanelProps) {
+  const [showAll, setShowAll] = useState(false);
+  const { top, rest } = useMemo(() => rankSuggestions(pending, phrases, noteOrder), [pending, phrases, noteOrder]);
+  const groups = groupByRole(showAll ? pending : top, ROLE_ORDER);
   return (
     <section aria-label="Suggestions" className="space-y-5" data-testid="suggestions-panel">
       <header>
@@ -32,6 +38,23 @@ export function SuggestionsPanel({ pending, decidedCount, labelOf, canEdit, onAc
             : `${pending.length} waiting; outlined dashed on the score until you decide.`}
           {decidedCount > 0 ? ` ${decidedCount} decided.` : ""}
         </p>
+        {rest.length > 0 ? (
+          <div className="mt-2 flex flex-wrap items-center gap-2 text-sm" data-testid="suggestions-ranking">
+            <span>
+              {showAll
+                ? `Showing all ${pending.length}.`
+                : `Showing the ${top.length} strongest: the strongest of each kind in each phrase. ${rest.length} more.`}
+            </span>
+            <button
+              type="button"
+              className="h-11 rounded px-2 font-medium text-accent-strong underline-offset-2 hover:underline"
+              aria-expanded={showAll}
+              onClick={() => setShowAll((v) => !v)}
+            >
+              {showAll ? `Show the ${top.length} strongest only` : `Show all ${pending.length}`}
+            </button>
+          </div>
+        ) : null}
       </header>
       {groups.map(({ role, items }) => (
         <section key={role} aria-labelledby={`sg-${role}`} className="space-y-2">

@@ -2,7 +2,7 @@
 
 import Link from "next/link";
 import { useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent } from "react";
-import type { Role } from "@/lib/analysis/types";
+import type { PhraseResult, Role } from "@/lib/analysis/types";
 import {
   acceptSuggestions, clearSelection, patchSelection, setSelection, toState, valuesOf, sameValues,
 } from "@/lib/markings/changes";
@@ -49,6 +49,9 @@ export function Workspace({ partId, viewerId = "" }: { partId: string; viewerId?
     </EditorStoreProvider>
   );
 }
+
+/** A stable empty list: the suggestions panel ranks again only when the analysis changes. */
+const NO_PHRASES: PhraseResult[] = [];
 
 const ARROWS: Record<string, Move> = {
   ArrowRight: "next",
@@ -342,6 +345,8 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
         onDismiss={dismiss}
         onEdit={acceptAndEdit}
         onShow={show}
+        phrases={analysis.data?.phrases ?? NO_PHRASES}
+        noteOrder={noteOrder}
       />
     ) : (
       <MarkingPanel

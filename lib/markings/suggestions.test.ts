@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import type { Suggestion } from "@/lib/analysis/types";
 import { toState } from "./changes";
 import { DEFAULT_MARKING } from "./schema";
-import { confidenceLabel, groupByRole, pendingSuggestions } from "./suggestions";
+import { confidenceLabel, groupByRole, pendingSuggestions, rankSuggestions, strengthOf } from "./suggestions";
 
 const s = (note: string, role: Suggestion["role"], confidence = 0.8): Suggestion => ({
   note, measure: "1", pitch: "A4", role, confidence, resolvesTo: null, reason: "because",
@@ -30,5 +30,31 @@ describe("suggestions", () => {
     const groups = groupByRole([s("a", "peak", 0.3), s("b", "tension"), s("c", "peak", 0.9)], ["phrase-start", "peak", "tension", "resolution"]);
     expect(groups.map((g) => g.role)).toEqual(["peak", "tension"]);
     expect(groups[0].items.map((i) => i.note)).toEqual(["c", "a"]);
+  });
+});
+
+describe("rankSuggestions", () => {
+  const order = Array.from({ length: 30 }, (_, i) => `n${i}`);
+  it("keeps a short list whole and in order", () => {
+    const few = [s("n1", "tension", 0.2), s("n2", "peak", 0.9)];
+    expect(rankSuggestions(few, [], order)).toEqual({ top: few, rest: [] });
+  });
+
+  it("keeps the strongest of each role per phrase, counts notes outside phrases apart, and caps the list", () => {
+    const phrases = [{ start: "n0", end: "n9" }];
+    const all = [
+      ...Array.from({ length: 10 }, (_, i) => s(`n${i}`, "tension", 0.1 * i)),
+      // Outside every phrase: each note is its own group.
+      ...Array.from({ length: 20 }, (_, i) => s(`n${10 + i}`, "peak", 0.5 + i * 0.01)),
+    ];
+    const { top, rest } = rankSuggestions(all, phrases, order, 5);
+    expect(top.map((x) => x.note)).toEqual(["n9", "n29", "n28", "n27", "n26"]);
+    expect(top.length + rest.length).toBe(all.length);
+    expect(rest[0].note).toBe("n0");
+  });
+
+  it("reads a numeric strength when the analysis gives one, else the confidence", () => {
+    expect(strengthOf({ ...s("a", "tension", 0.4), strength: 0.9 } as Suggestion)).toBe(0.9);
+    expect(strengthOf(s("a", "tension", 0.4))).toBe(0.4);
   });
 });
