@@ -116,6 +116,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   const markings = useMemo(() => toState(markingsQuery.data?.markings ?? []), [markingsQuery.data]);
 
   const noteOrder = useMemo(() => (analysis.data?.notes ?? []).map((n) => n.key), [analysis.data]);
+  const noteMeasures = useMemo(() => (analysis.data?.notes ?? []).map((n) => n.measure), [analysis.data]);
   const notesByKey = useMemo(() => new Map((analysis.data?.notes ?? []).map((n) => [n.key, n])), [analysis.data]);
   const labelOf = useCallback((key: string) => noteLabel(key, notesByKey.get(key)), [notesByKey]);
   const durations = useMemo(() => noteDurations(analysis.data?.notes ?? [], tempo), [analysis.data, tempo]);
@@ -428,6 +429,8 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
           <PhraseMap
             noteOrder={noteOrder}
             phrases={analysis.data.phrases}
+            noteMeasures={noteMeasures}
+            localKeys={analysis.data.localKeys}
             markings={markings}
             labelOf={labelOf}
             onJump={show}
