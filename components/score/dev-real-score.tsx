@@ -14,7 +14,7 @@ declare global {
  * One part of a real file engraved exactly as the workspace engraves it (the same score view,
  * mends and fallbacks), without the workspace around it: the end-to-end check of the real corpus.
  */
-export function DevRealScore({ xml }: { xml: string }) {
+export function DevRealScore({ xml, mend = true }: { xml: string; mend?: boolean }) {
   const [notes, setNotes] = useState(0);
   const onLayout = useCallback((layout: ScoreLayout) => {
     window.__ondulaRealScore = { keys: layout.boxes.map((b) => b.key) };
@@ -22,7 +22,7 @@ export function DevRealScore({ xml }: { xml: string }) {
   }, []);
   return (
     <div data-real-notes={notes}>
-      <ScoreView xml={xml} zoom={1} onLayout={onLayout} />
+      <ScoreView xml={xml} zoom={1} onLayout={onLayout} mend={mend} />
     </div>
   );
 }

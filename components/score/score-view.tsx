@@ -39,6 +39,11 @@ export interface ScoreViewProps {
    * engraved: what the page holds back until then can be asked for.
    */
   onSettled?: () => void;
+  /**
+   * Mend the text's known troubles before drawing (always, but on the development page that
+   * checks the search for bars the engraver cannot draw).
+   */
+  mend?: boolean;
 }
 
 const RESIZE_DEBOUNCE_MS = 200;
@@ -109,7 +114,7 @@ if (typeof window !== "undefined") void loadEngraver();
  * is loaded on pages that show a score. Every render rebuilds its SVG; we never attach anything
  * to it and re-measure the notes instead.
  */
-export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layoutFrom = "model", onSettled }: ScoreViewProps) {
+export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layoutFrom = "model", onSettled, mend = true }: ScoreViewProps) {
   const stageRef = useRef<HTMLDivElement>(null);
   const hostRef = useRef<HTMLDivElement>(null);
   const osmdRef = useRef<OpenSheetMusicDisplay | null>(null);
@@ -274,7 +279,7 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
       performance.mark("ondula:engraver-loaded");
       if (cancelled) return;
       host.replaceChildren();
-      const text = mendForEngraving(xml);
+      const text = mend ? mendForEngraving(xml) : xml;
       // A long part: its opening is drawn (and selectable) first, the whole when the page is idle.
       const opening = fromModel && measureCount(text) > OPENING_BARS * 2 ? mendForEngraving(firstMeasures(text, OPENING_BARS)) : null;
       let drewOpening = false;
@@ -310,7 +315,7 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
       osmdRef.current = null;
       host.replaceChildren();
     };
-  }, [xml, render, minTextPx, fromModel, attempt]);
+  }, [xml, render, minTextPx, fromModel, attempt, mend]);
 
   /**
    * Drawing again at a new zoom or width can fail where the first drawing did not (a line of music

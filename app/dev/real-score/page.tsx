@@ -15,9 +15,10 @@ export const dynamic = "force-dynamic";
 const FILE = /^(?:[A-Za-z0-9_-][A-Za-z0-9._-]*\/)*[A-Za-z0-9_-][A-Za-z0-9._-]*\.(?:mxl|xml|musicxml)$/;
 const PART = /^[A-Za-z0-9_.-]{1,64}$/;
 
-export default async function DevRealScorePage({ searchParams }: { searchParams: Promise<{ file?: string | string[]; part?: string | string[] }> }) {
+export default async function DevRealScorePage({ searchParams }: { searchParams: Promise<{ file?: string | string[]; part?: string | string[]; mend?: string | string[] }> }) {
   if (config().APP_ENV === "production") notFound();
-  const { file, part } = await searchParams;
+  // `mend=0` skips the known mends, to check that the bars they would mend are found by trying.
+  const { file, part, mend } = await searchParams;
   if (typeof file !== "string" || !FILE.test(file) || file.split("/").includes("..")) notFound();
   const root = path.join(process.cwd(), "tests", "fixtures", "real");
   let bytes: Buffer;
@@ -34,7 +35,7 @@ export default async function DevRealScorePage({ searchParams }: { searchParams:
       <h1 className="mb-4 text-lg font-semibold">
         {file} · {partId}
       </h1>
-      <DevRealScore xml={selectPartsXml(partwiseXml, [partId])} />
+      <DevRealScore xml={selectPartsXml(partwiseXml, [partId])} mend={mend !== "0"} />
     </div>
   );
 }

@@ -1,0 +1,67 @@
+import fs from "node:fs";
+import path from "node:path";
+import { describe, expect, it } from "vitest";
+import { readScoreFile, selectPartsXml } from "@/lib/musicxml";
+import { scoreNoteKeys } from "@/lib/musicxml/key-order";
+import { barNumbers, blankFrom, blankMeasures, firstMeasures, listBars, measureCount, measureSpans, mendForEngraving } from "./repair";
+
+// Real encodings (tests/fixtures/real, sources and licences in its SOURCES.md) on which
+// OpenSheetMusicDisplay 2.1.3 stopped: grace notes without a type (Beethoven op. 18 no. 3, bar 94
+// of the first violin: a grace A4 before a whole-note A5) and a trill line started and never
+// stopped (Mozart K. 458, first movement, bar 29 of the first violin).
+const real = (file: string) => path.resolve(import.meta.dirname, "../../tests/fixtures/real", file);
+function part(file: string, partId = "P1") {
+  const { partwiseXml } = readScoreFile(new Uint8Array(fs.readFileSync(real(file))), file);
+  return selectPartsXml(partwiseXml, [partId]);
+}
+const keysOf = (xml: string) => scoreNoteKeys(readScoreFile(new TextEncoder().encode(xml), "x.musicxml").score);
+const measureOfKey = (key: string) => Number(/:m(\d+):/.exec(key)![1]);
+
+describe("mending the text for the engraver", () => {
+  it("gives every grace note a type and keeps every note key (Beethoven op. 18 no. 3)", () => {
+    const xml = part("music21/beethoven/opus18no3.mxl");
+    const untyped = (t: string) => (t.match(/<note\b[^>]*>(?:(?!<\/note>)[\s\S])*?<grace\b(?:(?!<\/note>)[\s\S])*<\/note>/g) ?? []).filter((n) => !/<type\b/.test(n)).length;
+    expect(untyped(xml)).toBeGreaterThan(0);
+    const mended = mendForEngraving(xml);
+    expect(untyped(mended)).toBe(0);
+    expect(keysOf(mended)).toEqual(keysOf(xml));
+    // Bar 94 (measure index 93) holds the grace A4 (MIDI 69) before the whole-note A5 (from the file).
+    expect(measureSpans(xml)[93].number).toBe("94");
+  }, 60_000);
+
+  it("leaves out a trill line that never stops and keeps every note key (Mozart K. 458)", () => {
+    const xml = part("music21/mozart/k458/movement1.mxl");
+    const mended = mendForEngraving(xml);
+    const count = (t: string, type: string) => (t.match(new RegExp(`<wavy-line\\b[^>]*type="${type}"`, "g")) ?? []).length;
+    expect(count(xml, "start")).toBeGreaterThan(count(xml, "stop"));
+    expect(count(mended, "start")).toBe(count(mended, "stop"));
+    expect(keysOf(mended)).toEqual(keysOf(xml));
+  }, 60_000);
+});
+
+describe("bars drawn as rests", () => {
+  const xml = mendForEngraving(part("music21/haydn/opus74no1/movement4.mxl"));
+
+  it("drops exactly the notes of the blanked bars; every other key stays", () => {
+    const before = keysOf(xml);
+    const blanked = keysOf(blankMeasures(xml, new Set([3, 10])));
+    expect(blanked).toEqual(before.filter((k) => ![3, 10].includes(measureOfKey(k))));
+    expect(measureCount(blankMeasures(xml, new Set([3, 10])))).toBe(measureCount(xml));
+  });
+
+  it("blanks from a bar on, and cuts the opening", () => {
+    const n = measureCount(xml);
+    expect(n).toBe(287);
+    expect(keysOf(blankFrom(xml, 5, new Set([1]))).every((k) => measureOfKey(k) < 5 && measureOfKey(k) !== 1)).toBe(true);
+    const opening = firstMeasures(xml, 24);
+    expect(measureCount(opening)).toBe(24);
+    expect(keysOf(opening)).toEqual(keysOf(xml).filter((k) => measureOfKey(k) < 24));
+  });
+
+  it("names bars by their written numbers", () => {
+    // The movement opens with a pickup the file numbers "0" (from the file).
+    expect(barNumbers(xml, [2, 0])).toEqual(["0", "2"]);
+    expect(listBars(["12"])).toBe("bar 12");
+    expect(listBars(["3", "12", "40"])).toBe("bars 3, 12 and 40");
+  });
+});
