@@ -30,6 +30,7 @@ import { Legend } from "./legend";
 import { MarkingOverlay } from "./marking-overlay";
 import { MarkingPanel } from "./marking-panel";
 import { PhraseMap } from "./phrase-map";
+import { partNameOf, soundingSentence, transpositionOf } from "@/lib/parts/transposition";
 import { SaveIndicator } from "./save-indicator";
 import { ScoreView, type ScoreLayout } from "./score-view";
 import { SuggestionsPanel } from "./suggestions-panel";
@@ -116,6 +117,11 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   const markings = useMemo(() => toState(markingsQuery.data?.markings ?? []), [markingsQuery.data]);
 
   const noteOrder = useMemo(() => (analysis.data?.notes ?? []).map((n) => n.key), [analysis.data]);
+  // A transposing part is shown as written; the player is told how it sounds.
+  const sounding = useMemo(() => {
+    const t = xml.data ? transpositionOf(xml.data) : null;
+    return t ? soundingSentence(partNameOf(xml.data!), t, analysis.data?.key ?? null) : null;
+  }, [xml.data, analysis.data]);
   const noteMeasures = useMemo(() => (analysis.data?.notes ?? []).map((n) => n.measure), [analysis.data]);
   const notesByKey = useMemo(() => new Map((analysis.data?.notes ?? []).map((n) => [n.key, n])), [analysis.data]);
   const labelOf = useCallback((key: string) => noteLabel(key, notesByKey.get(key)), [notesByKey]);
@@ -376,6 +382,11 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
               .filter(Boolean)
               .join(" · ")}
           </p>
+          {sounding ? (
+            <p className="text-sm text-graphite" data-testid="sounding-key">
+              {sounding}
+            </p>
+          ) : null}
         </div>
         <SaveIndicator state={saveState} error={saveError} />
         <div className="flex items-center gap-1" role="group" aria-label="History">
