@@ -111,7 +111,14 @@ describe("the real corpus engraves", () => {
           } else tally.partsWhole++;
         }
         if (whole) tally.filesEngraved++;
-        if (file === "music21/beethoven/opus133.mxl") await page.screenshot({ path: screenshotPath("real-opus133-first-part") });
+        if (file === "music21/beethoven/opus133.mxl") {
+          // A long part on a desktop and on a tablet held upright (the last part engraved).
+          await page.screenshot({ path: screenshotPath("real-opus133-desktop") });
+          await page.setViewportSize({ width: 820, height: 1180 });
+          await page.waitForTimeout(1500);
+          await page.waitForSelector('[data-score-status="ready"]');
+          await page.screenshot({ path: screenshotPath("real-opus133-tablet") });
+        }
       } finally {
         await page.close();
       }
