@@ -2,7 +2,7 @@ import Link from "next/link";
 import { SignOutButton } from "@/components/auth/sign-out-button";
 import { ActionForm } from "@/components/ui/action-form";
 import { resendVerificationAction } from "@/app/(auth)/actions";
-import { getCurrentUser } from "@/lib/auth/session";
+import { getCurrentUser } from "@/server/auth/session";
 
 const ROLE_LABEL = { player: "Player", teacher: "Teacher", admin: "Admin" } as const;
 

@@ -2,10 +2,10 @@
 
 import { z } from "zod";
 import { updateUserProfile } from "@/db/users";
-import { changePassword } from "@/lib/accounts/registration";
+import { changePassword } from "@/server/accounts/registration";
 import { newPasswordSchema } from "@/lib/auth/password-rules";
 import { assertCan } from "@/lib/auth/policy";
-import { defineAction, formCheckbox } from "@/lib/http/action";
+import { defineAction, formCheckbox } from "@/server/http/action";
 
 export const updateProfileAction = defineAction({
   name: "updateProfile",

@@ -3,7 +3,7 @@ import { getUserById } from "@/db/users";
 import { ActionForm, Checkbox, Field } from "@/components/ui/action-form";
 import { PageShell, Panel } from "@/components/ui/page-shell";
 import { PASSWORD_MIN_LENGTH } from "@/lib/auth/password-rules";
-import { requirePageUser } from "@/lib/auth/require-page-user";
+import { requirePageUser } from "@/server/auth/require-page-user";
 import { resendVerificationAction } from "../../(auth)/actions";
 import { changePasswordAction, updateProfileAction } from "./actions";
 

@@ -8,8 +8,8 @@ import { groupProgressByStudent, progressWindowStart } from "@/lib/assignments/p
 import { ActionForm, Field } from "@/components/ui/action-form";
 import { SharedWithMe } from "@/components/sharing/shared-with-me";
 import { Notice, PageShell, Panel } from "@/components/ui/page-shell";
-import { ownStudio } from "@/lib/accounts/studio";
-import { requirePageUser } from "@/lib/auth/require-page-user";
+import { ownStudio } from "@/server/accounts/studio";
+import { requirePageUser } from "@/server/auth/require-page-user";
 import { inviteAction, leaveStudioAction, removeMemberAction } from "./actions";
 
 export const metadata: Metadata = { title: "Studio" };

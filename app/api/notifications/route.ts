@@ -1,8 +1,8 @@
 import { handle, parseQuery } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { notificationsQuery } from "@/lib/sharing/schemas";
 import { notificationPath } from "@/lib/sharing/note-label";
-import { loadPart } from "@/lib/server/parts";
+import { loadPart } from "@/server/parts";
 import { countUnreadByPart, listNotificationsForUser } from "@/db/notifications";
 
 export const dynamic = "force-dynamic";

@@ -1,10 +1,10 @@
 import { handle, parseQuery } from "@/lib/http/handler";
 import { receiveFile } from "@/lib/http/multipart";
 import { assertCan } from "@/lib/auth/policy";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { config } from "@/lib/config";
 import { listPartsQuery } from "@/lib/parts/schemas";
-import { createPartFromFile } from "@/lib/server/parts";
+import { createPartFromFile } from "@/server/parts";
 import { listPartsForViewer } from "@/db/parts";
 
 export const dynamic = "force-dynamic";

@@ -1,5 +1,5 @@
 import { handle } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { groupByStudent } from "@/lib/sharing/attention";
 import { listSharedPartsForViewer } from "@/db/shares";
 

@@ -7,7 +7,7 @@ import { ActionForm, SelectField } from "@/components/ui/action-form";
 import { inputClass } from "@/components/ui/styles";
 import { PageShell } from "@/components/ui/page-shell";
 import { can } from "@/lib/auth/policy";
-import { requirePageUser } from "@/lib/auth/require-page-user";
+import { requirePageUser } from "@/server/auth/require-page-user";
 import { ROLES } from "@/lib/auth/types";
 import { setRoleAction, setStatusAction } from "./actions";
 

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query";
 import { selectPartsXml } from "@/lib/musicxml";
-import { loadPartForPage, partDto, partTitleForViewer } from "@/lib/server/parts";
+import { loadPartForPage, partDto, partTitleForViewer } from "@/server/parts";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import { decisionKeys, markingKeys, partKeys } from "@/components/score/api/keys";

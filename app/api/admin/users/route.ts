@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { USER_SORTS, listUsers } from "@/db/users";
 import { assertCan } from "@/lib/auth/policy";
-import { getCurrentUser } from "@/lib/auth/session";
+import { getCurrentUser } from "@/server/auth/session";
 import { handle, parseQuery } from "@/lib/http/handler";
 
 export const dynamic = "force-dynamic";

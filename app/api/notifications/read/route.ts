@@ -1,5 +1,5 @@
 import { handle, parseJson } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { readBody } from "@/lib/sharing/schemas";
 import { markNotificationsRead } from "@/db/notifications";
 

@@ -1,10 +1,10 @@
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { AppError } from "@/lib/errors";
 import { readScoreFile } from "@/lib/musicxml";
 import { partIdParams, patchPartBody } from "@/lib/parts/schemas";
 import { summarizePart } from "@/lib/parts/ingest";
-import { analysisOf, loadPart, partDto, readLimits } from "@/lib/server/parts";
+import { analysisOf, loadPart, partDto, readLimits } from "@/server/parts";
 import { deletePartById, updatePartById } from "@/db/parts";
 
 export const dynamic = "force-dynamic";

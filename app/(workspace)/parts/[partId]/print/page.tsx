@@ -3,7 +3,7 @@ import { toState } from "@/lib/markings/changes";
 import { resolutionsOf } from "@/lib/markings/durations";
 import { pendingSuggestions } from "@/lib/markings/suggestions";
 import { selectPartsXml } from "@/lib/musicxml";
-import { chosenPartAnalysis, loadPartForPage, partTitleForViewer } from "@/lib/server/parts";
+import { chosenPartAnalysis, loadPartForPage, partTitleForViewer } from "@/server/parts";
 import { parseStandCopyOptions } from "@/lib/stand-copy/options";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listCommentsByPartId } from "@/db/comments";

@@ -1,12 +1,12 @@
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { createAssignmentBody, type AssignmentListDto } from "@/lib/assignments/schema";
 import { partIdParams } from "@/lib/parts/schemas";
 import { ASSIGNMENT_NOTIFICATION } from "@/lib/sharing/note-label";
-import { assertSettableDueDate, assignmentAbilities, assignmentSummary } from "@/lib/server/assignments";
-import { notifyParticipants } from "@/lib/server/notify";
-import { loadPart } from "@/lib/server/parts";
-import { assertNoteOfPart } from "@/lib/server/practice";
+import { assertSettableDueDate, assignmentAbilities, assignmentSummary } from "@/server/assignments";
+import { notifyParticipants } from "@/server/notify";
+import { loadPart } from "@/server/parts";
+import { assertNoteOfPart } from "@/server/practice";
 import { insertAssignment, listAssignmentsByPartId } from "@/db/assignments";
 
 export const dynamic = "force-dynamic";

@@ -1,12 +1,12 @@
 import { handle, parseJson, parseParams, parseQuery } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
 import { excerpt } from "@/lib/sharing/comment-text";
 import { threadLabel } from "@/lib/sharing/note-label";
 import { commentBody, threadQuery } from "@/lib/sharing/schemas";
-import { notifyParticipants } from "@/lib/server/notify";
-import { loadPart } from "@/lib/server/parts";
-import { assertThreadKey } from "@/lib/server/sharing";
+import { notifyParticipants } from "@/server/notify";
+import { loadPart } from "@/server/parts";
+import { assertThreadKey } from "@/server/sharing";
 import { getThreadByKey, insertComment } from "@/db/comments";
 
 export const dynamic = "force-dynamic";

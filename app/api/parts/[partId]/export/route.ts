@@ -1,13 +1,13 @@
 import { z } from "zod";
 import { handle, parseParams, parseQuery } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { AppError } from "@/lib/errors";
 import { embedMarkings } from "@/lib/export/musicxml-markings";
 import { renderMidi } from "@/lib/export/midi";
 import type { MarkingValues } from "@/lib/markings/schema";
 import { readScoreFile } from "@/lib/musicxml";
 import { partIdParams } from "@/lib/parts/schemas";
-import { loadPart, readLimits } from "@/lib/server/parts";
+import { loadPart, readLimits } from "@/server/parts";
 import { listMarkingsByPartId } from "@/db/markings";
 
 export const dynamic = "force-dynamic";

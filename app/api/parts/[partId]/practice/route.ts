@@ -1,9 +1,9 @@
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
 import { practiceEntryBodySchema, type PracticeLogDto } from "@/lib/practice/schema";
-import { loadPart } from "@/lib/server/parts";
-import { assertNoteOfPart, canWritePractice } from "@/lib/server/practice";
+import { loadPart } from "@/server/parts";
+import { assertNoteOfPart, canWritePractice } from "@/server/practice";
 import { insertPracticeEntry, listPracticeEntriesByPartId } from "@/db/practice";
 
 export const dynamic = "force-dynamic";

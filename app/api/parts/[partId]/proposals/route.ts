@@ -1,14 +1,14 @@
 import { z } from "zod";
 import { handle, parseJson, parseParams, parseQuery } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { AppError } from "@/lib/errors";
 import { partIdParams } from "@/lib/parts/schemas";
 import { excerpt } from "@/lib/sharing/comment-text";
 import { threadLabel } from "@/lib/sharing/note-label";
 import { proposalBody } from "@/lib/sharing/schemas";
-import { notifyParticipants } from "@/lib/server/notify";
-import { loadPart } from "@/lib/server/parts";
-import { proposalView } from "@/lib/server/proposals";
+import { notifyParticipants } from "@/server/notify";
+import { loadPart } from "@/server/parts";
+import { proposalView } from "@/server/proposals";
 import { getMarkingByNoteKey, listMarkingsByPartId } from "@/db/markings";
 import { getProposalById, insertProposal, listProposalsByPartId } from "@/db/proposals";
 

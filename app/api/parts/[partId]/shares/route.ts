@@ -1,9 +1,9 @@
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
 import { inviteBody } from "@/lib/sharing/schemas";
-import { loadPart } from "@/lib/server/parts";
-import { inviteToPart } from "@/lib/server/sharing";
+import { loadPart } from "@/server/parts";
+import { inviteToPart } from "@/server/sharing";
 import { getShareDtoById, listSharesByPartId } from "@/db/shares";
 
 export const dynamic = "force-dynamic";

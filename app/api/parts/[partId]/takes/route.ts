@@ -1,9 +1,9 @@
 import { handle, parseJson, parseParams, parseQuery } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
 import { listTakesQuery, takeBodySchema } from "@/lib/practice/schema";
-import { loadPart } from "@/lib/server/parts";
-import { assertNoteOfPart } from "@/lib/server/practice";
+import { loadPart } from "@/server/parts";
+import { assertNoteOfPart } from "@/server/practice";
 import { getMarkingByNoteKey } from "@/db/markings";
 import { insertTake, listTakesByPartId } from "@/db/practice";
 

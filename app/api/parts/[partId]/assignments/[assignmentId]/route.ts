@@ -1,8 +1,8 @@
 import { handle, parseJson, parseParams, parseQuery } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { assignmentParams, deleteAssignmentQuery, patchAssignmentBody } from "@/lib/assignments/schema";
-import { assertSettableDueDate, assignmentConflict, loadAssignment } from "@/lib/server/assignments";
-import { assertNoteOfPart } from "@/lib/server/practice";
+import { assertSettableDueDate, assignmentConflict, loadAssignment } from "@/server/assignments";
+import { assertNoteOfPart } from "@/server/practice";
 import { deleteAssignmentById, updateAssignmentById } from "@/db/assignments";
 
 export const dynamic = "force-dynamic";

@@ -1,9 +1,9 @@
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { AppError } from "@/lib/errors";
 import { commentBody, commentParams } from "@/lib/sharing/schemas";
 import type { CurrentUser } from "@/lib/auth/types";
-import { loadPart } from "@/lib/server/parts";
+import { loadPart } from "@/server/parts";
 import { deleteCommentById, getCommentById, getThreadByKey, updateCommentById } from "@/db/comments";
 
 export const dynamic = "force-dynamic";

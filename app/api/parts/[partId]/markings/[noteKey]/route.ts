@@ -1,11 +1,11 @@
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
 import { handle, parseJson, parseParams, parseQuery } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { AppError } from "@/lib/errors";
 import { putMarkingBodySchema } from "@/lib/markings/schema";
 import { noteParams } from "@/lib/parts/note-params";
-import { loadPart } from "@/lib/server/parts";
+import { loadPart } from "@/server/parts";
 import { writeMarking, type WriteResult } from "@/db/markings";
 import type { Part } from "@/db/schema";
 

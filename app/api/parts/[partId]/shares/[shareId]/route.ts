@@ -1,8 +1,8 @@
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { AppError } from "@/lib/errors";
 import { patchShareBody, shareParams } from "@/lib/sharing/schemas";
-import { loadPart } from "@/lib/server/parts";
+import { loadPart } from "@/server/parts";
 import { getShareById, getShareDtoById, revokeShareById, updateSharePermissionById } from "@/db/shares";
 
 export const dynamic = "force-dynamic";

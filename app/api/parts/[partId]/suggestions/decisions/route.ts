@@ -1,8 +1,8 @@
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { decisionBodySchema } from "@/lib/markings/schema";
 import { partIdParams } from "@/lib/parts/schemas";
-import { loadPart } from "@/lib/server/parts";
+import { loadPart } from "@/server/parts";
 import { listDecisionsByPartId, upsertDecision } from "@/db/suggestion-decisions";
 
 export const dynamic = "force-dynamic";

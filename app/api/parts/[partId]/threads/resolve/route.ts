@@ -1,10 +1,10 @@
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { AppError } from "@/lib/errors";
 import { partIdParams } from "@/lib/parts/schemas";
 import { resolveBody } from "@/lib/sharing/schemas";
-import { loadPart } from "@/lib/server/parts";
-import { assertThreadKey } from "@/lib/server/sharing";
+import { loadPart } from "@/server/parts";
+import { assertThreadKey } from "@/server/sharing";
 import { getThreadByKey, setThreadResolved } from "@/db/comments";
 
 export const dynamic = "force-dynamic";

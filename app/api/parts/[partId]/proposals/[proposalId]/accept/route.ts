@@ -1,12 +1,12 @@
 import { randomUUID } from "node:crypto";
 import { handle, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { threadLabel } from "@/lib/sharing/note-label";
 import { PROPOSAL_ACTION_FROM } from "@/lib/sharing/proposal-state";
 import { proposalParams } from "@/lib/sharing/schemas";
-import { notifyParticipants } from "@/lib/server/notify";
-import { loadPart } from "@/lib/server/parts";
-import { assertProposalState, conflictAfterRace, loadProposal, proposalView } from "@/lib/server/proposals";
+import { notifyParticipants } from "@/server/notify";
+import { loadPart } from "@/server/parts";
+import { assertProposalState, conflictAfterRace, loadProposal, proposalView } from "@/server/proposals";
 import { getMarkingByNoteKey, writeMarking } from "@/db/markings";
 import { getProposalById, transitionProposal } from "@/db/proposals";
 

@@ -1,10 +1,10 @@
 import { handle, parseParams } from "@/lib/http/handler";
 import { assertCan } from "@/lib/auth/policy";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { PROPOSAL_ACTION_FROM } from "@/lib/sharing/proposal-state";
 import { proposalParams } from "@/lib/sharing/schemas";
-import { loadPart } from "@/lib/server/parts";
-import { assertProposalState, conflictAfterRace, loadProposal, proposalView } from "@/lib/server/proposals";
+import { loadPart } from "@/server/parts";
+import { assertProposalState, conflictAfterRace, loadProposal, proposalView } from "@/server/proposals";
 import { getMarkingByNoteKey } from "@/db/markings";
 import { getProposalById, transitionProposal } from "@/db/proposals";
 

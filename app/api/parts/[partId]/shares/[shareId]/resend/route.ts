@@ -1,9 +1,9 @@
 import { handle, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { AppError } from "@/lib/errors";
 import { shareParams } from "@/lib/sharing/schemas";
-import { loadPart } from "@/lib/server/parts";
-import { resendInvitation } from "@/lib/server/sharing";
+import { loadPart } from "@/server/parts";
+import { resendInvitation } from "@/server/sharing";
 import { getShareById, getShareDtoById } from "@/db/shares";
 
 export const dynamic = "force-dynamic";

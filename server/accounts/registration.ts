@@ -2,7 +2,7 @@ import "server-only";
 import { consumeToken, issueToken } from "@/db/tokens";
 import { createUser, getUserByEmail, getUserById, markEmailVerified, setUserPassword } from "@/db/users";
 import { hashPassword, verifyPassword } from "@/lib/auth/password";
-import { checkLimits, rateLimitError, recordAttempt, resetChecks } from "@/lib/auth/rate-limit";
+import { checkLimits, rateLimitError, recordAttempt, resetChecks } from "@/server/auth/rate-limit";
 import type { CurrentUser } from "@/lib/auth/types";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";

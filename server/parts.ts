@@ -3,7 +3,7 @@ import { analyzeScore, ANALYSIS_VERSION } from "@/lib/analysis";
 import type { PartAnalysis, ScoreAnalysis } from "@/lib/analysis/types";
 import { assertCan, type Action } from "@/lib/auth/policy";
 import { notFound, redirect } from "next/navigation";
-import { getCurrentUser } from "@/lib/auth/session";
+import { getCurrentUser } from "@/server/auth/session";
 import type { CurrentUser } from "@/lib/auth/types";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
