@@ -34,13 +34,15 @@ export interface ErrorBody {
   message: string;
   field?: string;
   details?: unknown;
+  /** On a conflict, the resource as it is now, so the client can show it beside the refused change. */
+  current?: unknown;
 }
 
 export class AppError extends Error {
   constructor(
     readonly code: ErrorCode,
     message: string,
-    readonly extra: { field?: string; details?: unknown; headers?: Record<string, string> } = {},
+    readonly extra: { field?: string; details?: unknown; current?: unknown; headers?: Record<string, string> } = {},
   ) {
     super(message);
     this.name = "AppError";
@@ -51,14 +53,12 @@ export class AppError extends Error {
   }
 
   toBody(): ErrorBody {
-    return { code: this.code, message: this.message, field: this.extra.field, details: this.extra.details };
+    const body: ErrorBody = { code: this.code, message: this.message, field: this.extra.field, details: this.extra.details };
+    if (this.extra.current !== undefined) body.current = this.extra.current;
+    return body;
   }
 
   toResponse(): Response {
     return Response.json(this.toBody(), { status: this.status, headers: this.extra.headers });
   }
-}
-
-export function statusForCode(code: string): number {
-  return STATUS[code.split(":")[0] as ErrorKind] ?? 400;
 }

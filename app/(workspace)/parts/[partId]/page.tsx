@@ -4,8 +4,8 @@ import { selectPartsXml } from "@/lib/musicxml";
 import { loadPartForPage, partDto, partTitleForViewer } from "@/server/parts";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
-import { decisionKeys, markingKeys, partKeys } from "@/components/score/api/keys";
-import { Workspace } from "@/components/score/workspace";
+import { decisionKeys, markingKeys, partKeys } from "@/components/client/keys";
+import { Workspace } from "@/components/screens/workspace";
 
 export const dynamic = "force-dynamic";
 

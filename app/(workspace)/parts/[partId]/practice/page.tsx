@@ -7,11 +7,10 @@ import { canWritePractice } from "@/server/practice";
 import { assignmentAbilities } from "@/server/assignments";
 import { utcIsoDate } from "@/lib/assignments/due";
 import { listAssignmentsByPartId } from "@/db/assignments";
-import { assignmentKeys } from "@/components/assignments/api";
+import { assignmentKeys, practiceKeys } from "@/components/client/keys";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listPracticeEntriesByPartId, listTakesByPartId } from "@/db/practice";
-import { practiceKeys } from "@/components/practice/api";
-import { PracticeRoom, type PracticeNote } from "@/components/practice/practice-room";
+import { PracticeRoom, type PracticeNote } from "@/components/screens/practice-room";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Practise" };

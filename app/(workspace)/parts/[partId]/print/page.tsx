@@ -9,7 +9,7 @@ import { listMarkingsByPartId } from "@/db/markings";
 import { listCommentsByPartId } from "@/db/comments";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import { getUserById } from "@/db/users";
-import { StandCopy } from "@/components/stand-copy/stand-copy";
+import { StandCopy } from "@/components/screens/stand-copy";
 
 export const dynamic = "force-dynamic";
 
