@@ -36,13 +36,24 @@ export interface ErrorBody {
   details?: unknown;
   /** On a conflict, the resource as it is now, so the client can show it beside the refused change. */
   current?: unknown;
+  /** Other state sent with a conflict (e.g. the proposal that just went stale). */
+  [state: string]: unknown;
 }
 
 export class AppError extends Error {
   constructor(
     readonly code: ErrorCode,
     message: string,
-    readonly extra: { field?: string; details?: unknown; current?: unknown; headers?: Record<string, string> } = {},
+    readonly extra: {
+      field?: string;
+      details?: unknown;
+      /**
+       * A conflict's state as it is now (`current`: the resource the refused change was made
+       * against), sent beside the code so the client can show both and let the person choose.
+       */
+      state?: { current: unknown } & Record<string, unknown>;
+      headers?: Record<string, string>;
+    } = {},
   ) {
     super(message);
     this.name = "AppError";
@@ -53,9 +64,7 @@ export class AppError extends Error {
   }
 
   toBody(): ErrorBody {
-    const body: ErrorBody = { code: this.code, message: this.message, field: this.extra.field, details: this.extra.details };
-    if (this.extra.current !== undefined) body.current = this.extra.current;
-    return body;
+    return { ...this.extra.state, code: this.code, message: this.message, field: this.extra.field, details: this.extra.details };
   }
 
   toResponse(): Response {

@@ -15,7 +15,7 @@ function assertNoteExists(part: Part, noteKey: string) {
 
 /** A write made against an older version: nothing changes, and the marking as it is now goes back. */
 export function markingConflict(current: MarkingDto | null): AppError {
-  return new AppError("conflict:marking", "This note's marking was changed elsewhere since you opened it. Choose which version to keep.", { current });
+  return new AppError("conflict:marking", "This note's marking was changed elsewhere since you opened it. Choose which version to keep.", { state: { current } });
 }
 
 function written(result: WriteResult): MarkingDto | null {

@@ -80,6 +80,14 @@ export async function partTitleForViewer(partId: string): Promise<string | null>
   return access?.part.title ?? null;
 }
 
+
+/** A note named in a request body must be a note of the part (a stale tab may hold old keys). */
+export function assertNoteOfPart(part: Part, noteKey: string | null | undefined) {
+  if (noteKey && !part.noteKeys.includes(noteKey)) {
+    throw new AppError("bad_request:note", `There is no note ${noteKey} in this part. Reload the page: the part may have changed.`, { field: "noteKey" });
+  }
+}
+
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /**
