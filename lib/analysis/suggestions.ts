@@ -77,7 +77,7 @@ export function tensionSuggestions(tensions: readonly TensionFinding[], ctx: Sug
   const resolutions = new Map<number, { t: TensionFinding; confidence: number }>();
   for (const t of tensions) {
     const n = ctx.seq[t.index];
-    out.push([t.index, make(n, ctx, "tension", round(t.confidence), t.resolvesTo === null ? null : ctx.seq[t.resolvesTo].note.key, t.reason)]);
+    out.push([t.index, { ...make(n, ctx, "tension", round(t.confidence), t.resolvesTo === null ? null : ctx.seq[t.resolvesTo].note.key, t.reason), kind: t.kind }]);
     if (t.resolvesTo !== null) {
       const prev = resolutions.get(t.resolvesTo);
       if (!prev || prev.confidence < t.confidence) resolutions.set(t.resolvesTo, { t, confidence: t.confidence });

@@ -9,14 +9,9 @@ import type { Key } from "./key";
 import type { MelodyNote } from "./melody";
 import { displayName, mod } from "./spelling";
 
-export type TensionKind =
-  | "leading-tone"
-  | "fourth-to-third"
-  | "lowered-sixth"
-  | "fourth-to-minor-third"
-  | "raised"
-  | "lowered"
-  | "appoggiatura";
+import type { TensionKind } from "./types";
+
+export type { TensionKind };
 
 export interface TensionFinding {
   index: number;

@@ -4,6 +4,14 @@
  */
 export type Role = "phrase-start" | "peak" | "tension" | "resolution";
 export type Mode = "major" | "minor";
+export type TensionKind =
+  | "leading-tone"
+  | "fourth-to-third"
+  | "lowered-sixth"
+  | "fourth-to-minor-third"
+  | "raised"
+  | "lowered"
+  | "appoggiatura";
 
 export interface KeyResult {
   tonic: string; // spelled with # and b: "F#", "Bb"
@@ -43,6 +51,9 @@ export interface Suggestion {
   confidence: number;
   resolvesTo: string | null;
   reason: string;
+  /** For a tension tone, which rule found it: "leading-tone" (of the local key), "raised" (a
+   * chromatic note leading up, e.g. the leading tone of an applied dominant), "fourth-to-third"… */
+  kind?: TensionKind;
 }
 
 export interface PartAnalysis {
