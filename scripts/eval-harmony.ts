@@ -129,7 +129,10 @@ function ondulaKeys(score: ScoreModel): { keys: Array<PcKey | null>; leadingTone
   return { keys, leadingTones };
 }
 
-export function evaluatePiece(piece: PieceInput): Record<Method, MethodCounts> {
+const KEY_NAMES = ["C", "C#", "D", "Eb", "E", "F", "F#", "G", "Ab", "A", "Bb", "B"];
+const show = (k: PcKey | null) => (k ? (k.mode === "major" ? KEY_NAMES[k.pc] : KEY_NAMES[k.pc].toLowerCase()) : "-");
+
+export function evaluatePiece(piece: PieceInput, trace?: (line: string) => void): Record<Method, MethodCounts> {
   const { score, rt } = piece;
   const part = score.parts[0];
   const melody = extractMelody(part, buildTimeline(score, part)).filter((n) => !n.grace);
@@ -148,6 +151,10 @@ export function evaluatePiece(piece: PieceInput): Record<Method, MethodCounts> {
     "windowed K–K": { keyAt: (i) => kk[i], lt: keyLeadingTones(melody, (i) => kk[i]) },
     Ondula: { keyAt: (i) => ondula.keys[i], lt: ondula.leadingTones },
   };
+  if (trace) {
+    trace(`${piece.name}  expert: ${gold.map(show).join(" ")}`);
+    trace(`${" ".repeat(piece.name.length)}  Ondula: ${gold.map((_, i) => show(ondula.keys[i])).join(" ")}`);
+  }
   const out = {} as Record<Method, MethodCounts>;
   for (const method of METHODS) {
     const c = empty();
@@ -195,8 +202,8 @@ export interface HarmonyTotals {
 
 const ratio = (a: number, b: number) => (b === 0 ? 1 : a / b);
 
-export function evaluateHarmony(pieces: readonly PieceInput[]): { totals: HarmonyTotals[]; perPiece: Array<{ name: string; result: Record<Method, MethodCounts> }> } {
-  const perPiece = pieces.map((p) => ({ name: p.name, result: evaluatePiece(p) }));
+export function evaluateHarmony(pieces: readonly PieceInput[], trace?: (line: string) => void): { totals: HarmonyTotals[]; perPiece: Array<{ name: string; result: Record<Method, MethodCounts> }> } {
+  const perPiece = pieces.map((p) => ({ name: p.name, result: evaluatePiece(p, trace) }));
   const totals = METHODS.map((method) => {
     const c = empty();
     for (const p of perPiece) for (const k of Object.keys(c) as Array<keyof MethodCounts>) c[k] += p.result[method][k];
@@ -215,7 +222,8 @@ export function evaluateHarmony(pieces: readonly PieceInput[]): { totals: Harmon
 /** Prints the harmony section: one row per method, then the goals for Ondula. */
 export function printHarmony(dir: string, verbose: boolean): void {
   const pieces = loadHarmonyCorpus(dir);
-  const { totals, perPiece } = evaluateHarmony(pieces);
+  const traced: string[] = [];
+  const { totals, perPiece } = evaluateHarmony(pieces, verbose ? (l) => traced.push(l) : undefined);
   const bars = totals[0].counts.bars;
   const away = totals[0].counts.away;
   console.log(`\nHarmony: ${pieces.length} pieces of tests/fixtures/harmony, ${bars} bars (${away} away from the home key), ${totals[0].counts.ltGold} leading tones in the melody`);
@@ -247,6 +255,7 @@ export function printHarmony(dir: string, verbose: boolean): void {
   ];
   console.log(`\nHarmony goals (Ondula): ${goals.join("; ")}`);
   if (verbose) {
+    for (const l of traced) console.log(l);
     for (const p of perPiece) {
       const r = p.result.Ondula;
       console.log(`${p.name}: bars ${r.barsRight}/${r.bars}, away ${r.awayRight}/${r.away}, LT ${r.ltTp}/${r.ltPredicted}/${r.ltGold}`);

@@ -25,6 +25,10 @@ export interface LocalKey {
   mode: Mode;
   fromMeasure: string; // MusicXML measure number
   toMeasure: string;
+  /** Where a modulation found inside a key section has a pivot: the bars just before the new
+   * key's first foreign note whose notes belong to both keys. Absent when there is none. */
+  pivotFromMeasure?: string;
+  pivotToMeasure?: string;
 }
 
 export interface AnalyzedNote {
