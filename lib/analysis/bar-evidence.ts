@@ -18,6 +18,10 @@ export interface Segment {
   cadence: Map<number, number>;
   /** Pitch classes (bit mask) the notes outside the melody sound in the beat: its harmony. */
   harmony: number;
+  /** The first chord struck in the beat (two notes or more): its bass pitch class and its pitch
+   * classes (bit mask); bass −1 when none. */
+  firstBass: number;
+  firstPcs: number;
 }
 
 export interface BarEvidence {
@@ -57,6 +61,8 @@ export function barEvidence(score: ScoreModel, part: PartModel, timeline: Timeli
       hist: new Float64Array(12),
       cadence: new Map<number, number>(),
       harmony: 0,
+      firstBass: -1,
+      firstPcs: 0,
     })),
     beatLength: beatLength[i],
     lofs: new Set<number>(),
@@ -100,7 +106,14 @@ export function barEvidence(score: ScoreModel, part: PartModel, timeline: Timeli
     add(bars[b].cadence, key, w);
     add(segmentAt(pos).cadence, key, w);
   };
-  addBassCadences(sounding, mark);
+  const chord = (pos: number, bass: number, pcs: number) => {
+    const seg = segmentAt(pos);
+    if (seg.firstBass < 0) {
+      seg.firstBass = bass;
+      seg.firstPcs = pcs;
+    }
+  };
+  addBassCadences(sounding, mark, chord);
   addMelodicLeadingTones(melody, bars, mark);
   return bars;
 }
@@ -124,7 +137,7 @@ function add(cadence: Map<number, number>, key: number, w: number): void {
 type Mark = (pos: number, key: number, w: number) => void;
 
 /** Chords at each onset (every sounding note), and V → I motions between consecutive chords. */
-function addBassCadences(sounding: Sounding[], mark: Mark): void {
+function addBassCadences(sounding: Sounding[], mark: Mark, chord: (pos: number, bass: number, pcs: number) => void): void {
   if (sounding.length === 0) return;
   sounding.sort((a, b) => a.pos - b.pos);
   const active: Sounding[] = [];
@@ -148,6 +161,7 @@ function addBassCadences(sounding: Sounding[], mark: Mark): void {
       continue;
     }
     const cur = { bass: mod(bass, 12), pcs };
+    chord(t, cur.bass, pcs);
     if (prev && prev.bass !== cur.bass) {
       const tonic = cur.bass;
       const has = (set: number, pc: number) => (set & (1 << mod(pc, 12))) !== 0;

@@ -7,6 +7,7 @@ import type { Measure } from "@/lib/musicxml/model";
 import { inKey } from "./degree";
 import { type Key, fifthsOf, inferMode, keyFromSignature } from "./key";
 import { type BarEvidence, CADENCE_WEIGHT, type Segment } from "./bar-evidence";
+import { chordFit, nameChord } from "./chord-fit";
 import { keyScoresMean } from "./key-finding";
 import type { MelodyNote } from "./melody";
 import { pcOfLof } from "./spelling";
@@ -39,7 +40,7 @@ export interface LocalKeySpan {
  * section. Its pivot region is the run of bars just before the first such note whose notes fit
  * both keys.
  */
-export const LOCAL_KEY = { windowMeasures: 4, margin: 0.15, homeBonus: 0.05, neighbourWeight: 0.35, minMeasures: 2 } as const;
+export const LOCAL_KEY = { windowMeasures: 4, margin: 0.15, homeBonus: 0.05, neighbourWeight: 0.35, minMeasures: 2, openingChord: 0.3, chordWeight: 0.6 } as const;
 
 export function keySections(measures: readonly Measure[], melody: readonly MelodyNote[]): KeySection[] {
   const sections: KeySection[] = [];
@@ -85,7 +86,7 @@ const keyIndexOf = (k: Key) => (k.mode === "major" ? 0 : 12) + pcOfLof(k.tonicLo
  * home of the path: bars that fit it as well as another key stay in it.
  */
 export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): LocalKeySpan[] {
-  const { windowMeasures, margin, homeBonus, neighbourWeight, minMeasures } = LOCAL_KEY;
+  const { windowMeasures, margin, homeBonus, neighbourWeight, minMeasures, openingChord, chordWeight } = LOCAL_KEY;
   const n = section.toIndex - section.fromIndex + 1;
   if (n < 1) return [];
   const home = keyIndexOf(section.key);
@@ -106,6 +107,7 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): 
   const score: Float64Array[] = [];
   const h = new Float64Array(12);
   const row0 = new Float64Array(24);
+  const fit = new Float64Array(24);
   for (let i = 0; i < m; i++) {
     h.fill(0);
     let any = false;
@@ -119,8 +121,21 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): 
     const row = new Float64Array(24);
     if (any) keyScoresMean(h, row0);
     // Scores are per bar, shared by its beats (cadences are events and count whole).
-    for (let k = 0; k < 24; k++) row[k] = ((any ? row0[k] : 0) + (k === home || k === alsoHome ? homeBonus : 0)) / perBar + (segs[i].cadence.get(k) ?? 0);
+    const named = nameChord(segs[i].hist);
+    if (named) chordFit(named, fit);
+    for (let k = 0; k < 24; k++) row[k] = ((any ? row0[k] : 0) + (named ? chordWeight * fit[k] : 0) + (k === home || k === alsoHome ? homeBonus : 0)) / perBar + (segs[i].cadence.get(k) ?? 0);
     score.push(row);
+  }
+  // Common practice: music opens on its tonic chord. Where the file gives no mode, the first
+  // chord struck (its bass the root, its third major or minor) names the key the section opens in.
+  if (section.source === "inferred") {
+    const opening = segs.find((sg) => sg.firstBass >= 0);
+    if (opening) {
+      const t = opening.firstBass;
+      const has = (iv: number) => (opening.firstPcs & (1 << ((t + iv) % 12))) !== 0;
+      if (has(4)) score[0][t] += openingChord;
+      if (has(3)) score[0][12 + t] += openingChord;
+    }
   }
   // Viterbi with a flat change cost: best[k] = score + max(best_prev[k], max_prev − margin).
   const back: Int8Array[] = [];
@@ -187,15 +202,18 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): 
       const key = spell(path[i], i, j);
       let first = -1;
       for (let b = i; b <= j && first < 0; b++) if (evidence(b, key)) first = b;
-      // A short span stands only as the section's close, on a cadence the other parts confirm.
       let cadence = false;
       for (let b = i; b <= j; b++) if ((bar(b).cadence.get(path[i]) ?? 0) >= CADENCE_WEIGHT.bassCadence) cadence = true;
       const closing = j === n - 1 && cadence;
       const long = j - i + 1 >= minMeasures || closing;
+      // Where other parts give the harmony, chord fit and cadences already carry the evidence;
+      // a melody alone must show a foreign note and hold the key for a while.
+      let harmonic = false;
+      for (let b = i; b <= j; b++) if (!bar(b).melodyOnly) harmonic = true;
       // A signature names the key the section starts in: a span from its first bar would only
       // contradict it.
       const againstSignature = i === 0 && section.source === "signature";
-      if (first >= 0 && long && !againstSignature) {
+      if ((harmonic || (first >= 0 && long)) && !againstSignature) {
         // Pivot: bars before the first evidence whose notes fit both the old key and the new one.
         const prevKey = spans.length > 0 && spans[spans.length - 1].toIndex === section.fromIndex + i - 1 ? spans[spans.length - 1].key : section.key;
         let p = first;
