@@ -11,11 +11,11 @@ import { barEvidence, harmonyAt } from "./bar-evidence";
 import { Accompaniment, buildTimeline, extractMelody, fracString, type MelodyNote } from "./melody";
 import { findPhrases } from "./phrases";
 import { asciiName } from "./spelling";
-import { phraseSuggestions, tensionSuggestions } from "./suggestions";
+import { phraseSuggestions, rankByPhrase, tensionSuggestions } from "./suggestions";
 import { findTensions } from "./tension";
 
 /** Bump whenever results change: stored analyses with another version are recomputed. */
-export const ANALYSIS_VERSION = 1;
+export const ANALYSIS_VERSION = 2;
 
 const ROLE_ORDER: Record<Suggestion["role"], number> = { "phrase-start": 0, peak: 1, tension: 2, resolution: 3 };
 
@@ -83,7 +83,9 @@ export function analyzePart(score: ScoreModel, part: PartModel): PartAnalysis {
   const phrases = findPhrases(main, part.measures, keyStarts);
   const ctx = { seq: main, keyAt, bar };
   // Suggestions in time order, then by role, sorted on one number each.
-  const suggestions = [...phraseSuggestions(phrases, ctx), ...tensionSuggestions(tensions, ctx)]
+  const placed = [...phraseSuggestions(phrases, ctx), ...tensionSuggestions(tensions, ctx)];
+  rankByPhrase(placed, phrases);
+  const suggestions = placed
     .map(([index, s]) => ({ s, rank: index * 4 + ROLE_ORDER[s.role] }))
     .sort((a, b) => a.rank - b.rank)
     .map((x) => x.s);

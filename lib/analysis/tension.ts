@@ -150,7 +150,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
         const base = res.direct ? C.leadingToneResolved : C.leadingToneOrnamented;
         if (support === "unknown") push("leading-tone", base, res.index, `${name} is ${what} of ${kname}; ${how} ${step(seq[res.index])}.`);
         else if (support === "against") push("leading-tone", C.noDominantSupport, res.index, `${name} in bar ${bar(n)} is ${what} of ${kname}, but the harmony under it is no dominant of ${tonic}: a passing note more than a leading tone; ${how} ${step(seq[res.index])}.`);
-        else push("leading-tone", base + C.dominantSupport, res.index, `${name} leads to ${tonic} under the ${support} of ${kname} (bar ${bar(n)}, ${kname}): ${what}; ${how} ${step(seq[res.index])}.`);
+        else push("leading-tone", base + C.dominantSupport, res.index, `${name} leads to ${tonic} under the ${support} of ${kname} (bar ${bar(n)}, ${kname}): ${what.replace(/,$/, "")}; ${how} ${step(seq[res.index])}.`);
       } else {
         const passingDown = next && next.midi - n.midi < 0 && next.midi - n.midi >= -2 && prev && prev.midi - n.midi > 0 && prev.midi - n.midi <= 2;
         push(

@@ -55,6 +55,16 @@ export interface Suggestion {
   confidence: number;
   resolvesTo: string | null;
   reason: string;
+  /**
+   * How strongly to mark it, 0–1: the confidence weighted by the note's weight in the bar (1 on a
+   * strong beat or for a quarter note or longer, 0.85 on another beat, 0.7 off the beat), so a
+   * sure leading tone on a downbeat outranks a sure one in passing. Always set by this version;
+   * optional only for results stored by older ones.
+   */
+  strength?: number;
+  /** 1 = the strongest suggestion of its phrase, 2 the next… (ties: earlier first). The list
+   * itself stays in time order. Always set by this version. */
+  rank?: number;
   /** For a tension tone, which rule found it: "leading-tone" (of the local key), "raised" (a
    * chromatic note leading up, e.g. the leading tone of an applied dominant), "fourth-to-third"… */
   kind?: TensionKind;
