@@ -74,14 +74,19 @@ export type Support = "dominant" | "leading-tone chord" | "against" | "unknown";
 /**
  * Whether the other parts sound a chord that makes a note the leading tone of `targetPc`: V(7) of
  * the target (root t+7, with its fifth t+2, seventh t+5 or ninth t+8) or vii°(7) (third t+2 and
- * fifth t+5, seventh t+8) — and nothing else: the target itself, its third or sixth against the
- * note make it a passing note over another chord. Unknown with fewer than two notes.
+ * fifth t+5, seventh t+8) — and nothing else (one passing note allowed among four pitch classes or
+ * more): the target itself, its third or sixth against the note make it a passing note over
+ * another chord. Unknown with fewer than two notes.
  * Source: Open Music Theory v1, "Applied chords"; Hutchinson, "Secondary dominant chords".
  */
 export function dominantSupport(chord: ReadonlySet<number>, targetPc: number): Support {
   if (chord.size < 2) return "unknown";
   const has = (iv: number) => chord.has(mod(targetPc + iv, 12));
-  for (const pc of chord) if (![7, 11, 2, 5, 8].includes(mod(pc - targetPc, 12))) return "against";
+  if (has(0)) return "against";
+  // In a fuller sonority (four pitch classes or more) one other note may be passing.
+  let foreign = 0;
+  for (const pc of chord) if (![7, 11, 2, 5, 8].includes(mod(pc - targetPc, 12))) foreign++;
+  if (foreign > (chord.size >= 4 ? 1 : 0)) return "against";
   if (has(7)) return "dominant";
   if (has(2) && has(5)) return "leading-tone chord";
   return "against";
