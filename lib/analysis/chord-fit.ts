@@ -32,14 +32,25 @@ export function nameChord(hist: ArrayLike<number>): NamedChord | null {
   for (let pc = 0; pc < 12; pc++) max = Math.max(max, hist[pc]);
   if (max <= 0) return null;
   let mask = 0;
-  let count = 0;
+  let strongest = 0;
   for (let pc = 0; pc < 12; pc++) {
-    if (hist[pc] >= 0.25 * max) {
-      mask |= 1 << pc;
-      count++;
-    }
+    if (hist[pc] >= 0.25 * max) mask |= 1 << pc;
+    if (hist[pc] === max) strongest = pc;
   }
-  if (count < 3) return null;
+  // 4096 masks × 12 strongest notes: the answer depends on nothing else, so it is remembered.
+  const id = mask * 12 + strongest;
+  let named = chordCache.get(id);
+  if (named === undefined) {
+    named = nameMask(mask, strongest);
+    chordCache.set(id, named);
+  }
+  return named;
+}
+
+const chordCache = new Map<number, NamedChord | null>();
+
+function nameMask(mask: number, strongest: number): NamedChord | null {
+  if (popcount(mask) < 3) return null;
   let best: NamedChord | null = null;
   let bestScore = -Infinity;
   for (let root = 0; root < 12; root++) {
@@ -51,7 +62,8 @@ export function nameChord(hist: ArrayLike<number>): NamedChord | null {
       const missing = popcount(tmask & ~mask);
       // The root must sound; a missing fifth costs little.
       if (!(mask & (1 << root))) continue;
-      const score = hit - extra - 0.4 * missing + 0.01 * hist[root];
+      // Ties go to the root that sounds longest.
+      const score = hit - extra - 0.4 * missing + (root === strongest ? 0.01 : 0);
       if (score > bestScore) {
         bestScore = score;
         best = { root, quality: t.quality };
@@ -78,8 +90,21 @@ const MINOR_CHORDS: ReadonlyMap<number, readonly Quality[]> = new Map([
   [0, ["minor"]], [2, ["diminished"]], [3, ["major"]], [5, ["minor", "major"]], [7, ["major", "dominant7", "minor"]], [8, ["major"]], [10, ["major", "dominant7"]], [11, ["diminished"]],
 ]);
 
+const fitCache = new Map<string, Float64Array>();
+
 /** Fit of a chord in each key (index 0–11 major on that pitch class, 12–23 minor), into `out`. */
 export function chordFit(chord: NamedChord, out: Float64Array): Float64Array {
+  const id = `${chord.root}:${chord.quality}`;
+  let row = fitCache.get(id);
+  if (!row) {
+    row = fitRow(chord, new Float64Array(24));
+    fitCache.set(id, row);
+  }
+  out.set(row);
+  return out;
+}
+
+function fitRow(chord: NamedChord, out: Float64Array): Float64Array {
   for (let k = 0; k < 24; k++) {
     const t = k % 12;
     const table = k < 12 ? MAJOR_CHORDS : MINOR_CHORDS;

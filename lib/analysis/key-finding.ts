@@ -169,11 +169,13 @@ export function bestKeyMean(histogram: readonly number[], profiles: readonly Key
 
 /** Mean correlation over the decision profiles for all 24 keys at once (index 0–11 major on that
  * pitch class, 12–23 minor), written into `out`: one pass over the combined rotations. */
+const scratch = new Float64Array(12);
+
 export function keyScoresMean(histogram: ArrayLike<number>, out: Float64Array, profiles: readonly KeyProfile[] = DECISION_PROFILES): Float64Array {
   let mx = 0;
   for (let i = 0; i < 12; i++) mx += histogram[i];
   mx /= 12;
-  const dx = new Float64Array(12);
+  const dx = scratch;
   let sxx = 0;
   for (let i = 0; i < 12; i++) {
     dx[i] = histogram[i] - mx;

@@ -104,7 +104,7 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): 
   // Emission: correlation of the beat's pitch classes with its neighbours' (within half the
   // window each side, weighted down geometrically per beat) mixed in, plus cadences.
   const radius = Math.max(1, Math.round((windowMeasures / 2) * (m / n)));
-  const score: Float64Array[] = [];
+  const score = new Float64Array(m * 24);
   const h = new Float64Array(12);
   const row0 = new Float64Array(24);
   const fit = new Float64Array(24);
@@ -118,13 +118,12 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): 
       for (let pc = 0; pc < 12; pc++) h[pc] += w * hj[pc];
     }
     for (let pc = 0; pc < 12; pc++) if (h[pc] > 0) any = true;
-    const row = new Float64Array(24);
+    const row = score.subarray(i * 24, i * 24 + 24);
     if (any) keyScoresMean(h, row0);
     // Scores are per bar, shared by its beats (cadences are events and count whole).
     const named = nameChord(segs[i].hist);
     if (named) chordFit(named, fit);
     for (let k = 0; k < 24; k++) row[k] = ((any ? row0[k] : 0) + (named ? chordWeight * fit[k] : 0) + (k === home || k === alsoHome ? homeBonus : 0)) / perBar + (segs[i].cadence.get(k) ?? 0);
-    score.push(row);
   }
   // Common practice: music opens on its tonic chord. Where the file gives no mode, the first
   // chord struck (its bass the root, its third major or minor) names the key the section opens in.
@@ -133,34 +132,32 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): 
     if (opening) {
       const t = opening.firstBass;
       const has = (iv: number) => (opening.firstPcs & (1 << ((t + iv) % 12))) !== 0;
-      if (has(4)) score[0][t] += openingChord;
-      if (has(3)) score[0][12 + t] += openingChord;
+      if (has(4)) score[t] += openingChord;
+      if (has(3)) score[12 + t] += openingChord;
     }
   }
   // Viterbi with a flat change cost: best[k] = score + max(best_prev[k], max_prev − margin).
-  const back: Int8Array[] = [];
-  let best = Float64Array.from(score[0]);
+  const back = new Int8Array(m * 24);
+  let best = Float64Array.from(score.subarray(0, 24));
+  let next = new Float64Array(24);
   best[home] += margin; // the section starts in its key unless the music says otherwise
   if (alsoHome !== home) best[alsoHome] += margin;
   for (let i = 1; i < m; i++) {
     let arg = 0;
     for (let k = 1; k < 24; k++) if (best[k] > best[arg]) arg = k;
-    const next = new Float64Array(24);
-    const from = new Int8Array(24);
+    const move = best[arg] - margin;
     for (let k = 0; k < 24; k++) {
       const stay = best[k];
-      const move = best[arg] - margin;
-      next[k] = score[i][k] + (stay >= move ? stay : move);
-      from[k] = stay >= move ? k : arg;
+      next[k] = score[i * 24 + k] + (stay >= move ? stay : move);
+      back[i * 24 + k] = stay >= move ? k : arg;
     }
-    back.push(from);
-    best = next;
+    [best, next] = [next, best];
   }
   let last = 0;
   for (let k = 1; k < 24; k++) if (best[k] > best[last]) last = k;
   const segPath = new Array<number>(m);
   segPath[m - 1] = last;
-  for (let i = m - 1; i > 0; i--) segPath[i - 1] = back[i - 1][segPath[i]];
+  for (let i = m - 1; i > 0; i--) segPath[i - 1] = back[i * 24 + segPath[i]];
   // A bar's key: the key of most of its beats (ties go to the downbeat's).
   const path = new Array<number>(n);
   for (let i = 0, s0 = 0; i < n; i++) {
