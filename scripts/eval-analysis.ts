@@ -9,6 +9,7 @@ import path from "node:path";
 import { analyzeScore } from "@/lib/analysis";
 import type { AnalyzedNote, PartAnalysis } from "@/lib/analysis/types";
 import { readScoreFile } from "@/lib/musicxml";
+import { printHarmony } from "./eval-harmony";
 
 interface NoteRef {
   measure: string;
@@ -204,6 +205,7 @@ function main(): void {
   const met = (Object.keys(GOALS) as Array<keyof typeof GOALS>).map((k) => `${k} ${fmt(total[k])} ${total[k] >= GOALS[k] ? "≥" : "<"} ${GOALS[k]}`);
   console.log(`\nGoals: ${met.join("; ")}`);
   if (verbose) for (const s of scores) for (const m of s.misses) console.log(`${s.name}: ${m}`);
+  printHarmony(path.resolve(process.cwd(), "tests/fixtures/harmony"), verbose);
 }
 
 main();

@@ -7,37 +7,25 @@ import type { AnalyzedNote, LocalKey, PartAnalysis, ScoreAnalysis, Suggestion } 
 import { degreeOf } from "./degree";
 import { type Key, keyFromSignature, majorOf, toKeyResult } from "./key";
 import { type KeySection, type LocalKeySpan, keySections, localKeysOf } from "./local-keys";
-import { Accompaniment, buildTimeline, extractMelody, frac, fracString, type MelodyNote } from "./melody";
+import { barEvidence, harmonyAt } from "./bar-evidence";
+import { Accompaniment, buildTimeline, extractMelody, fracString, type MelodyNote } from "./melody";
 import { findPhrases } from "./phrases";
-import { asciiName, mod } from "./spelling";
-import { phraseSuggestions, tensionSuggestions } from "./suggestions";
+import { asciiName } from "./spelling";
+import { phraseSuggestions, rankByPhrase, tensionSuggestions } from "./suggestions";
 import { findTensions } from "./tension";
 
 /** Bump whenever results change: stored analyses with another version are recomputed. */
-export const ANALYSIS_VERSION = 1;
+export const ANALYSIS_VERSION = 2;
 
 const ROLE_ORDER: Record<Suggestion["role"], number> = { "phrase-start": 0, peak: 1, tension: 2, resolution: 3 };
-
-/** Duration-weighted pitch classes (quarter notes) of the other parts, per measure. */
-function accompanimentHistograms(score: ScoreModel, part: PartModel): number[][] {
-  const out = part.measures.map(() => new Array<number>(12).fill(0));
-  for (const p of score.parts) {
-    if (p === part) continue;
-    for (const n of p.notes) {
-      if (n.isRest || n.isCue || n.isGrace || !n.pitch || !out[n.measureIndex]) continue;
-      out[n.measureIndex][mod(n.pitch.midi, 12)] += frac(n.duration) * 4;
-    }
-  }
-  return out;
-}
 
 export function analyzePart(score: ScoreModel, part: PartModel): PartAnalysis {
   const timeline = buildTimeline(score, part);
   const melody = extractMelody(part, timeline);
   const main = melody.filter((n) => !n.grace);
   const sections: KeySection[] = part.measures.length > 0 ? keySections(part.measures, melody) : [];
-  const acc = accompanimentHistograms(score, part);
-  const spans: LocalKeySpan[] = sections.flatMap((s) => localKeysOf(s, melody, acc));
+  const bars = barEvidence(score, part, timeline, melody);
+  const spans: LocalKeySpan[] = sections.flatMap((s) => localKeysOf(s, bars));
 
   const keyAtMeasure: Key[] = part.measures.map(() => majorOf(0));
   for (const s of sections) for (let i = s.fromIndex; i <= s.toIndex; i++) keyAtMeasure[i] = s.key;
@@ -54,7 +42,16 @@ export function analyzePart(score: ScoreModel, part: PartModel): PartAnalysis {
   const number = (i: number) => part.measures[i].number;
   const localKeys: LocalKey[] = [
     ...sections.slice(1).map((s) => ({ i: s.fromIndex, k: { tonic: asciiName(s.key.tonicLof), mode: s.key.mode, fromMeasure: number(s.fromIndex), toMeasure: number(s.toIndex) } })),
-    ...spans.map((s) => ({ i: s.fromIndex, k: { tonic: asciiName(s.key.tonicLof), mode: s.key.mode, fromMeasure: number(s.fromIndex), toMeasure: number(s.toIndex) } })),
+    ...spans.map((s) => ({
+      i: s.fromIndex,
+      k: {
+        tonic: asciiName(s.key.tonicLof),
+        mode: s.key.mode,
+        fromMeasure: number(s.fromIndex),
+        toMeasure: number(s.toIndex),
+        ...(s.pivotFrom !== null && s.pivotTo !== null ? { pivotFromMeasure: number(s.pivotFrom), pivotToMeasure: number(s.pivotTo) } : {}),
+      },
+    })),
   ]
     .sort((a, b) => a.i - b.i)
     .map((x) => x.k);
@@ -75,13 +72,20 @@ export function analyzePart(score: ScoreModel, part: PartModel): PartAnalysis {
     seq: main,
     keyAt,
     chordAt: (n) => (accompaniment.empty ? noChord : accompaniment.soundingAt(n.measureIndex, n.pos)),
+    // Figuration (one note at a time under the melody) shows its chord over the beat.
+    harmonyAt: (n) => {
+      const now = accompaniment.empty ? noChord : accompaniment.soundingAt(n.measureIndex, n.pos);
+      return now.size >= 2 ? now : harmonyAt(bars, n.measureIndex, n.onset);
+    },
     bar,
   });
   const keyStarts = new Set(sections.slice(1).map((s) => s.fromIndex));
   const phrases = findPhrases(main, part.measures, keyStarts);
   const ctx = { seq: main, keyAt, bar };
   // Suggestions in time order, then by role, sorted on one number each.
-  const suggestions = [...phraseSuggestions(phrases, ctx), ...tensionSuggestions(tensions, ctx)]
+  const placed = [...phraseSuggestions(phrases, ctx), ...tensionSuggestions(tensions, ctx)];
+  rankByPhrase(placed, phrases);
+  const suggestions = placed
     .map(([index, s]) => ({ s, rank: index * 4 + ROLE_ORDER[s.role] }))
     .sort((a, b) => a.rank - b.rank)
     .map((x) => x.s);

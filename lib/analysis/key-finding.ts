@@ -166,3 +166,32 @@ export function bestKeyMean(histogram: readonly number[], profiles: readonly Key
   }
   return { tonicPc: bestK % 12, mode: bestK < 12 ? "major" : "minor", r: bestDot / Math.sqrt(sxx) };
 }
+
+/** Mean correlation over the decision profiles for all 24 keys at once (index 0–11 major on that
+ * pitch class, 12–23 minor), written into `out`: one pass over the combined rotations. */
+const scratch = new Float64Array(12);
+
+export function keyScoresMean(histogram: ArrayLike<number>, out: Float64Array, profiles: readonly KeyProfile[] = DECISION_PROFILES): Float64Array {
+  let mx = 0;
+  for (let i = 0; i < 12; i++) mx += histogram[i];
+  mx /= 12;
+  const dx = scratch;
+  let sxx = 0;
+  for (let i = 0; i < 12; i++) {
+    dx[i] = histogram[i] - mx;
+    sxx += dx[i] * dx[i];
+  }
+  if (sxx === 0) {
+    out.fill(0);
+    return out;
+  }
+  const norm = Math.sqrt(sxx);
+  const table = combinedRotations(profiles);
+  for (let k = 0; k < 24; k++) {
+    const v = table[k];
+    let dot = 0;
+    for (let i = 0; i < 12; i++) dot += dx[i] * v[i];
+    out[k] = dot / norm;
+  }
+  return out;
+}

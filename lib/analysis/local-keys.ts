@@ -5,10 +5,12 @@
  */
 import type { Measure } from "@/lib/musicxml/model";
 import { inKey } from "./degree";
-import { type Key, fifthsOf, inferMode, keyFromSignature, sameKey } from "./key";
-import { bestKeyMean, meanCorrelation } from "./key-finding";
+import { type Key, fifthsOf, inferMode, keyFromSignature } from "./key";
+import { type BarEvidence, CADENCE_WEIGHT, type Segment } from "./bar-evidence";
+import { chordFit, nameChord } from "./chord-fit";
+import { keyScoresMean } from "./key-finding";
 import type { MelodyNote } from "./melody";
-import { mod, pcOfLof } from "./spelling";
+import { pcOfLof } from "./spelling";
 
 export interface KeySection {
   fromIndex: number;
@@ -22,18 +24,23 @@ export interface LocalKeySpan {
   fromIndex: number;
   toIndex: number;
   key: Key;
+  /** Bars (indices) before the new key's first foreign note whose notes fit both keys; null when none. */
+  pivotFrom: number | null;
+  pivotTo: number | null;
 }
 
 /**
- * Window and thresholds for local keys. A window of four bars (hop one bar) is long enough for a
- * cadence and short enough to catch a tonicization. A window votes for another key only when its
- * mean correlation beats the section key's by at least `margin` and reaches `minR`, and it holds a
- * note that is foreign to the section key but belongs to the new one (its leading tone, say) —
- * pitch content alone (a bar of G and D) is no modulation. A measure takes the key most of its
- * covering windows voted for; the span is then trimmed to the music (see below) and must last
- * `minMeasures`.
+ * Local keys as a path through the 24 keys, one key per bar, found by dynamic programming (Viterbi
+ * over bars): each bar scores each key by the mean K–S correlation of its pitch classes (every part;
+ * the bar weighted fully and its neighbours within the window less) plus any cadence on that key's
+ * tonic; changing key costs `margin`; the section's key gets `homeBonus` in every bar. Linear in the
+ * number of bars (24 keys × 2 per bar, the best predecessor found once per bar). A span in another
+ * key is kept only when it holds a note foreign to the section key that belongs to the new one
+ * (pitch content alone — a bar of G and D — is no modulation) and lasts `minMeasures`, or ends the
+ * section. Its pivot region is the run of bars just before the first such note whose notes fit
+ * both keys.
  */
-export const LOCAL_KEY = { windowMeasures: 4, margin: 0.15, minR: 0.7, minMeasures: 2, accompanimentWeight: 0.5 } as const;
+export const LOCAL_KEY = { windowMeasures: 4, margin: 0.15, homeBonus: 0.05, neighbourWeight: 0.35, minMeasures: 2, openingChord: 0.3, chordWeight: 0.6 } as const;
 
 export function keySections(measures: readonly Measure[], melody: readonly MelodyNote[]): KeySection[] {
   const sections: KeySection[] = [];
@@ -71,93 +78,146 @@ function spellTonic(pc: number, mode: Key["mode"], nearFifths: number): Key {
   return best as Key;
 }
 
+/** Key index 0–11 = major on that pitch class, 12–23 = minor. */
+const keyIndexOf = (k: Key) => (k.mode === "major" ? 0 : 12) + pcOfLof(k.tonicLof);
+
 /**
- * Local keys of one section. `accompaniment[measureIndex]` is the duration-weighted pitch-class
- * histogram of the other parts in that measure (empty arrays when there are none).
+ * Local keys of one section, from the bars' evidence (bar-evidence.ts). The section key is the
+ * home of the path: bars that fit it as well as another key stay in it.
  */
-export function localKeysOf(section: KeySection, melody: readonly MelodyNote[], accompaniment: readonly number[][]): LocalKeySpan[] {
-  const { windowMeasures, margin, minR, minMeasures, accompanimentWeight } = LOCAL_KEY;
+export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): LocalKeySpan[] {
+  const { windowMeasures, margin, homeBonus, neighbourWeight, minMeasures, openingChord, chordWeight } = LOCAL_KEY;
   const n = section.toIndex - section.fromIndex + 1;
-  if (n < windowMeasures + 1) return [];
-  const perMeasure: number[][] = [];
-  const notesIn: MelodyNote[][] = [];
-  for (let i = 0; i < n; i++) {
-    perMeasure.push(new Array<number>(12).fill(0));
-    notesIn.push([]);
-    const acc = accompaniment[section.fromIndex + i];
-    if (acc) for (let pc = 0; pc < 12; pc++) perMeasure[i][pc] += accompanimentWeight * (acc[pc] ?? 0);
+  if (n < 1) return [];
+  const home = keyIndexOf(section.key);
+  // A mode the file did not give is only a guess: the relative key shares the home bonus.
+  const alsoHome = section.source === "inferred" ? keyIndexOf(section.key.mode === "major" ? { tonicLof: section.key.tonicLof + 3, mode: "minor" } : { tonicLof: section.key.tonicLof - 3, mode: "major" }) : home;
+  const bar = (i: number) => bars[section.fromIndex + i];
+  // The section's beats in order, each remembering its bar.
+  const segs: Segment[] = [];
+  const barOfSeg: number[] = [];
+  for (let i = 0; i < n; i++) for (const sg of bar(i).segments) {
+    segs.push(sg);
+    barOfSeg.push(i);
   }
-  for (const m of melody) {
-    const i = m.measureIndex - section.fromIndex;
-    if (i < 0 || i >= n || m.grace) continue;
-    perMeasure[i][mod(m.midi, 12)] += m.dur * 4;
-    notesIn[i].push(m);
-  }
-  const votes: Array<Key | null> = [];
-  for (let s = 0; s + windowMeasures <= n; s++) {
-    const h = new Array<number>(12).fill(0);
-    for (let i = s; i < s + windowMeasures; i++) for (let pc = 0; pc < 12; pc++) h[pc] += perMeasure[i][pc];
-    const best = bestKeyMean(h);
-    const rSection = meanCorrelation(h, pcOfLof(section.key.tonicLof), section.key.mode);
-    const cand = spellTonic(best.tonicPc, best.mode, section.fifths);
-    let vote: Key | null = null;
-    if (!sameKey(cand, section.key) && best.r >= minR && best.r - rSection >= margin) {
-      const evidence = notesIn.slice(s, s + windowMeasures).some((ns) => ns.some((m) => !inKey(m.lof, section.key) && inKey(m.lof, cand)));
-      if (evidence) vote = cand;
+  const m = segs.length;
+  // Emission: correlation of the beat's pitch classes with its neighbours' (within half the
+  // window each side, weighted down geometrically per beat) mixed in, plus cadences.
+  const radius = Math.max(1, Math.round((windowMeasures / 2) * (m / n)));
+  const score = new Float64Array(m * 24);
+  const h = new Float64Array(12);
+  const row0 = new Float64Array(24);
+  const fit = new Float64Array(24);
+  for (let i = 0; i < m; i++) {
+    h.fill(0);
+    let any = false;
+    const perBar = bar(barOfSeg[i]).segments.length;
+    for (let j = Math.max(0, i - radius); j <= Math.min(m - 1, i + radius); j++) {
+      const w = neighbourWeight ** (Math.abs(j - i) / perBar);
+      const hj = segs[j].hist;
+      for (let pc = 0; pc < 12; pc++) h[pc] += w * hj[pc];
     }
-    votes.push(vote);
+    for (let pc = 0; pc < 12; pc++) if (h[pc] > 0) any = true;
+    const row = score.subarray(i * 24, i * 24 + 24);
+    if (any) keyScoresMean(h, row0);
+    // Scores are per bar, shared by its beats (cadences are events and count whole).
+    const named = nameChord(segs[i].hist);
+    if (named) chordFit(named, fit);
+    for (let k = 0; k < 24; k++) row[k] = ((any ? row0[k] : 0) + (named ? chordWeight * fit[k] : 0) + (k === home || k === alsoHome ? homeBonus : 0)) / perBar + (segs[i].cadence.get(k) ?? 0);
   }
-  // Each measure takes the key most windows covering it voted for …
-  const assigned: Array<Key | null> = [];
-  for (let i = 0; i < n; i++) {
-    const tally = new Map<string, { key: Key; count: number }>();
-    for (let s = Math.max(0, i - windowMeasures + 1); s <= Math.min(votes.length - 1, i); s++) {
-      const v = votes[s];
-      if (!v) continue;
-      const id = `${v.tonicLof}:${v.mode}`;
-      const t = tally.get(id) ?? { key: v, count: 0 };
-      t.count++;
-      tally.set(id, t);
+  // Common practice: music opens on its tonic chord. Where the file gives no mode, the first
+  // chord struck (its bass the root, its third major or minor) names the key the section opens in.
+  if (section.source === "inferred") {
+    const opening = segs.find((sg) => sg.firstBass >= 0);
+    if (opening) {
+      const t = opening.firstBass;
+      const has = (iv: number) => (opening.firstPcs & (1 << ((t + iv) % 12))) !== 0;
+      if (has(4)) score[t] += openingChord;
+      if (has(3)) score[12 + t] += openingChord;
     }
-    let pick: { key: Key; count: number } | null = null;
-    for (const t of tally.values()) if (!pick || t.count > pick.count) pick = t;
-    assigned.push(pick ? pick.key : null);
   }
-  // … but a bar holding a note of the section key that the local key lacks (a C♮ against D
-  // major) breaks the local key; a local key begins at its first bar with a foreign note (its
-  // evidence) and its closing bars are trimmed while they fit the section key as well or better.
-  const foreign = (i: number, k: Key) => notesIn[i].some((m) => !inKey(m.lof, k) && inKey(m.lof, section.key));
-  const evidence = (i: number, k: Key) => notesIn[i].some((m) => !inKey(m.lof, section.key) && inKey(m.lof, k));
-  const fitsSection = (i: number, k: Key) => {
-    const h = perMeasure[i];
-    if (h.every((v) => v === 0) || foreign(i, k)) return true;
-    return meanCorrelation(h, pcOfLof(section.key.tonicLof), section.key.mode) >= meanCorrelation(h, pcOfLof(k.tonicLof), k.mode);
+  // Viterbi with a flat change cost: best[k] = score + max(best_prev[k], max_prev − margin).
+  const back = new Int8Array(m * 24);
+  let best = Float64Array.from(score.subarray(0, 24));
+  let next = new Float64Array(24);
+  best[home] += margin; // the section starts in its key unless the music says otherwise
+  if (alsoHome !== home) best[alsoHome] += margin;
+  for (let i = 1; i < m; i++) {
+    let arg = 0;
+    for (let k = 1; k < 24; k++) if (best[k] > best[arg]) arg = k;
+    const move = best[arg] - margin;
+    for (let k = 0; k < 24; k++) {
+      const stay = best[k];
+      next[k] = score[i * 24 + k] + (stay >= move ? stay : move);
+      back[i * 24 + k] = stay >= move ? k : arg;
+    }
+    [best, next] = [next, best];
+  }
+  let last = 0;
+  for (let k = 1; k < 24; k++) if (best[k] > best[last]) last = k;
+  const segPath = new Array<number>(m);
+  segPath[m - 1] = last;
+  for (let i = m - 1; i > 0; i--) segPath[i - 1] = back[i * 24 + segPath[i]];
+  // A bar's key: the key of most of its beats (ties go to the downbeat's).
+  const path = new Array<number>(n);
+  for (let i = 0, s0 = 0; i < n; i++) {
+    const len = bar(i).segments.length;
+    const tally = new Map<number, number>();
+    for (let s = s0; s < s0 + len; s++) tally.set(segPath[s], (tally.get(segPath[s]) ?? 0) + 1);
+    let pick = segPath[s0];
+    for (const [k, c] of tally) if (c > (tally.get(pick) ?? 0)) pick = k;
+    path[i] = pick;
+    s0 += len;
+  }
+
+  // Spelling and evidence: the key spelled nearest the section's signature must have a note
+  // foreign to the section key in its span.
+  // The tonic spelled as the span's notes are (G♭ major, not F♯, when the notes are flats); on a
+  // tie, nearest the section's signature.
+  const spell = (k: number, from: number, to: number) => {
+    const mode = k < 12 ? "major" : "minor";
+    const near = spellTonic(k % 12, mode, section.fifths);
+    let pick = near;
+    let bestFit = -1;
+    for (const lof of [near.tonicLof, near.tonicLof - 12, near.tonicLof + 12]) {
+      const cand: Key = { tonicLof: lof, mode };
+      let fit = 0;
+      for (let b = from; b <= to; b++) for (const l of bar(b).lofs) if (inKey(l, cand)) fit++;
+      if (fit > bestFit) {
+        bestFit = fit;
+        pick = cand;
+      }
+    }
+    return pick;
   };
-  for (let i = 0; i < n; i++) if (assigned[i] && foreign(i, assigned[i] as Key)) assigned[i] = null;
-  for (let i = 0; i < n; ) {
-    const k = assigned[i];
-    if (!k) {
-      i++;
-      continue;
-    }
-    let j = i;
-    while (j + 1 < n && assigned[j + 1] && sameKey(assigned[j + 1] as Key, k)) j++;
-    let a = i;
-    let z = j;
-    while (a <= z && !evidence(a, k)) assigned[a++] = null;
-    while (z >= a && fitsSection(z, k)) assigned[z--] = null;
-    i = j + 1;
-  }
+  const evidence = (i: number, k: Key) => [...bar(i).lofs].some((l) => !inKey(l, section.key) && inKey(l, k));
   const spans: LocalKeySpan[] = [];
   for (let i = 0; i < n; ) {
-    const k = assigned[i];
-    if (!k) {
-      i++;
-      continue;
-    }
     let j = i;
-    while (j + 1 < n && assigned[j + 1] && sameKey(assigned[j + 1] as Key, k)) j++;
-    if (j - i + 1 >= minMeasures) spans.push({ fromIndex: section.fromIndex + i, toIndex: section.fromIndex + j, key: k });
+    while (j + 1 < n && path[j + 1] === path[i]) j++;
+    if (path[i] !== home || (alsoHome !== home && path[i] === alsoHome)) {
+      const key = spell(path[i], i, j);
+      let first = -1;
+      for (let b = i; b <= j && first < 0; b++) if (evidence(b, key)) first = b;
+      let cadence = false;
+      for (let b = i; b <= j; b++) if ((bar(b).cadence.get(path[i]) ?? 0) >= CADENCE_WEIGHT.bassCadence) cadence = true;
+      const closing = j === n - 1 && cadence;
+      const long = j - i + 1 >= minMeasures || closing;
+      // Where other parts give the harmony, chord fit and cadences already carry the evidence;
+      // a melody alone must show a foreign note and hold the key for a while.
+      let harmonic = false;
+      for (let b = i; b <= j; b++) if (!bar(b).melodyOnly) harmonic = true;
+      // A signature names the key the section starts in: a span from its first bar would only
+      // contradict it.
+      const againstSignature = i === 0 && section.source === "signature";
+      if ((harmonic || (first >= 0 && long)) && !againstSignature) {
+        // Pivot: bars before the first evidence whose notes fit both the old key and the new one.
+        const prevKey = spans.length > 0 && spans[spans.length - 1].toIndex === section.fromIndex + i - 1 ? spans[spans.length - 1].key : section.key;
+        let p = first;
+        while (p - 1 >= Math.max(0, i - windowMeasures) && [...bar(p - 1).lofs].every((l) => inKey(l, prevKey) && inKey(l, key))) p--;
+        spans.push({ fromIndex: section.fromIndex + i, toIndex: section.fromIndex + j, key, pivotFrom: p < first ? section.fromIndex + p : null, pivotTo: p < first ? section.fromIndex + first - 1 : null });
+      }
+    }
     i = j + 1;
   }
   return spans;

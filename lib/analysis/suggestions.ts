@@ -41,7 +41,30 @@ export interface SuggestionContext {
 }
 
 function make(n: MelodyNote, ctx: SuggestionContext, role: Suggestion["role"], confidence: number, resolvesTo: string | null, reason: string): Suggestion {
-  return { note: n.note.key, measure: ctx.bar(n), pitch: n.note.pitch?.name ?? "", role, confidence, resolvesTo, reason };
+  return { note: n.note.key, measure: ctx.bar(n), pitch: n.note.pitch?.name ?? "", role, confidence, resolvesTo, reason, strength: round(confidence * accentOf(n)), rank: 0 };
+}
+
+/** A note's weight in its bar: strong beat or a quarter note or longer 1, another beat 0.85, off the beat 0.7. */
+export function accentOf(n: MelodyNote): number {
+  if (n.metric >= 2 || n.dur >= 1 / 4 - 1e-9) return 1;
+  return n.metric === 1 ? 0.85 : 0.7;
+}
+
+/** Ranks suggestions inside each phrase by strength (1 = strongest; ties go to the earlier). */
+export function rankByPhrase(placed: ReadonlyArray<readonly [number, Suggestion]>, phrases: readonly Phrase[]): void {
+  const groups = new Map<number, Array<readonly [number, Suggestion]>>();
+  let p = 0;
+  const sorted = [...placed].sort((a, b) => a[0] - b[0]);
+  for (const item of sorted) {
+    while (p + 1 < phrases.length && item[0] > phrases[p].end) p++;
+    const list = groups.get(p) ?? [];
+    list.push(item);
+    groups.set(p, list);
+  }
+  for (const list of groups.values()) {
+    list.sort((a, b) => (b[1].strength ?? 0) - (a[1].strength ?? 0) || a[0] - b[0]);
+    list.forEach(([, s], i) => (s.rank = i + 1));
+  }
 }
 
 /** A suggestion with the position of its note in the melody, for ordering. */
@@ -77,7 +100,7 @@ export function tensionSuggestions(tensions: readonly TensionFinding[], ctx: Sug
   const resolutions = new Map<number, { t: TensionFinding; confidence: number }>();
   for (const t of tensions) {
     const n = ctx.seq[t.index];
-    out.push([t.index, make(n, ctx, "tension", round(t.confidence), t.resolvesTo === null ? null : ctx.seq[t.resolvesTo].note.key, t.reason)]);
+    out.push([t.index, { ...make(n, ctx, "tension", round(t.confidence), t.resolvesTo === null ? null : ctx.seq[t.resolvesTo].note.key, t.reason), kind: t.kind }]);
     if (t.resolvesTo !== null) {
       const prev = resolutions.get(t.resolvesTo);
       if (!prev || prev.confidence < t.confidence) resolutions.set(t.resolvesTo, { t, confidence: t.confidence });

@@ -9,14 +9,9 @@ import type { Key } from "./key";
 import type { MelodyNote } from "./melody";
 import { displayName, mod } from "./spelling";
 
-export type TensionKind =
-  | "leading-tone"
-  | "fourth-to-third"
-  | "lowered-sixth"
-  | "fourth-to-minor-third"
-  | "raised"
-  | "lowered"
-  | "appoggiatura";
+import type { TensionKind } from "./types";
+
+export type { TensionKind };
 
 export interface TensionFinding {
   index: number;
@@ -53,6 +48,11 @@ export const TENSION_CONFIDENCE = {
   insideChord: -0.2,
   /** Smaller nudge for rule-based tensions: a leading tone inside a dominant chord is still one. */
   ruleOutsideChord: 0.05,
+  /** A leading tone over the other parts' dominant (or leading-tone chord) of its target … */
+  dominantSupport: 0.05,
+  /** … or over a chord that is none (the target itself or its sixth sounds, or neither the
+   * dominant's root nor its fifth nor its seventh): then a passing chromatic note at most. */
+  noDominantSupport: 0.4,
 } as const;
 
 /** How far ahead (whole notes) and how many ornamental notes a resolution may wait. */
@@ -63,7 +63,33 @@ export interface TensionContext {
   keyAt: (n: MelodyNote) => Key;
   /** Pitch classes the other parts sound at a note's onset (empty set when none). */
   chordAt: (n: MelodyNote) => Set<number>;
+  /** The harmony under a note for judging a leading tone: what sounds at its onset, or over its
+   * beat when only one other note sounds (figuration). Defaults to `chordAt`. */
+  harmonyAt?: (n: MelodyNote) => Set<number>;
   bar: (n: MelodyNote) => string;
+}
+
+export type Support = "dominant" | "leading-tone chord" | "against" | "unknown";
+
+/**
+ * Whether the other parts sound a chord that makes a note the leading tone of `targetPc`: V(7) of
+ * the target (root t+7, with its fifth t+2, seventh t+5 or ninth t+8) or vii°(7) (third t+2 and
+ * fifth t+5, seventh t+8) — and nothing else (one passing note allowed among four pitch classes or
+ * more): the target itself, its third or sixth against the note make it a passing note over
+ * another chord. Unknown with fewer than two notes.
+ * Source: Open Music Theory v1, "Applied chords"; Hutchinson, "Secondary dominant chords".
+ */
+export function dominantSupport(chord: ReadonlySet<number>, targetPc: number): Support {
+  if (chord.size < 2) return "unknown";
+  const has = (iv: number) => chord.has(mod(targetPc + iv, 12));
+  if (has(0)) return "against";
+  // In a fuller sonority (four pitch classes or more) one other note may be passing.
+  let foreign = 0;
+  for (const pc of chord) if (![7, 11, 2, 5, 8].includes(mod(pc - targetPc, 12))) foreign++;
+  if (foreign > (chord.size >= 4 ? 1 : 0)) return "against";
+  if (has(7)) return "dominant";
+  if (has(2) && has(5)) return "leading-tone chord";
+  return "against";
 }
 
 const clamp = (v: number) => Math.max(0.05, Math.min(0.98, Math.round(v * 100) / 100));
@@ -96,6 +122,7 @@ function motion(from: MelodyNote, to: MelodyNote | undefined): string {
 
 export function findTensions(ctx: TensionContext): TensionFinding[] {
   const { seq, keyAt, chordAt, bar } = ctx;
+  const harmonyOf = ctx.harmonyAt ?? chordAt;
   const C = TENSION_CONFIDENCE;
   const out: TensionFinding[] = [];
   for (let i = 0; i < seq.length; i++) {
@@ -124,7 +151,11 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
       const tonic = displayName(key.tonicLof);
       if (res) {
         const how = res.direct ? "it rises a half step to" : "after a short ornament it rises a half step to";
-        push("leading-tone", res.direct ? C.leadingToneResolved : C.leadingToneOrnamented, res.index, `${name} is ${what} of ${kname}; ${how} ${step(seq[res.index])}.`);
+        const support = dominantSupport(harmonyOf(n), mod(n.midi + 1, 12));
+        const base = res.direct ? C.leadingToneResolved : C.leadingToneOrnamented;
+        if (support === "unknown") push("leading-tone", base, res.index, `${name} is ${what} of ${kname}; ${how} ${step(seq[res.index])}.`);
+        else if (support === "against") push("leading-tone", C.noDominantSupport, res.index, `${name} in bar ${bar(n)} is ${what} of ${kname}, but the harmony under it is no dominant of ${tonic}: a passing note more than a leading tone; ${how} ${step(seq[res.index])}.`);
+        else push("leading-tone", base + C.dominantSupport, res.index, `${name} leads to ${tonic} under the ${support} of ${kname} (bar ${bar(n)}, ${kname}): ${what.replace(/,$/, "")}; ${how} ${step(seq[res.index])}.`);
       } else {
         const passingDown = next && next.midi - n.midi < 0 && next.midi - n.midi >= -2 && prev && prev.midi - n.midi > 0 && prev.midi - n.midi <= 2;
         push(
@@ -164,7 +195,11 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
       // A chromatically raised note leads up a half step (a secondary leading tone).
       const target = n.lof - 5;
       if (next && next.midi === n.midi + 1 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9) {
-        push("raised", C.raisedResolved, i + 1, `${name} is ${what} in ${kname}, a leading tone to ${displayName(target)}; it rises a half step to ${step(next)}.`);
+        const t = displayName(target);
+        const support = dominantSupport(harmonyOf(n), mod(n.midi + 1, 12));
+        if (support === "unknown") push("raised", C.raisedResolved, i + 1, `${name} is ${what} in ${kname}, a leading tone to ${t}; it rises a half step to ${step(next)}.`);
+        else if (support === "against") push("raised", C.noDominantSupport, i + 1, `${name} in bar ${bar(n)} is ${what} in ${kname}, but the harmony under it is no dominant of ${t}: a chromatic passing note more than a leading tone to ${t}; it rises a half step to ${step(next)}.`);
+        else push("raised", C.raisedResolved + C.dominantSupport, i + 1, `${name} leads to ${t} under the ${support} of ${t} (bar ${bar(n)}, ${kname}): ${what}, a leading tone to ${t}; it rises a half step to ${step(next)}.`);
       } else {
         push("raised", C.raisedLeft, null, `${name} in bar ${bar(n)} is ${what} in ${kname}, but ${motion(n, next)} instead of rising to ${displayName(target)}.`);
       }

@@ -4,6 +4,14 @@
  */
 export type Role = "phrase-start" | "peak" | "tension" | "resolution";
 export type Mode = "major" | "minor";
+export type TensionKind =
+  | "leading-tone"
+  | "fourth-to-third"
+  | "lowered-sixth"
+  | "fourth-to-minor-third"
+  | "raised"
+  | "lowered"
+  | "appoggiatura";
 
 export interface KeyResult {
   tonic: string; // spelled with # and b: "F#", "Bb"
@@ -17,6 +25,10 @@ export interface LocalKey {
   mode: Mode;
   fromMeasure: string; // MusicXML measure number
   toMeasure: string;
+  /** Where a modulation found inside a key section has a pivot: the bars just before the new
+   * key's first foreign note whose notes belong to both keys. Absent when there is none. */
+  pivotFromMeasure?: string;
+  pivotToMeasure?: string;
 }
 
 export interface AnalyzedNote {
@@ -43,6 +55,19 @@ export interface Suggestion {
   confidence: number;
   resolvesTo: string | null;
   reason: string;
+  /**
+   * How strongly to mark it, 0–1: the confidence weighted by the note's weight in the bar (1 on a
+   * strong beat or for a quarter note or longer, 0.85 on another beat, 0.7 off the beat), so a
+   * sure leading tone on a downbeat outranks a sure one in passing. Always set by this version;
+   * optional only for results stored by older ones.
+   */
+  strength?: number;
+  /** 1 = the strongest suggestion of its phrase, 2 the next… (ties: earlier first). The list
+   * itself stays in time order. Always set by this version. */
+  rank?: number;
+  /** For a tension tone, which rule found it: "leading-tone" (of the local key), "raised" (a
+   * chromatic note leading up, e.g. the leading tone of an applied dominant), "fourth-to-third"… */
+  kind?: TensionKind;
 }
 
 export interface PartAnalysis {
