@@ -410,6 +410,9 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
           <Link href={`/parts/${partId}/practice`} className="flex h-11 items-center rounded px-2.5 text-sm font-medium text-ink underline-offset-4 hover:bg-paper-deep hover:underline">
             Practise
           </Link>
+          <Link href={`/parts/${partId}/stand`} className="flex h-11 items-center rounded px-2.5 text-sm font-medium text-ink underline-offset-4 hover:bg-paper-deep hover:underline">
+            Stand view
+          </Link>
           <ExportMenu partId={partId} />
         </div>
       </div>

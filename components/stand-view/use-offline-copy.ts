@@ -1,0 +1,65 @@
+"use client";
+
+import { useEffect, useState } from "react";
+import { WORKER_SCOPE, WORKER_URL, filesToKeep } from "@/lib/stand-view/offline";
+
+export type OfflineState = "saving" | "saved" | "offline" | "unsupported" | "failed";
+
+/** Sends a message to the worker and waits for its answer (Serwist answers CACHE_URLS on the port). */
+function ask(worker: ServiceWorker, message: unknown): Promise<void> {
+  return new Promise((resolve, reject) => {
+    const channel = new MessageChannel();
+    const timer = setTimeout(() => reject(new Error("The offline copy took too long.")), 20_000);
+    channel.port1.onmessage = () => {
+      clearTimeout(timer);
+      resolve();
+    };
+    worker.postMessage(message, [channel.port2]);
+  });
+}
+
+/**
+ * Once the part is drawn (every script, style and font it needs has loaded), registers the
+ * stand view's service worker and hands it this page and those files to keep, so the view opens
+ * again without a network. Offline, it only says so.
+ */
+export function useOfflineCopy(ready: boolean): OfflineState {
+  const [state, setState] = useState<OfflineState>("saving");
+  useEffect(() => {
+    const update = () => {
+      if (!navigator.onLine) setState("offline");
+    };
+    update();
+    window.addEventListener("offline", update);
+    return () => window.removeEventListener("offline", update);
+  }, []);
+
+  useEffect(() => {
+    if (!ready || !navigator.onLine) return;
+    if (!("serviceWorker" in navigator) || !window.isSecureContext) {
+      setState("unsupported");
+      return;
+    }
+    let live = true;
+    (async () => {
+      try {
+        await navigator.serviceWorker.register(WORKER_URL, { scope: WORKER_SCOPE, type: "module" });
+        const registration = await navigator.serviceWorker.ready;
+        const worker = registration.active;
+        if (!worker) throw new Error("The service worker is not active.");
+        const files = filesToKeep(
+          performance.getEntriesByType("resource").map((e) => e.name),
+          location.origin,
+        );
+        await ask(worker, { type: "CACHE_URLS", payload: { urlsToCache: [location.origin + location.pathname, ...files] } });
+        if (live) setState(navigator.onLine ? "saved" : "offline");
+      } catch {
+        if (live) setState(navigator.onLine ? "failed" : "offline");
+      }
+    })();
+    return () => {
+      live = false;
+    };
+  }, [ready]);
+  return state;
+}
