@@ -25,6 +25,7 @@ import { useHistoryStep } from "./api/undo-redo";
 import { AuditionControl } from "./audition-control";
 import { ConflictPrompt } from "./conflict-prompt";
 import { ExportMenu } from "./export-menu";
+import { WorkspaceHint } from "./workspace-hint";
 import { EditorStoreProvider, useEditorActions, useEditorStore, useEditorStoreApi, type Conflict } from "./editor-store";
 import { Legend } from "./legend";
 import { MarkingOverlay } from "./marking-overlay";
@@ -342,6 +343,9 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
         onDismiss={dismiss}
         onEdit={acceptAndEdit}
         onShow={show}
+        status={analysis.data ? "ready" : analysis.isError ? "error" : "loading"}
+        errorMessage={analysis.error?.message}
+        onRetry={() => void analysis.refetch()}
       />
     ) : (
       <MarkingPanel
@@ -438,6 +442,8 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
           <Legend />
         </div>
       ) : null}
+
+      <WorkspaceHint showHint={canEdit && xml.data !== undefined && Object.keys(markings).length === 0} />
 
       <div className="relative flex min-h-0 flex-1">
         <div ref={scrollerRef} className="min-w-0 flex-1 overflow-auto" data-testid="score-scroller">
