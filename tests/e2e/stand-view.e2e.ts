@@ -132,10 +132,19 @@ for (const size of [
 
     it("opens again with the network cut, from the kept copy, and says as of when", async () => {
       await context.setOffline(true);
+      const problems: string[] = [];
+      page.on("console", (m) => m.type() === "error" && problems.push(`console: ${m.text()}`));
+      page.on("requestfailed", (r) => problems.push(`failed: ${r.url()} ${r.failure()?.errorText}`));
       try {
         const response = await page.reload();
         expect(response?.fromServiceWorker()).toBe(true);
-        await page.locator('[data-testid="stand-view"][data-offline-copy="offline"]').waitFor({ timeout: 30_000 });
+        await page
+          .locator('[data-testid="stand-view"][data-offline-copy="offline"]')
+          .waitFor({ timeout: 30_000 })
+          .catch(async (e) => {
+            await page.screenshot({ path: screenshotPath(`stand-view-${size.name}-offline-failed`) });
+            throw new Error(`${e}\n${problems.join("\n")}\n${await page.getByTestId("stand-view").evaluate((el) => el.outerHTML.slice(0, 300)).catch(() => "no stand view")}`);
+          });
         await page.locator('[data-testid="stand-view"][data-pages]:not([data-pages="0"])').waitFor({ timeout: 30_000 });
         await expect(page.getByText(/Offline · as of/).first().isVisible()).resolves.toBe(true);
         expect((await shownPage(page)).glyphs).toBeGreaterThan(0);
