@@ -3,6 +3,8 @@
 import { useEffect, useState } from "react";
 import { WORKER_SCOPE, WORKER_URL, filesToKeep } from "@/lib/stand-view/offline";
 
+const PROBE_TIMEOUT_MS = 4000;
+
 export type OfflineState = "saving" | "saved" | "offline" | "unsupported" | "failed";
 
 /** Sends a message to the worker and waits for its answer (Serwist answers CACHE_URLS on the port). */
@@ -25,17 +27,36 @@ function ask(worker: ServiceWorker, message: unknown): Promise<void> {
  */
 export function useOfflineCopy(ready: boolean): OfflineState {
   const [state, setState] = useState<OfflineState>("saving");
+  // Whether the server answers: `navigator.onLine` says only that some network is there (and a
+  // kept copy can open on a network that does not reach us). Any answer, even 401, will do.
+  const [reachable, setReachable] = useState<boolean | null>(null);
   useEffect(() => {
-    const update = () => {
-      if (!navigator.onLine) setState("offline");
+    let live = true;
+    const probe = async () => {
+      const ok = navigator.onLine
+        ? await fetch("/api/me", { cache: "no-store", signal: AbortSignal.timeout(PROBE_TIMEOUT_MS) }).then(
+            () => true,
+            () => false,
+          )
+        : false;
+      if (!live) return;
+      setReachable(ok);
+      if (!ok) setState("offline");
     };
-    update();
-    window.addEventListener("offline", update);
-    return () => window.removeEventListener("offline", update);
+    void probe();
+    const lost = () => {
+      setReachable(false);
+      setState("offline");
+    };
+    window.addEventListener("offline", lost);
+    return () => {
+      live = false;
+      window.removeEventListener("offline", lost);
+    };
   }, []);
 
   useEffect(() => {
-    if (!ready || !navigator.onLine) return;
+    if (!ready || !reachable) return;
     if (!("serviceWorker" in navigator) || !window.isSecureContext) {
       setState("unsupported");
       return;
@@ -52,14 +73,14 @@ export function useOfflineCopy(ready: boolean): OfflineState {
           location.origin,
         );
         await ask(worker, { type: "CACHE_URLS", payload: { urlsToCache: [location.origin + location.pathname, ...files] } });
-        if (live) setState(navigator.onLine ? "saved" : "offline");
+        if (live) setState("saved");
       } catch {
-        if (live) setState(navigator.onLine ? "failed" : "offline");
+        if (live) setState("failed");
       }
     })();
     return () => {
       live = false;
     };
-  }, [ready]);
+  }, [ready, reachable]);
   return state;
 }
