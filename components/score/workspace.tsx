@@ -304,7 +304,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
     const what = m
       ? m.depthCents === 0
         ? "marked no vibrato"
-        : `marked ${formatNumber(m.depthCents, 1)} cents, ${formatNumber(m.speedHz, 2)} Hz${m.role ? `, ${ROLE_INFO[m.role].label}` : ""}`
+        : `marked ${formatNumber(m.depthCents, 1)}¢, ${formatNumber(m.speedHz, 2)} Hz${m.role ? `, ${ROLE_INFO[m.role].label}` : ""}`
       : "not marked";
     return `${labelOf(selection.focus)}, ${what}.${keys.length > 1 ? ` ${keys.length} notes selected.` : ""}`;
   }, [selection.focus, markings, labelOf, keys.length]);

@@ -66,7 +66,13 @@ describe("a new player's first visit, from sign-up to the stand", () => {
 
     await page.getByRole("link", { name: "Stand view" }).click();
     await page.waitForURL((url) => url.pathname === `/parts/${partId}/stand`);
-    await page.locator('[data-testid="stand-view"][data-offline-copy="saved"]').waitFor({ timeout: 60_000 });
+    await page
+      .locator('[data-testid="stand-view"][data-offline-copy="saved"]')
+      .waitFor({ timeout: 60_000 })
+      .catch(async (e) => {
+        await page.screenshot({ path: screenshotPath("first-visit-4-stand-failed") });
+        throw new Error(`${e}\n${await page.getByTestId("stand-view").evaluate((el) => el.outerHTML.slice(0, 400))}`);
+      });
     expect(await page.locator(`[data-testid="stand-view-page"]:not([hidden]) [data-glyph="wave"][data-note-key="${key}"]`).count()).toBe(1);
     await page.screenshot({ path: screenshotPath("first-visit-4-stand") });
 
