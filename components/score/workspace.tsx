@@ -1,5 +1,6 @@
 "use client";
 
+import { WorkingTempo } from "./working-tempo";
 import Link from "next/link";
 import { useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent } from "react";
 import type { Role } from "@/lib/analysis/types";
@@ -369,10 +370,14 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
       <div className="no-print flex flex-wrap items-center gap-x-4 gap-y-1 border-b border-rule px-gutter py-2">
         <div className="w-full min-w-0 lg:w-auto lg:flex-1">
           <h1 className="truncate text-xl font-semibold leading-tight">{part.data?.title ?? "…"}</h1>
-          <p className="truncate text-sm text-graphite">
-            {[part.data?.composer, part.data?.keyLabel, tempo ? `♩ = ${formatNumber(tempo, 1)}` : null, part.data ? `${part.data.measureCount} bars` : null]
-              .filter(Boolean)
-              .join(" · ")}
+          <p className="text-sm text-graphite">
+            {[part.data?.composer, part.data?.keyLabel, part.data ? `${part.data.measureCount} bars` : null].filter(Boolean).join(" · ")}
+            {part.data ? (
+              <>
+                {" · "}
+                <WorkingTempo partId={partId} tempo={tempo} writtenTempo={part.data.writtenTempo} canEdit={canEdit} />
+              </>
+            ) : null}
           </p>
         </div>
         <SaveIndicator state={saveState} error={saveError} />

@@ -1,3 +1,4 @@
+import { workingTempoOf } from "@/lib/parts/working-tempo";
 import "server-only";
 import { analyzeScore, ANALYSIS_VERSION } from "@/lib/analysis";
 import type { PartAnalysis, ScoreAnalysis } from "@/lib/analysis/types";
@@ -129,7 +130,10 @@ export function partDto(access: PartAccess) {
     title: p.title,
     composer: p.composer,
     keyLabel: p.keyLabel,
-    tempo: p.tempo,
+    /** The working tempo: the player's, else the part's own; null when neither exists (then asked for). */
+    tempo: workingTempoOf(p),
+    writtenTempo: p.tempo,
+    workingTempo: p.workingTempo,
     chosenPartId: p.chosenPartId,
     parts: p.partList,
     measureCount: p.measureCount,

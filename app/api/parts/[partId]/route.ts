@@ -23,6 +23,7 @@ export const PATCH = handle(async (request, { params }) => {
   const changes: Parameters<typeof updatePartById>[0]["changes"] = {};
   if (body.title !== undefined) changes.title = body.title;
   if (body.composer !== undefined) changes.composer = body.composer;
+  if (body.workingTempo !== undefined) changes.workingTempo = body.workingTempo;
   if (body.chosenPart !== undefined && body.chosenPart !== access.part.chosenPartId) {
     if (!access.part.partList.some((p) => p.id === body.chosenPart)) {
       throw new AppError("bad_request:chosen_part", `This score has no part "${body.chosenPart}". Choose one of: ${access.part.partList.map((p) => p.id).join(", ")}.`, { field: "chosenPart" });

@@ -1,3 +1,5 @@
+import { workingTempoOf } from "@/lib/parts/working-tempo";
+import { WorkingTempo } from "@/components/score/working-tempo";
 import type { Metadata } from "next";
 import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query";
 import { noteLabel } from "@/lib/markings/note-labels";
@@ -16,7 +18,7 @@ import { PracticeRoom, type PracticeNote } from "@/components/practice/practice-
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Practise" };
 
-/** A part without a tempo marking is practised at a moderate ♩ = 72 (common practice for slow work). */
+/** Until the player answers the question for a part without a tempo: a moderate ♩ = 72 (common practice for slow work). */
 const ASSUMED_TEMPO = 72;
 
 export default async function PracticePage({ params, searchParams }: { params: Promise<{ partId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
@@ -24,6 +26,7 @@ export default async function PracticePage({ params, searchParams }: { params: P
   const { note } = await searchParams;
   const { user, access } = await loadPartForPage({ partId, action: "practice:view", path: `/parts/${partId}/practice` });
   const { part } = access;
+  const tempo = workingTempoOf(part);
   const [analysis, markings, log, takes, assignments] = await Promise.all([
     chosenPartAnalysis(part),
     listMarkingsByPartId({ partId }),
@@ -52,7 +55,12 @@ export default async function PracticePage({ params, searchParams }: { params: P
 
   return (
     <HydrationBoundary state={dehydrate(queryClient)}>
-      <PracticeRoom partId={partId} title={part.title} tempo={part.tempo ?? ASSUMED_TEMPO} tempoAssumed={!part.tempo} notes={notes} canWrite={canWrite} initialNoteKey={initialNoteKey} serverToday={utcIsoDate(new Date())} />
+      {tempo === null && user.id === part.ownerId ? (
+        <div className="mx-auto max-w-5xl px-gutter pt-4 text-sm">
+          <WorkingTempo partId={partId} tempo={null} writtenTempo={null} canEdit />
+        </div>
+      ) : null}
+      <PracticeRoom partId={partId} title={part.title} tempo={tempo ?? ASSUMED_TEMPO} tempoAssumed={tempo === null} notes={notes} canWrite={canWrite} initialNoteKey={initialNoteKey} serverToday={utcIsoDate(new Date())} />
     </HydrationBoundary>
   );
 }

@@ -1,3 +1,4 @@
+import { workingTempoOf } from "@/lib/parts/working-tempo";
 import type { Metadata } from "next";
 import { toState } from "@/lib/markings/changes";
 import { resolutionsOf } from "@/lib/markings/durations";
@@ -49,7 +50,7 @@ export default async function StandCopyPage({
         title: part.title,
         composer: part.composer,
         keyLabel: part.keyLabel,
-        tempo: part.tempo,
+        tempo: workingTempoOf(part),
         playerName: owner?.name ?? "",
         xml: selectPartsXml(part.musicxml, [part.chosenPartId]),
         markings,

@@ -1,3 +1,4 @@
+import { workingTempoOf } from "@/lib/parts/working-tempo";
 import type { Metadata, Viewport } from "next";
 import { resolutionsOf } from "@/lib/markings/durations";
 import { selectPartsXml } from "@/lib/musicxml";
@@ -31,7 +32,7 @@ export default async function StandViewPage({ params }: { params: Promise<{ part
         partId,
         title: part.title,
         composer: part.composer,
-        tempo: part.tempo,
+        tempo: workingTempoOf(part),
         xml: selectPartsXml(part.musicxml, [part.chosenPartId]),
         markings,
         notes: analysis.notes.map(({ key, duration }) => ({ key, duration })),

@@ -1,3 +1,4 @@
+import { workingTempoOf } from "@/lib/parts/working-tempo";
 import { z } from "zod";
 import { handle, parseParams, parseQuery } from "@/lib/http/handler";
 import { requireUser } from "@/lib/auth/session";
@@ -40,7 +41,7 @@ export const GET = handle(async (request, { params }) => {
   const { score } = readScoreFile(new TextEncoder().encode(part.musicxml), "stored.musicxml", readLimits());
   const chosen = score.parts.find((p) => p.id === part.chosenPartId);
   if (!chosen) throw new AppError("not_found:part", "The chosen part is missing from the score. Choose the part again.");
-  const bytes = renderMidi(chosen, markings);
+  const bytes = renderMidi(chosen, markings, { workingTempo: workingTempoOf(part) });
   return new Response(new Uint8Array(bytes), {
     headers: {
       "content-type": "audio/midi",
