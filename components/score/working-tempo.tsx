@@ -12,13 +12,25 @@ import { partKeys } from "./api/keys";
  * written tempo. When the part gives none, it asks once; the owner can change it any time.
  * Practice, playback, MIDI and pulses per beat all follow it.
  */
-export function WorkingTempo({ partId, tempo, writtenTempo, canEdit }: { partId: string; tempo: number | null; writtenTempo: number | null; canEdit: boolean }) {
+export function WorkingTempo({
+  partId,
+  tempo,
+  writtenTempo,
+  canEdit,
+  onSaved,
+}: {
+  partId: string;
+  tempo: number | null;
+  writtenTempo: number | null;
+  canEdit: boolean;
+  /** After a change is stored (a server-rendered page refreshes itself). */
+  onSaved?: () => void;
+}) {
   const [editing, setEditing] = useState(false);
   const [value, setValue] = useState(tempo ? String(tempo) : "");
   const [error, setError] = useState<string | null>(null);
   const [saving, setSaving] = useState(false);
   const queryClient = useQueryClient();
-  const router = useRouter();
   const id = useId();
 
   const save = async (next: number | null) => {
@@ -27,7 +39,7 @@ export function WorkingTempo({ partId, tempo, writtenTempo, canEdit }: { partId:
     try {
       await fetchJson(`/api/parts/${partId}`, { method: "PATCH", headers: { "content-type": "application/json" }, body: JSON.stringify({ workingTempo: next }) });
       await queryClient.invalidateQueries({ queryKey: partKeys.detail(partId), exact: true });
-      router.refresh();
+      onSaved?.();
       setEditing(false);
     } catch (e) {
       setError(e instanceof Error ? e.message : String(e));
@@ -87,4 +99,10 @@ export function WorkingTempo({ partId, tempo, writtenTempo, canEdit }: { partId:
       ) : null}
     </form>
   );
+}
+
+/** The practice page's question for a part without a tempo; the page is drawn again once answered. */
+export function PracticeTempoPrompt({ partId }: { partId: string }) {
+  const router = useRouter();
+  return <WorkingTempo partId={partId} tempo={null} writtenTempo={null} canEdit onSaved={() => router.refresh()} />;
 }

@@ -1,5 +1,5 @@
 import { workingTempoOf } from "@/lib/parts/working-tempo";
-import { WorkingTempo } from "@/components/score/working-tempo";
+import { PracticeTempoPrompt } from "@/components/score/working-tempo";
 import type { Metadata } from "next";
 import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query";
 import { noteLabel } from "@/lib/markings/note-labels";
@@ -57,7 +57,7 @@ export default async function PracticePage({ params, searchParams }: { params: P
     <HydrationBoundary state={dehydrate(queryClient)}>
       {tempo === null && user.id === part.ownerId ? (
         <div className="mx-auto max-w-5xl px-gutter pt-4 text-sm">
-          <WorkingTempo partId={partId} tempo={null} writtenTempo={null} canEdit />
+          <PracticeTempoPrompt partId={partId} />
         </div>
       ) : null}
       <PracticeRoom partId={partId} title={part.title} tempo={tempo ?? ASSUMED_TEMPO} tempoAssumed={tempo === null} notes={notes} canWrite={canWrite} initialNoteKey={initialNoteKey} serverToday={utcIsoDate(new Date())} />
