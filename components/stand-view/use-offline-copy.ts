@@ -20,6 +20,19 @@ function ask(worker: ServiceWorker, message: unknown): Promise<void> {
   });
 }
 
+/** The registration's worker once it is active (installing and activating take a moment the first time). */
+function activeWorker(registration: ServiceWorkerRegistration): Promise<ServiceWorker> {
+  if (registration.active) return Promise.resolve(registration.active);
+  const pending = registration.installing ?? registration.waiting;
+  if (!pending) return Promise.reject(new Error("The service worker did not install."));
+  return new Promise((resolve, reject) => {
+    pending.addEventListener("statechange", () => {
+      if (pending.state === "activated") resolve(pending);
+      else if (pending.state === "redundant") reject(new Error("The service worker did not install."));
+    });
+  });
+}
+
 /**
  * Once the part is drawn (every script, style and font it needs has loaded), registers the
  * stand view's service worker and hands it this page and those files to keep, so the view opens
@@ -64,10 +77,10 @@ export function useOfflineCopy(ready: boolean): OfflineState {
     let live = true;
     (async () => {
       try {
-        await navigator.serviceWorker.register(WORKER_URL, { scope: WORKER_SCOPE, type: "module" });
-        const registration = await navigator.serviceWorker.ready;
-        const worker = registration.active;
-        if (!worker) throw new Error("The service worker is not active.");
+        const registration = await navigator.serviceWorker.register(WORKER_URL, { scope: WORKER_SCOPE, type: "module" });
+        // Not `navigator.serviceWorker.ready`: it waits for a worker of the scope the document was
+        // opened in, and a page reached by a client-side link may have been opened outside /parts/.
+        const worker = await activeWorker(registration);
         const files = filesToKeep(
           performance.getEntriesByType("resource").map((e) => e.name),
           location.origin,
