@@ -1,8 +1,11 @@
 import type { Metadata, Viewport } from "next";
 import "./globals.css";
 import { sans, serif } from "./fonts";
+import { SignOutButton } from "@/components/auth/sign-out-button";
 import { SiteHeader } from "@/components/ui/site-header";
 import { Providers } from "@/components/providers";
+import { getCurrentUser } from "@/server/auth/session";
+import { resendVerificationAction } from "./(auth)/actions";
 
 export const metadata: Metadata = {
   title: { default: "Ondula", template: "%s · Ondula" },
@@ -18,12 +21,14 @@ export const metadata: Metadata = {
 /** The paper ground (tailwind.config.ts `paper`) tints the browser's bar and the home-screen splash. */
 export const viewport: Viewport = { themeColor: "#FBF8F1" };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // The header must never take a page down: without the database it shows the signed-out links.
+  const user = await getCurrentUser().catch(() => null);
   return (
     <html lang="en" className={`${sans.variable} ${serif.variable}`}>
       <body className="min-h-screen bg-paper text-ink antialiased">
         <Providers>
-          <SiteHeader />
+          <SiteHeader user={user} signOutButton={<SignOutButton />} resendVerificationAction={resendVerificationAction} />
           <main id="main">{children}</main>
         </Providers>
       </body>

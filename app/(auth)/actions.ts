@@ -4,12 +4,12 @@ import { after } from "next/server";
 import { z } from "zod";
 import {
   requestPasswordReset, resetPassword, sendVerification, signUp, verifyEmail,
-} from "@/lib/accounts/registration";
+} from "@/server/accounts/registration";
 import { newPasswordSchema } from "@/lib/auth/password-rules";
-import { admitSignInLinkRequest, sendSignInLink, SIGN_IN_LINK_SENT } from "@/lib/auth/sign-in-link";
-import { startSession } from "@/lib/auth/start-session";
+import { admitSignInLinkRequest, sendSignInLink, SIGN_IN_LINK_SENT } from "@/server/auth/sign-in-link";
+import { startSession } from "@/server/auth/start-session";
 import { AppError } from "@/lib/errors";
-import { defineAction } from "@/lib/http/action";
+import { defineAction } from "@/server/http/action";
 import { clientAddress } from "@/lib/http/client-address";
 import { safeCallbackPath } from "@/lib/http/safe-redirect";
 

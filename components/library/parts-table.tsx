@@ -2,7 +2,8 @@
 
 import Link from "next/link";
 import { useEffect, useState } from "react";
-import { PartUnreadBadge } from "@/components/sharing/unread-badge";
+import { useUnreadByPart } from "@/components/client/notifications";
+import { UnreadBadge } from "@/components/ui/unread-badge";
 import { usePartList, useDeletePart, useRenamePart, type ListedPart } from "./api";
 
 const COLUMNS: Array<{ key: string; label: string; sortable: boolean; numeric?: boolean }> = [
@@ -187,4 +188,10 @@ function PartRow({ part }: { part: ListedPart }) {
       </td>
     </tr>
   );
+}
+
+/** The library's badge for one part, from one shared request for all parts. */
+function PartUnreadBadge({ partId }: { partId: string }) {
+  const counts = useUnreadByPart();
+  return <UnreadBadge count={counts[partId] ?? 0} className="ml-2" />;
 }

@@ -4,8 +4,8 @@ import { useQueryClient } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
 import { formatNumber } from "@/lib/markings/pulses";
-import { fetchJson } from "./api/fetch-json";
-import { partKeys } from "./api/keys";
+import { fetchJson } from "@/components/client/fetch-json";
+import { partKeys } from "@/components/client/keys";
 
 /**
  * The part's working tempo, shown where the part is named: the player's own, else the part's

@@ -1,0 +1,104 @@
+import "server-only";
+import type { NextAuthOptions } from "next-auth";
+import CredentialsProvider from "next-auth/providers/credentials";
+import { getUserByEmail } from "@/db/users";
+import { config, isProduction } from "@/lib/config";
+import { clientAddress } from "@/lib/http/client-address";
+import { verifyPassword } from "@/lib/auth/password";
+import { pruneAttempts, recordAttempt, signInChecks } from "./rate-limit";
+import { linkUseChecks, signInWithLink } from "./sign-in-link";
+
+/** The one message for an unknown account, a wrong password and a disabled account alike. */
+export const SIGN_IN_FAILED = "E-mail or password is wrong.";
+
+/** A bcrypt hash of a random string: comparing against it keeps timing equal for unknown accounts. */
+const DUMMY_HASH = "$2b$10$Qd90rXyM/0bQOk9wvpgzt.AsnvksRY3dP3zG9YvwIsySjiCPH5cZu";
+
+export const SESSION_MAX_AGE = 30 * 24 * 3600;
+
+let cached: NextAuthOptions | undefined;
+
+/**
+ * next-auth options, built on first use so that `next build` needs no secrets.
+ * Sessions are JWTs carrying only the user id and the account's session epoch; everything else
+ * (role, status, name) is re-read from the database on each request by `getCurrentUser`.
+ * Unconfirmed e-mail addresses may sign in (they see a banner and cannot send invitations);
+ * disabled accounts may not. The rate limit is checked before next-auth runs, in the route.
+ */
+export function authOptions(): NextAuthOptions {
+  if (cached) return cached;
+  const cfg = config();
+  cached = {
+    secret: cfg.AUTH_SECRET,
+    session: { strategy: "jwt", maxAge: SESSION_MAX_AGE },
+    // Secure cookies (and the __Secure-/__Host- prefixes) in production; HttpOnly and
+    // SameSite=Lax are next-auth's defaults for every cookie it sets.
+    useSecureCookies: isProduction(),
+    pages: { signIn: "/sign-in", error: "/sign-in" },
+    providers: [
+      CredentialsProvider({
+        name: "E-mail and password",
+        credentials: {
+          email: { label: "E-mail", type: "email" },
+          password: { label: "Password", type: "password" },
+        },
+        async authorize(credentials, req) {
+          const email = String(credentials?.email ?? "").trim().toLowerCase();
+          const password = String(credentials?.password ?? "");
+          if (!email || !password || email.length > 320 || password.length > 200) return null;
+          const address = clientAddress((req?.headers ?? {}) as Record<string, string>);
+          const user = await getUserByEmail({ email });
+          const passwordOk = await verifyPassword(password, user?.passwordHash ?? DUMMY_HASH);
+          const ok = !!user && passwordOk && user.status === "active";
+          await recordAttempt(signInChecks(email, address), ok);
+          // Old attempts serve no limit; about one sign-in in a hundred clears them out.
+          if (Math.random() < 0.01) void pruneAttempts().catch(() => undefined);
+          if (!ok) return null;
+          return { id: user.id, email: user.email, name: user.name, epoch: user.sessionEpoch };
+        },
+      }),
+      // The e-mailed sign-in link: the link page posts its token here (never a GET, so a mail
+      // scanner fetching the link cannot use it). The session is the same JWT as a password's.
+      CredentialsProvider({
+        id: "sign-in-link",
+        name: "E-mailed sign-in link",
+        credentials: { token: { label: "Token", type: "text" } },
+        async authorize(credentials, req) {
+          const address = clientAddress((req?.headers ?? {}) as Record<string, string>);
+          const user = await signInWithLink({ token: String(credentials?.token ?? "") });
+          await recordAttempt(linkUseChecks(address), !!user);
+          return user;
+        },
+      }),
+    ],
+    callbacks: {
+      async jwt({ token, user }) {
+        if (user) {
+          token.sub = user.id;
+          token.epoch = (user as { epoch?: number }).epoch ?? 0;
+        }
+        return token;
+      },
+      async session({ session, token }) {
+        return { ...session, userId: token.sub, epoch: token.epoch } as typeof session;
+      },
+      async redirect({ url, baseUrl }) {
+        // Only same-origin destinations after sign-in and sign-out.
+        if (url.startsWith("/") && !url.startsWith("//")) return `${baseUrl}${url}`;
+        try {
+          if (new URL(url).origin === baseUrl) return url;
+        } catch {
+          /* not a URL: fall through */
+        }
+        return baseUrl;
+      },
+    },
+  };
+  return cached;
+}
+
+declare module "next-auth/jwt" {
+  interface JWT {
+    epoch?: number;
+  }
+}

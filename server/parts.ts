@@ -1,0 +1,260 @@
+import "server-only";
+import { workingTempoOf } from "@/lib/parts/working-tempo";
+import { analyzeScore, ANALYSIS_VERSION } from "@/lib/analysis";
+import type { PartAnalysis, ScoreAnalysis } from "@/lib/analysis/types";
+import { assertCan, type Action } from "@/lib/auth/policy";
+import { notFound, redirect } from "next/navigation";
+import { getCurrentUser } from "@/server/auth/session";
+import type { CurrentUser } from "@/lib/auth/types";
+import { config } from "@/lib/config";
+import { AppError } from "@/lib/errors";
+import { readScoreFile } from "@/lib/musicxml";
+import { ingestScore, summarizePart, type IngestedScore } from "@/lib/parts/ingest";
+import { embedMarkings } from "@/lib/export/musicxml-markings";
+import { renderMidi } from "@/lib/export/midi";
+import type { MarkingValues } from "@/lib/markings/schema";
+import { selectPartsXml } from "@/lib/musicxml";
+import type { listPartsQuery, patchPartBody } from "@/lib/parts/schemas";
+import type { z } from "zod";
+import { extractMarkingsWithReport, stripMarkings } from "@/lib/export/musicxml-markings";
+import { deletePartById, getPartAccessById, insertPart, listPartsForViewer, newPartValues, storeAnalysisById, updatePartById, type PartAccess } from "@/db/parts";
+import { listMarkingsByPartId, writeMarking } from "@/db/markings";
+import { listDecisionsByPartId } from "@/db/suggestion-decisions";
+import type { Part } from "@/db/schema";
+import { randomUUID } from "node:crypto";
+
+export function readLimits() {
+  const c = config();
+  return {
+    maxFileBytes: c.UPLOAD_MAX_BYTES,
+    maxUncompressedBytes: c.MXL_MAX_UNCOMPRESSED_BYTES,
+    maxZipEntries: c.MXL_MAX_ENTRIES,
+    maxNotes: c.MAX_NOTES,
+    maxDepth: c.MAX_XML_DEPTH,
+  };
+}
+
+/**
+ * Loads a part for the viewer and checks the action through the policy. A part the viewer may
+ * not see answers 404 exactly like a part that does not exist.
+ */
+export async function loadPart(user: CurrentUser, partId: string, action: Action): Promise<PartAccess> {
+  const access = await getPartAccessById({ partId, viewerId: user.id });
+  if (!access) throw new AppError("not_found:part", "This part does not exist, or it has not been shared with you.");
+  assertCan(user, action, {
+    type: "part",
+    part: { id: access.part.id, ownerId: access.part.ownerId },
+    share: access.permission === "owner" ? null : { permission: access.permission },
+  });
+  return access;
+}
+
+export interface CreatedPart {
+  part: Part;
+  /** Markings read back from an Ondula export and written to the new part. */
+  importedMarkings: number;
+  /** Marking records in the file that could not be read (named, never guessed). */
+  unreadableMarkings: Array<{ noteKey: string; reason: string }>;
+}
+
+/**
+ * For a page about one part: sends a visitor without a session to sign in (and back to `path`),
+ * and answers "not found" for a part the viewer may not see, exactly as for one that is not there.
+ */
+export async function loadPartForPage({ partId, action, path }: { partId: string; action: Action; path: string }): Promise<{ user: CurrentUser; access: PartAccess }> {
+  const user = await getCurrentUser();
+  if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(path)}`);
+  if (!UUID.test(partId)) notFound();
+  try {
+    return { user, access: await loadPart(user, partId, action) };
+  } catch (err) {
+    if (err instanceof AppError && (err.status === 404 || err.status === 403)) notFound();
+    throw err;
+  }
+}
+
+/** The part's title for the page's <title>, or null when the viewer may not see it. */
+export async function partTitleForViewer(partId: string): Promise<string | null> {
+  const user = await getCurrentUser();
+  if (!user || !UUID.test(partId)) return null;
+  const access = await loadPart(user, partId, "part:view").catch(() => null);
+  return access?.part.title ?? null;
+}
+
+
+/** A note named in a request body must be a note of the part (a stale tab may hold old keys). */
+export function assertNoteOfPart(part: Part, noteKey: string | null | undefined) {
+  if (noteKey && !part.noteKeys.includes(noteKey)) {
+    throw new AppError("bad_request:note", `There is no note ${noteKey} in this part. Reload the page: the part may have changed.`, { field: "noteKey" });
+  }
+}
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/**
+ * Stores an uploaded file as a new part. A file exported by Ondula carries its markings in hidden
+ * records (lib/export/README.md); those on the chosen part's notes become the new part's markings,
+ * written by the uploader as one history step, so importing an export recovers every marking.
+ */
+export async function createPartFromFile(user: CurrentUser, fileName: string, bytes: Uint8Array): Promise<CreatedPart> {
+  const ingested = ingestScore(bytes, fileName, readLimits());
+  const { markings, problems } = extractMarkingsWithReport(ingested.partwiseXml);
+  // The markings live in the database from now on; their printed copies would go stale on the
+  // engraving, so the stored text is the file without them (the uploaded bytes stay as they were).
+  const hasRecords = markings.size > 0 || problems.length > 0;
+  const part = await insertPartFrom(user, fileName, bytes, hasRecords ? { ...ingested, partwiseXml: stripMarkings(ingested.partwiseXml) } : ingested);
+  const known = new Set(ingested.summary.noteKeys);
+  const groupId = randomUUID();
+  let importedMarkings = 0;
+  for (const [noteKey, values] of markings) {
+    if (!known.has(noteKey)) continue;
+    const result = await writeMarking({ partId: part.id, noteKey, values, expectedVersion: undefined, actorId: user.id, groupId });
+    if (result.ok) importedMarkings += 1;
+  }
+  return { part, importedMarkings, unreadableMarkings: problems };
+}
+
+function insertPartFrom(user: CurrentUser, fileName: string, bytes: Uint8Array, ingested: IngestedScore): Promise<Part> {
+  const c = config();
+  return insertPart({
+    quota: { maxParts: c.QUOTA_PARTS, maxBytes: c.QUOTA_BYTES },
+    values: newPartValues({ ownerId: user.id, fileName, bytes, ingested }),
+  });
+}
+
+/** The stored analysis, recomputed (and stored again) when the analysis version has changed. */
+export async function analysisOf(part: Part): Promise<ScoreAnalysis> {
+  if (part.analysis && part.analysisVersion === ANALYSIS_VERSION) return part.analysis as ScoreAnalysis;
+  const { score } = readScoreFile(new TextEncoder().encode(part.musicxml), part.sourceFileName.replace(/\.mxl$/i, ".musicxml"), readLimits());
+  const analysis = analyzeScore(score, part.sourceFileName);
+  await storeAnalysisById({ partId: part.id, analysis, analysisVersion: ANALYSIS_VERSION });
+  return analysis;
+}
+
+export async function chosenPartAnalysis(part: Part): Promise<PartAnalysis> {
+  const analysis = await analysisOf(part);
+  const result = analysis.parts.find((p) => p.id === part.chosenPartId);
+  if (!result) throw new AppError("not_found:analysis", "The analysis of this part is missing. Upload the file again.");
+  return result;
+}
+
+export function partDto(access: PartAccess) {
+  const p = access.part;
+  return {
+    id: p.id,
+    title: p.title,
+    composer: p.composer,
+    keyLabel: p.keyLabel,
+    /** The working tempo: the player's, else the part's own; null when neither exists (then asked for). */
+    tempo: workingTempoOf(p),
+    writtenTempo: p.tempo,
+    workingTempo: p.workingTempo,
+    chosenPartId: p.chosenPartId,
+    parts: p.partList,
+    measureCount: p.measureCount,
+    noteCount: p.noteCount,
+    sourceFileName: p.sourceFileName,
+    sourceFormat: p.sourceFormat,
+    version: p.version,
+    createdAt: p.createdAt.toISOString(),
+    updatedAt: p.updatedAt.toISOString(),
+    permission: access.permission,
+    url: `/parts/${p.id}`,
+  };
+}
+export type PartDto = ReturnType<typeof partDto>;
+
+// ——— use cases ———
+
+export async function listParts(user: CurrentUser, q: z.infer<typeof listPartsQuery>) {
+  const result = await listPartsForViewer({ viewerId: user.id, ...q });
+  return { ...result, page: q.page, pageSize: q.pageSize };
+}
+
+export async function getPart(user: CurrentUser, partId: string): Promise<PartDto> {
+  return partDto(await loadPart(user, partId, "part:view"));
+}
+
+/**
+ * Stores an uploaded score as a new part of the uploader's (see `createPartFromFile`). The upload
+ * is received only once the policy allows it, so a refused caller's file is never read.
+ */
+export async function uploadPart(user: CurrentUser, receive: () => Promise<{ fileName: string; bytes: Uint8Array }>) {
+  assertCan(user, "part:create", { type: "site" });
+  const file = await receive();
+  const { part, importedMarkings, unreadableMarkings } = await createPartFromFile(user, file.fileName, file.bytes);
+  return { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId, importedMarkings, unreadableMarkings };
+}
+
+/** Renames the part, or chooses another part of its score (summarised again from the stored text). */
+export async function updatePart(user: CurrentUser, partId: string, body: z.infer<typeof patchPartBody>): Promise<PartDto> {
+  const access = await loadPart(user, partId, "part:edit");
+  const changes: Parameters<typeof updatePartById>[0]["changes"] = {};
+  if (body.title !== undefined) changes.title = body.title;
+  if (body.composer !== undefined) changes.composer = body.composer;
+  if (body.workingTempo !== undefined) changes.workingTempo = body.workingTempo;
+  if (body.chosenPart !== undefined && body.chosenPart !== access.part.chosenPartId) {
+    if (!access.part.partList.some((p) => p.id === body.chosenPart)) {
+      throw new AppError("bad_request:chosen_part", `This score has no part "${body.chosenPart}". Choose one of: ${access.part.partList.map((p) => p.id).join(", ")}.`, { field: "chosenPart" });
+    }
+    const analysis = await analysisOf(access.part);
+    const { score } = readScoreFile(new TextEncoder().encode(access.part.musicxml), "stored.musicxml", readLimits());
+    Object.assign(changes, { chosenPartId: body.chosenPart, ...summarizePart(score, analysis, body.chosenPart) });
+  }
+  const part = await updatePartById({ partId, changes, expectedVersion: body.version });
+  return partDto({ part, permission: access.permission });
+}
+
+export async function deletePart(user: CurrentUser, partId: string): Promise<{ id: string; deleted: true }> {
+  await loadPart(user, partId, "part:delete");
+  await deletePartById({ partId });
+  return { id: partId, deleted: true };
+}
+
+/** The chosen part's analysis, in the same shape as one part of the command line's output. */
+export async function getPartAnalysis(user: CurrentUser, partId: string): Promise<PartAnalysis> {
+  const { part } = await loadPart(user, partId, "part:view");
+  return chosenPartAnalysis(part);
+}
+
+function fileStem(title: string): string {
+  return title.replace(/[^\w\- ]+/g, "").trim().replace(/\s+/g, "-").toLowerCase() || "part";
+}
+
+export interface ExportedFile {
+  body: string | Uint8Array;
+  contentType: string;
+  fileName: string;
+}
+
+/** The part with its markings, as MusicXML any notation program opens, or as MIDI with the vibrato. */
+export async function exportPart(user: CurrentUser, partId: string, format: "musicxml" | "midi"): Promise<ExportedFile> {
+  const { part } = await loadPart(user, partId, "part:view");
+  const markings = new Map<string, MarkingValues>(
+    (await listMarkingsByPartId({ partId })).map(({ noteKey, version: _v, authorId: _a, updatedAt: _u, ...values }) => [noteKey, values]),
+  );
+  const stem = fileStem(part.title);
+  if (format === "musicxml") {
+    return { body: embedMarkings(part.musicxml, markings), contentType: "application/vnd.recordare.musicxml+xml; charset=utf-8", fileName: `${stem}-marked.musicxml` };
+  }
+  const { score } = readScoreFile(new TextEncoder().encode(part.musicxml), "stored.musicxml", readLimits());
+  const chosen = score.parts.find((p) => p.id === part.chosenPartId);
+  if (!chosen) throw new AppError("not_found:part", "The chosen part is missing from the score. Choose the part again.");
+  return { body: new Uint8Array(renderMidi(chosen, markings, { workingTempo: workingTempoOf(part) })), contentType: "audio/midi", fileName: `${stem}-vibrato.mid` };
+}
+
+/**
+ * What the workspace page carries: the part, the text to engrave and the markings, so engraving
+ * starts without a round trip (the analysis, history and discussion are asked for once drawn).
+ */
+export async function loadWorkspace({ partId, path }: { partId: string; path: string }) {
+  const { user, access } = await loadPartForPage({ partId, action: "part:view", path });
+  const [markings, decisions] = await Promise.all([listMarkingsByPartId({ partId }), listDecisionsByPartId({ partId })]);
+  return {
+    viewerId: user.id,
+    part: partDto(access),
+    musicxml: selectPartsXml(access.part.musicxml, [access.part.chosenPartId]),
+    markings,
+    decisions,
+  };
+}
