@@ -1,3 +1,5 @@
+import { withSerwist } from "@serwist/turbopack";
+
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   reactStrictMode: true,
@@ -7,4 +9,5 @@ const nextConfig = {
   outputFileTracingRoot: import.meta.dirname,
   turbopack: { root: import.meta.dirname },
 };
-export default nextConfig;
+// Serwist bundles the stand view's service worker with esbuild, kept out of the server bundles.
+export default withSerwist(nextConfig);

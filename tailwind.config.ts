@@ -26,7 +26,8 @@ const config: Config = {
         danger: "#A8320A",
       },
       fontFamily: {
-        sans: ["var(--font-sans)", "system-ui", "sans-serif"],
+        // The plain zero first (see app/globals.css): the interface font's own zero is slashed.
+        sans: ['"Ondula Plain Zero"', "var(--font-sans)", "system-ui", "sans-serif"],
         serif: ["var(--font-serif)", "Georgia", "serif"],
       },
       fontSize: {

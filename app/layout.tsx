@@ -1,4 +1,4 @@
-import type { Metadata } from "next";
+import type { Metadata, Viewport } from "next";
 import "./globals.css";
 import { sans, serif } from "./fonts";
 import { SignOutButton } from "@/components/auth/sign-out-button";
@@ -10,7 +10,16 @@ import { resendVerificationAction } from "./(auth)/actions";
 export const metadata: Metadata = {
   title: { default: "Ondula", template: "%s · Ondula" },
   description: "Mark, practise and share vibrato and phrase decisions, note by note.",
+  applicationName: "Ondula",
+  manifest: "/manifest.webmanifest",
+  icons: {
+    icon: [{ url: "/favicon.ico", sizes: "16x16 32x32 48x48" }, { url: "/icon.svg", type: "image/svg+xml" }],
+    apple: "/apple-touch-icon.png",
+  },
 };
+
+/** The paper ground (tailwind.config.ts `paper`) tints the browser's bar and the home-screen splash. */
+export const viewport: Viewport = { themeColor: "#FBF8F1" };
 
 export default async function RootLayout({ children }: { children: React.ReactNode }) {
   // The header must never take a page down: without the database it shows the signed-out links.

@@ -3,7 +3,7 @@ import { WaveMark } from "@/components/ui/wave-mark";
 
 const steps = [
   { title: "Bring the part in", text: "Upload a MusicXML part — or a whole score with piano — and see it engraved in the browser." },
-  { title: "Decide note by note", text: "Mark each note's vibrato depth in cents, its speed in pulses per second, where it starts and how it grows or fades, and the note's role in the phrase." },
+  { title: "Decide note by note", text: "Mark each note's vibrato depth (how far the pitch swings, in ¢), its speed in pulses per second, where it starts and how it grows or fades, and the note's role in the phrase." },
   { title: "Let the key speak", text: "Ondula reads the key and the melody and suggests the tension tones, where they resolve, and where each phrase starts and peaks — each with a plain reason you can accept or dismiss." },
   { title: "Work on it together", text: "Share the part with your teacher, who comments on notes and proposes changes that you accept or decline." },
   { title: "Take it to the stand", text: "Print a stand copy with your markings above the notes, readable in grayscale, or export it as MusicXML and MIDI." },

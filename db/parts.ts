@@ -184,7 +184,7 @@ export async function updatePartById({
   expectedVersion,
 }: {
   partId: string;
-  changes: Partial<Pick<Part, "title" | "composer" | "chosenPartId" | "noteKeys" | "keyLabel" | "tempo" | "measureCount" | "noteCount">>;
+  changes: Partial<Pick<Part, "title" | "composer" | "chosenPartId" | "noteKeys" | "keyLabel" | "tempo" | "workingTempo" | "measureCount" | "noteCount">>;
   expectedVersion?: number;
 }): Promise<Part> {
   const where = expectedVersion === undefined ? eq(parts.id, partId) : and(eq(parts.id, partId), eq(parts.version, expectedVersion));

@@ -172,7 +172,7 @@ async function startServices({ recreateDatabase }) {
 
 // ---------------------------------------------------------------- build
 
-const BUILD_INPUTS = ["app", "components", "lib", "db", "public", "next.config.mjs", "tailwind.config.ts", "postcss.config.mjs", "tsconfig.json", "package-lock.json"];
+const BUILD_INPUTS = ["app", "components", "lib", "db", "public", "worker", "next.config.mjs", "tailwind.config.ts", "postcss.config.mjs", "tsconfig.json", "package-lock.json"];
 
 function hashTree() {
   const h = crypto.createHash("sha256");

@@ -1,4 +1,5 @@
 import "server-only";
+import { workingTempoOf } from "@/lib/parts/working-tempo";
 import { analyzeScore, ANALYSIS_VERSION } from "@/lib/analysis";
 import type { PartAnalysis, ScoreAnalysis } from "@/lib/analysis/types";
 import { assertCan, type Action } from "@/lib/auth/policy";
@@ -144,7 +145,10 @@ export function partDto(access: PartAccess) {
     title: p.title,
     composer: p.composer,
     keyLabel: p.keyLabel,
-    tempo: p.tempo,
+    /** The working tempo: the player's, else the part's own; null when neither exists (then asked for). */
+    tempo: workingTempoOf(p),
+    writtenTempo: p.tempo,
+    workingTempo: p.workingTempo,
     chosenPartId: p.chosenPartId,
     parts: p.partList,
     measureCount: p.measureCount,
@@ -188,6 +192,7 @@ export async function updatePart(user: CurrentUser, partId: string, body: z.infe
   const changes: Parameters<typeof updatePartById>[0]["changes"] = {};
   if (body.title !== undefined) changes.title = body.title;
   if (body.composer !== undefined) changes.composer = body.composer;
+  if (body.workingTempo !== undefined) changes.workingTempo = body.workingTempo;
   if (body.chosenPart !== undefined && body.chosenPart !== access.part.chosenPartId) {
     if (!access.part.partList.some((p) => p.id === body.chosenPart)) {
       throw new AppError("bad_request:chosen_part", `This score has no part "${body.chosenPart}". Choose one of: ${access.part.partList.map((p) => p.id).join(", ")}.`, { field: "chosenPart" });
@@ -235,7 +240,7 @@ export async function exportPart(user: CurrentUser, partId: string, format: "mus
   const { score } = readScoreFile(new TextEncoder().encode(part.musicxml), "stored.musicxml", readLimits());
   const chosen = score.parts.find((p) => p.id === part.chosenPartId);
   if (!chosen) throw new AppError("not_found:part", "The chosen part is missing from the score. Choose the part again.");
-  return { body: new Uint8Array(renderMidi(chosen, markings)), contentType: "audio/midi", fileName: `${stem}-vibrato.mid` };
+  return { body: new Uint8Array(renderMidi(chosen, markings, { workingTempo: workingTempoOf(part) })), contentType: "audio/midi", fileName: `${stem}-vibrato.mid` };
 }
 
 /**

@@ -1,4 +1,5 @@
 import "server-only";
+import { workingTempoOf } from "@/lib/parts/working-tempo";
 import { can } from "@/lib/auth/policy";
 import type { CurrentUser } from "@/lib/auth/types";
 import { noteLabel } from "@/lib/markings/note-labels";
@@ -77,7 +78,8 @@ export async function loadPracticeRoom({ partId, path }: { partId: string; path:
   });
   const canWrite = canWritePractice(user, access);
   return {
-    part: { title: part.title, tempo: part.tempo, noteKeys: part.noteKeys },
+    // The working tempo (null: the part gives none and the player has not said yet).
+    part: { title: part.title, tempo: workingTempoOf(part), noteKeys: part.noteKeys, isOwner: user.id === part.ownerId },
     notes,
     canWrite,
     log: { ...log, canWrite },

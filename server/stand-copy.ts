@@ -1,4 +1,5 @@
 import "server-only";
+import { workingTempoOf } from "@/lib/parts/working-tempo";
 import { toState } from "@/lib/markings/changes";
 import { resolutionsOf } from "@/lib/markings/durations";
 import { pendingSuggestions } from "@/lib/markings/suggestions";
@@ -26,7 +27,7 @@ export async function loadStandCopy({ partId, path, options }: { partId: string;
     title: part.title,
     composer: part.composer,
     keyLabel: part.keyLabel,
-    tempo: part.tempo,
+    tempo: workingTempoOf(part),
     playerName: owner?.name ?? "",
     xml: selectPartsXml(part.musicxml, [part.chosenPartId]),
     markings,

@@ -7,6 +7,7 @@ import {
 } from "@/server/accounts/registration";
 import { newPasswordSchema } from "@/lib/auth/password-rules";
 import { admitSignInLinkRequest, sendSignInLink, SIGN_IN_LINK_SENT } from "@/server/auth/sign-in-link";
+import { startSession } from "@/server/auth/start-session";
 import { AppError } from "@/lib/errors";
 import { defineAction } from "@/server/http/action";
 import { clientAddress } from "@/lib/http/client-address";
@@ -27,8 +28,10 @@ export const signUpAction = defineAction({
   }),
   run: async ({ input }) => {
     const user = await signUp(input);
-    const next = new URLSearchParams({ registered: "1", email: user.email, callbackUrl: safeCallbackPath(input.callbackUrl) });
-    return { redirectTo: `/sign-in?${next}` };
+    // A new account is signed in at once: the player lands where they were going (the library).
+    await startSession(user);
+    const target = safeCallbackPath(input.callbackUrl);
+    return { redirectTo: `${target}${target.includes("?") ? "&" : "?"}welcome=1` };
   },
 });
 

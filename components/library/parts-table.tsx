@@ -157,6 +157,9 @@ function PartRow({ part }: { part: ListedPart }) {
       <td className="px-3 py-2 whitespace-nowrap text-graphite">{dateFormat.format(new Date(part.updatedAt))}</td>
       <td className="px-3 py-2 whitespace-nowrap">
         <div className="flex gap-2">
+          <Link href={`/parts/${part.id}/stand`} className="text-accent-strong underline" aria-label={`Open ${part.title} in the stand view`}>
+            Stand view
+          </Link>
           <a href={`/api/parts/${part.id}/source`} className="text-accent-strong underline" aria-label={`Download the original file of ${part.title}`}>
             Original
           </a>

@@ -20,7 +20,7 @@ export function ContourPlot({ contour, markedDepth }: { contour: ContourPoint[];
   const ticks = [-range, -range / 2, 0, range / 2, range];
   const seconds = Math.floor(t1 - t0);
   const timeTicks = Array.from({ length: seconds + 1 }, (_, i) => i).filter((s) => seconds <= 10 || s % 2 === 0);
-  const label = `Pitch contour of the take over ${(t1 - t0).toFixed(1)} s, in cents around its mean${markedDepth !== null ? `, with the marked depth ±${markedDepth} cents as a band` : ""}.`;
+  const label = `Pitch contour of the take over ${(t1 - t0).toFixed(1)} s, in ¢ around its mean${markedDepth !== null ? `, with the marked depth ±${markedDepth}¢ as a band` : ""}.`;
 
   return (
     <figure className="mt-3">
@@ -55,7 +55,7 @@ export function ContourPlot({ contour, markedDepth }: { contour: ContourPoint[];
         <path d={path} fill="none" stroke="#1B1A17" strokeWidth="1.5" strokeLinejoin="round" />
       </svg>
       <figcaption className="text-xs text-graphite">
-        Pitch in cents around the take&apos;s mean.{" "}
+        Pitch in ¢ around the take&apos;s mean.{" "}
         {markedDepth !== null && markedDepth > 0 ? `The hatched band is the marked depth, ±${markedDepth} c.` : "No depth is marked on this note."}
       </figcaption>
     </figure>

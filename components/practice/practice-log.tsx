@@ -66,7 +66,7 @@ export function PracticeLog({ partId, noteKey, noteLabel, labelOf }: Props) {
             />
           </label>
           <label className="text-sm font-medium sm:col-span-1">
-            Notes
+            Practice notes
             <textarea
               value={notes}
               onChange={(e) => setNotes(e.target.value)}

@@ -32,7 +32,7 @@ describe("AuditionControl", () => {
   it("shows the caution and waits for a selection", () => {
     render(<AuditionControl keys={[]} notes={notes} phrases={phrases} markings={{}} tempo={120} />);
     expect(screen.getByTestId("audition-caution").textContent).toContain(AUDITION_CAUTION);
-    expect(screen.getByRole("button", { name: "Audition" })).toHaveProperty("disabled", true);
+    expect(screen.getByRole("button", { name: "Listen" })).toHaveProperty("disabled", true);
     expect(screen.getByRole("button", { name: /Stop/ })).toHaveProperty("disabled", true);
   });
 
@@ -41,7 +41,7 @@ describe("AuditionControl", () => {
     render(<AuditionControl keys={[notes[1].key]} notes={notes} phrases={phrases} markings={{ [notes[1].key]: marking }} tempo={120} />);
     const slider = screen.getByRole("slider") as HTMLInputElement;
     expect(Number(slider.value)).toBe(DEFAULT_VOLUME);
-    fireEvent.click(screen.getByRole("button", { name: "Audition the selected note" }));
+    fireEvent.click(screen.getByRole("button", { name: "Listen to the selected note" }));
     await vi.waitFor(() => expect(calls).toHaveLength(1));
     expect(calls[0].volume).toBe(DEFAULT_VOLUME);
     expect(calls[0].notes).toEqual([expect.objectContaining({ midi: 64, startSeconds: 0, marking })]);
@@ -54,7 +54,7 @@ describe("AuditionControl", () => {
     render(<AuditionControl keys={[notes[2].key]} notes={notes} phrases={phrases} markings={{}} tempo={120} />);
     fireEvent.click(screen.getByRole("checkbox", { name: "Whole phrase" }));
     fireEvent.change(screen.getByRole("slider"), { target: { value: "0.3" } });
-    fireEvent.click(screen.getByRole("button", { name: "Audition the phrase (4 notes)" }));
+    fireEvent.click(screen.getByRole("button", { name: "Listen to the phrase (4 notes)" }));
     await vi.waitFor(() => expect(calls).toHaveLength(1));
     // Half notes at 120 bpm: one every second (arithmetic).
     expect(calls[0].notes.map((n) => [n.midi, n.startSeconds])).toEqual([[62, 0], [64, 1], [65, 2], [67, 3]]);

@@ -62,18 +62,18 @@ export function AuditionControl({ keys, notes, phrases, markings, tempo }: Audit
     [],
   );
 
-  const what = chosen.length === 0 ? "Select a note to audition it." : wholePhrase && phrase ? `the phrase (${phrase.length} notes)` : chosen.length === 1 ? "the selected note" : `${chosen.length} selected notes`;
+  const what = chosen.length === 0 ? "Select a note to listen to it." : wholePhrase && phrase ? `the phrase (${phrase.length} notes)` : chosen.length === 1 ? "the selected note" : `${chosen.length} selected notes`;
 
   return (
-    <section aria-label="Audition" className="flex flex-wrap items-center gap-x-3 gap-y-1 text-sm" data-testid="audition">
+    <section aria-label="Listen" className="flex flex-wrap items-center gap-x-3 gap-y-1 text-sm" data-testid="audition">
       <button
         type="button"
         onClick={play}
         disabled={chosen.length === 0}
         className="h-11 rounded border border-ink/30 px-3 font-medium hover:bg-paper-deep disabled:cursor-not-allowed disabled:text-graphite/60"
-        aria-label={chosen.length ? `Audition ${what}` : "Audition"}
+        aria-label={chosen.length ? `Listen to ${what}` : "Listen"}
       >
-        ▶ Audition
+        ▶ Listen
       </button>
       <button
         type="button"

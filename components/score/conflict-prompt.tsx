@@ -1,5 +1,6 @@
 "use client";
 
+import { VALUE_WORDS, centsText, onsetAndShape } from "@/lib/markings/labels";
 import { useEffect, useRef } from "react";
 import type { MarkingDto, MarkingValues } from "@/lib/markings/schema";
 import { formatNumber } from "@/lib/markings/pulses";
@@ -21,14 +22,14 @@ function Version({ title, values, note }: { title: string; values: MarkingValues
       {values ? (
         <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm">
           <dt className="text-graphite">Depth</dt>
-          <dd>{formatNumber(values.depthCents, 1)} cents</dd>
+          <dd>{centsText(formatNumber(values.depthCents, 1))}</dd>
           <dt className="text-graphite">Speed</dt>
           <dd>{formatNumber(values.speedHz, 2)} Hz</dd>
           <dt className="text-graphite">Placement</dt>
-          <dd>{values.placement === "centered" ? "centred" : "top on pitch"}</dd>
+          <dd>{VALUE_WORDS.placement[values.placement]}</dd>
           <dt className="text-graphite">Onset, shape</dt>
           <dd>
-            {values.onset}, {values.shape}
+            {onsetAndShape(values)}
           </dd>
           <dt className="text-graphite">Role</dt>
           <dd>{values.role ? ROLE_INFO[values.role].label : "none"}</dd>

@@ -38,7 +38,7 @@ export function Legend({ className = "" }: { className?: string }) {
         <div>
           <h3 className="mb-2 font-sans text-sm font-semibold uppercase tracking-wide text-graphite">Vibrato (above each note)</h3>
           <ul className="space-y-1.5">
-            <Wave values={{ depthCents: 15 }} caption="Shallow: the wave’s height follows depth (cents)" />
+            <Wave values={{ depthCents: 15 }} caption="Shallow: the wave’s height follows depth (¢)" />
             <Wave values={{ depthCents: 80 }} caption="Deep" />
             <Wave values={{ speedHz: 8 }} caption="Faster: more crests across the note (Hz)" />
             <Wave values={{ depthCents: 0 }} caption="Flat with end caps: deliberately no vibrato" />
@@ -47,7 +47,7 @@ export function Legend({ className = "" }: { className?: string }) {
             <Wave values={{ shape: "growing" }} caption="Swelling: growing" />
             <Wave values={{ shape: "fading" }} caption="Narrowing: fading" />
           </ul>
-          <p className="mt-2 text-xs text-graphite">Small numbers under a wave: depth in cents, then speed in Hz (e.g. “20¢ 5.5”); “none” under a flat line.</p>
+          <p className="mt-2 text-xs text-graphite">Small numbers under a wave: depth in ¢, then speed in Hz (e.g. “20¢ 5.5”); “none” under a flat line.</p>
         </div>
         <div>
           <h3 className="mb-2 font-sans text-sm font-semibold uppercase tracking-wide text-graphite">Roles in the phrase</h3>

@@ -1,5 +1,7 @@
 "use client";
 
+import { VALUE_WORDS, onsetAndShape } from "@/lib/markings/labels";
+import type { MarkingValues } from "@/lib/markings/schema";
 import { memo, useLayoutEffect, useMemo } from "react";
 import type { Role } from "@/lib/analysis/types";
 import type { MarkingState } from "@/lib/markings/changes";
@@ -477,8 +479,8 @@ function nextResolution(placed: Map<string, Placed>, markings: MarkingState, fro
   return keys.slice(i + 1, i + 9).find((k) => markings[k]?.role === "resolution");
 }
 
-function describe(m: { depthCents: number; speedHz: number; placement: string; onset: string; shape: string; role: Role | null; comment: string }): string {
-  const vib = m.depthCents === 0 || m.speedHz === 0 ? "no vibrato (deliberate)" : `vibrato ${formatNumber(m.depthCents, 1)} cents at ${formatNumber(m.speedHz, 2)} Hz, ${m.placement === "centered" ? "centred" : "top on pitch"}, ${m.onset}, ${m.shape}`;
+function describe(m: Pick<MarkingValues, "depthCents" | "speedHz" | "placement" | "onset" | "shape" | "role" | "comment">): string {
+  const vib = m.depthCents === 0 || m.speedHz === 0 ? "no vibrato (deliberate)" : `vibrato ${formatNumber(m.depthCents, 1)}¢ at ${formatNumber(m.speedHz, 2)} Hz, ${VALUE_WORDS.placement[m.placement].toLowerCase()}, ${onsetAndShape(m).toLowerCase()}`;
   const role = m.role ? `; ${ROLE_INFO[m.role].label.toLowerCase()}` : "";
   const comment = m.comment.trim() ? `; “${m.comment.trim()}”` : "";
   return `${vib}${role}${comment}`;

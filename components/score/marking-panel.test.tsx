@@ -42,7 +42,7 @@ describe("MarkingPanel", () => {
   it("refuses a depth above 100 cents with an inline message and sends nothing", () => {
     const props = setup();
     const input = typeInto(/^Depth$/, "150");
-    expect(screen.getByRole("alert").textContent).toMatch(/above 100 cents/);
+    expect(screen.getByRole("alert").textContent).toMatch(/above 100¢/);
     expect(input.getAttribute("aria-invalid")).toBe("true");
     expect(props.onPatch).not.toHaveBeenCalled();
   });

@@ -1,5 +1,6 @@
 "use client";
 
+import { VALUE_WORDS } from "@/lib/markings/labels";
 import { useId, useState, type KeyboardEvent, type ReactNode } from "react";
 import type { Role } from "@/lib/analysis/types";
 import { formatNumber, pulsesPerBeat, speedFromPulsesPerBeat } from "@/lib/markings/pulses";
@@ -30,11 +31,7 @@ export interface MarkingPanelProps {
 
 type NumberField = "depthCents" | "speedHz" | "pulses";
 
-const LABELS = {
-  placement: { centered: "Centred on the pitch", "top-on-pitch": "Top on the pitch" },
-  onset: { immediate: "From the start", delayed: "Delayed" },
-  shape: { steady: "Steady", growing: "Growing", fading: "Fading" },
-} as const;
+const LABELS = VALUE_WORDS;
 
 /** Validates one number against the shared schema; returns the message of the first problem. */
 function check(field: "depthCents" | "speedHz", value: number): string | null {
@@ -165,14 +162,16 @@ export function MarkingPanel(props: MarkingPanelProps) {
 
       <fieldset disabled={!canEdit} className="space-y-4 disabled:opacity-70">
         <legend className="sr-only">Vibrato</legend>
-        {slider("depthCents", 0, 100, 1, "¢", "cents, 0–100 (0 = no vibrato)")}
+        {slider("depthCents", 0, 100, 1, "¢", "how far the pitch swings each way from its centre, at the widest (peak deviation, ±¢); 0–100, 0 = no vibrato")}
         {slider(
           "speedHz",
           0,
           12,
           0.1,
           "Hz",
-          bpm ? `pulses per second; ${formatNumber(pulsesPerBeat(shown.speedHz, bpm), 2)} per beat at ♩ = ${formatNumber(bpm, 1)}` : "pulses per second",
+          bpm
+            ? `pulses per second (one pulse: up and back once); ${formatNumber(pulsesPerBeat(shown.speedHz, bpm), 2)} per beat at ♩ = ${formatNumber(bpm, 1)}`
+            : "pulses per second (one pulse: up and back once)",
         )}
         {bpm ? (
           <div className="flex items-center justify-between gap-3">

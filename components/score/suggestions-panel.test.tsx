@@ -87,3 +87,25 @@ describe("SuggestionsPanel on a long part", () => {
     expect(screen.queryByTestId("suggestions-ranking")).toBeNull();
   });
 });
+
+describe("SuggestionsPanel while the analysis is not here", () => {
+  const noop = { onAccept: vi.fn(), onDismiss: vi.fn(), onShow: vi.fn() };
+  it("says it is reading the part while the analysis loads, never that nothing waits", () => {
+    render(<SuggestionsPanel pending={[]} decidedCount={0} labelOf={(k) => k} canEdit status="loading" {...noop} />);
+    expect(screen.getByRole("status").textContent).toMatch(/Reading the key and the melody/);
+    expect(screen.queryByText(/Nothing waiting/)).toBeNull();
+  });
+  it("says the analysis failed, keeps the detail behind a toggle, and offers to try again", () => {
+    const onRetry = vi.fn();
+    render(<SuggestionsPanel pending={[]} decidedCount={0} labelOf={(k) => k} canEdit status="error" errorMessage="unavailable:server" onRetry={onRetry} {...noop} />);
+    expect(screen.getByRole("alert").textContent).toMatch(/could not be made/);
+    expect(screen.queryByText(/Nothing waiting/)).toBeNull();
+    expect(screen.getByText("Details").closest("details")?.open).toBe(false);
+    fireEvent.click(screen.getByRole("button", { name: "Try again" }));
+    expect(onRetry).toHaveBeenCalledOnce();
+  });
+  it("explains the confidence words where they appear", () => {
+    render(<SuggestionsPanel pending={[s("a", "peak", 0.9)]} decidedCount={0} labelOf={(k) => k} canEdit {...noop} />);
+    expect(screen.getByTestId("confidence-explained").textContent).toMatch(/Suggested.*50 %.*Possible/);
+  });
+});

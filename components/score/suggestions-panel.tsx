@@ -21,13 +21,48 @@ export interface SuggestionsPanelProps {
   /** The analysis' phrases and note order: on a long part the strongest of each phrase come first. */
   phrases?: readonly PhraseResult[];
   noteOrder?: readonly string[];
+  /** The analysis itself: still coming, failed, or here (the default). */
+  status?: "loading" | "error" | "ready";
+  errorMessage?: string;
+  onRetry?: () => void;
 }
 
+/** What the two confidence words mean, said where they appear. */
+export const CONFIDENCE_EXPLAINED =
+  "“Suggested” (50 % or more): the key and the melody point clearly to this role. “Possible” (below 50 %): one reading among others — listen and decide.";
+
 /** The analysis' suggestions by role, each with its reason, to accept, dismiss or look at. */
-export function SuggestionsPanel({ pending, decidedCount, labelOf, canEdit, onAccept, onDismiss, onShow, onEdit, phrases = [], noteOrder = [] }: SuggestionsPanelProps) {
+export function SuggestionsPanel({ pending, decidedCount, labelOf, canEdit, onAccept, onDismiss, onShow, onEdit, phrases = [], noteOrder = [], status = "ready", errorMessage, onRetry }: SuggestionsPanelProps) {
   const [showAll, setShowAll] = useState(false);
   const { top, rest } = useMemo(() => rankSuggestions(pending, phrases, noteOrder), [pending, phrases, noteOrder]);
   const groups = groupByRole(showAll ? pending : top, ROLE_ORDER);
+  if (status !== "ready") {
+    return (
+      <section aria-label="Suggestions" className="space-y-3" data-testid="suggestions-panel" data-status={status}>
+        <h2 className="text-lg font-semibold">Suggestions</h2>
+        {status === "loading" ? (
+          <p className="text-sm text-graphite" role="status">
+            Reading the key and the melody…
+          </p>
+        ) : (
+          <div role="alert" className="space-y-2 text-sm">
+            <p className="text-danger">The suggestions could not be made just now. Your markings are not affected.</p>
+            {errorMessage ? (
+              <details>
+                <summary className="cursor-pointer text-graphite">Details</summary>
+                <p className="mt-1 text-graphite">{errorMessage}</p>
+              </details>
+            ) : null}
+            {onRetry ? (
+              <button type="button" onClick={onRetry} className="h-11 rounded border border-ink/30 px-3 font-medium hover:bg-paper-deep">
+                Try again
+              </button>
+            ) : null}
+          </div>
+        )}
+      </section>
+    );
+  }
   return (
     <section aria-label="Suggestions" className="space-y-5" data-testid="suggestions-panel">
       <header>
@@ -54,6 +89,11 @@ export function SuggestionsPanel({ pending, decidedCount, labelOf, canEdit, onAc
               {showAll ? `Show the ${top.length} strongest only` : `Show all ${pending.length}`}
             </button>
           </div>
+        ) : null}
+        {pending.length > 0 ? (
+          <p className="mt-1 text-xs text-graphite" data-testid="confidence-explained">
+            {CONFIDENCE_EXPLAINED}
+          </p>
         ) : null}
       </header>
       {groups.map(({ role, items }) => (

@@ -137,6 +137,7 @@ export function buildSystemSlices(src: SliceSource): SVGSVGElement[] {
     svg.setAttribute("data-system", String(i));
     svg.setAttribute("role", "img");
     const sys = src.systems[i];
+    svg.setAttribute("data-first-bar", String(sys.firstBar));
     svg.setAttribute("aria-label", sys.firstBar === sys.lastBar ? `Bar ${sys.firstBar}` : `Bars ${sys.firstBar} to ${sys.lastBar}`);
 
     const defs = document.createElementNS(SVG_NS, "defs");

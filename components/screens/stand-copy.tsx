@@ -126,6 +126,9 @@ export function StandCopy({ data }: { data: StandCopyData }) {
           <Link href={`/parts/${data.partId}`} className="inline-flex h-11 items-center px-2 text-sm text-graphite underline-offset-4 hover:underline">
             Back to the workspace
           </Link>
+          <Link href={`/parts/${data.partId}/stand`} className="inline-flex h-11 items-center px-2 text-sm text-graphite underline-offset-4 hover:underline">
+            Stand view
+          </Link>
           <button type="button" onClick={() => window.print()} className="h-11 rounded border border-ink/30 px-4 text-sm font-medium hover:bg-paper">
             Print
           </button>

@@ -190,8 +190,8 @@ describe("Workspace", () => {
     await setDepth("25");
     const prompt = await screen.findByTestId("conflict-prompt");
     await waitFor(() => expect(within(prompt).getByText("Mine")).toBeTruthy());
-    expect(within(prompt).getByText("25 cents")).toBeTruthy();
-    expect(within(prompt).getByText("80 cents")).toBeTruthy();
+    expect(within(prompt).getByText("25¢")).toBeTruthy();
+    expect(within(prompt).getByText("80¢")).toBeTruthy();
     expect(saveState()).toBe("conflict");
     expect(server.markings.get(K[0])?.depthCents).toBe(80); // nothing overwritten yet
     fireEvent.click(within(prompt).getByRole("button", { name: "Keep mine" }));

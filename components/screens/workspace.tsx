@@ -25,6 +25,8 @@ import { useHistoryStep } from "@/components/score/api/undo-redo";
 import { AuditionControl } from "@/components/score/audition-control";
 import { ConflictPrompt } from "@/components/score/conflict-prompt";
 import { ExportMenu } from "@/components/score/export-menu";
+import { WorkspaceHint } from "@/components/score/workspace-hint";
+import { WorkingTempo } from "@/components/score/working-tempo";
 import { EditorStoreProvider, useEditorActions, useEditorStore, useEditorStoreApi, type Conflict } from "@/components/score/editor-store";
 import { Legend } from "@/components/score/legend";
 import { MarkingOverlay } from "@/components/score/marking-overlay";
@@ -315,7 +317,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
     const what = m
       ? m.depthCents === 0
         ? "marked no vibrato"
-        : `marked ${formatNumber(m.depthCents, 1)} cents, ${formatNumber(m.speedHz, 2)} Hz${m.role ? `, ${ROLE_INFO[m.role].label}` : ""}`
+        : `marked ${formatNumber(m.depthCents, 1)}¢, ${formatNumber(m.speedHz, 2)} Hz${m.role ? `, ${ROLE_INFO[m.role].label}` : ""}`
       : "not marked";
     return `${labelOf(selection.focus)}, ${what}.${keys.length > 1 ? ` ${keys.length} notes selected.` : ""}`;
   }, [selection.focus, markings, labelOf, keys.length]);
@@ -357,6 +359,9 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
         onShow={show}
         phrases={analysis.data?.phrases ?? NO_PHRASES}
         noteOrder={noteOrder}
+        status={analysis.data ? "ready" : analysis.isError ? "error" : "loading"}
+        errorMessage={analysis.error?.message}
+        onRetry={() => void analysis.refetch()}
       />
     ) : (
       <MarkingPanel
@@ -380,10 +385,14 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
       <div className="no-print flex flex-wrap items-center gap-x-4 gap-y-1 border-b border-rule px-gutter py-2">
         <div className="w-full min-w-0 lg:w-auto lg:flex-1">
           <h1 className="truncate text-xl font-semibold leading-tight">{part.data?.title ?? "…"}</h1>
-          <p className="truncate text-sm text-graphite">
-            {[part.data?.composer, part.data?.keyLabel, tempo ? `♩ = ${formatNumber(tempo, 1)}` : null, part.data ? `${part.data.measureCount} bars` : null]
-              .filter(Boolean)
-              .join(" · ")}
+          <p className="text-sm text-graphite">
+            {[part.data?.composer, part.data?.keyLabel, part.data ? `${part.data.measureCount} bars` : null].filter(Boolean).join(" · ")}
+            {part.data ? (
+              <>
+                {" · "}
+                <WorkingTempo partId={partId} tempo={tempo} writtenTempo={part.data.writtenTempo} canEdit={canEdit} />
+              </>
+            ) : null}
           </p>
           {sounding ? (
             <p className="text-sm text-graphite" data-testid="sounding-key">
@@ -430,6 +439,9 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
           <Link href={`/parts/${partId}/practice`} className="flex h-11 items-center rounded px-2.5 text-sm font-medium text-ink underline-offset-4 hover:bg-paper-deep hover:underline">
             Practise
           </Link>
+          <Link href={`/parts/${partId}/stand`} className="flex h-11 items-center rounded px-2.5 text-sm font-medium text-ink underline-offset-4 hover:bg-paper-deep hover:underline">
+            Stand view
+          </Link>
           <ExportMenu partId={partId} />
         </div>
       </div>
@@ -457,6 +469,8 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
           <Legend />
         </div>
       ) : null}
+
+      <WorkspaceHint showHint={canEdit && xml.data !== undefined && Object.keys(markings).length === 0} />
 
       <div className="relative flex min-h-0 flex-1">
         <div ref={scrollerRef} className="min-w-0 flex-1 overflow-auto" data-testid="score-scroller">

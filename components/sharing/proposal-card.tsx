@@ -24,13 +24,13 @@ const VALUE_LABELS: Record<string, string> = {
 };
 
 const FIELDS: { key: keyof MarkingValues; label: string; show: (v: MarkingValues) => string }[] = [
-  { key: "depthCents", label: "Depth", show: (v) => (v.depthCents === 0 ? "0 cents (no vibrato)" : `${v.depthCents} cents`) },
+  { key: "depthCents", label: "Depth", show: (v) => (v.depthCents === 0 ? "0¢ (no vibrato)" : `${v.depthCents}¢`) },
   { key: "speedHz", label: "Speed", show: (v) => `${v.speedHz} Hz` },
   { key: "placement", label: "Placement", show: (v) => VALUE_LABELS[v.placement] },
   { key: "onset", label: "Onset", show: (v) => VALUE_LABELS[v.onset] },
   { key: "shape", label: "Shape", show: (v) => VALUE_LABELS[v.shape] },
   { key: "role", label: "Role", show: (v) => (v.role ? VALUE_LABELS[v.role] : "None") },
-  { key: "comment", label: "Marking note", show: (v) => v.comment || "—" },
+  { key: "comment", label: "Comment", show: (v) => v.comment || "—" },
 ];
 
 const STATUS_LABEL = { open: "Open", accepted: "Accepted", declined: "Declined", stale: "Out of date", withdrawn: "Withdrawn" } as const;
@@ -227,7 +227,7 @@ export function ProposalForm({ partId, noteKey, current, onDone }: { partId: str
       <h3 className="font-semibold">Propose a marking</h3>
       <div className="grid grid-cols-2 gap-2">
         <label className="grid gap-1 text-sm">
-          <span className="text-graphite">Depth (cents)</span>
+          <span className="text-graphite">Depth (¢)</span>
           <input type="number" step="0.5" min={0} max={100} value={Number.isNaN(values.depthCents) ? "" : values.depthCents} onChange={(e) => set("depthCents", e.target.valueAsNumber)} className="rounded border border-rule bg-paper-card px-2 py-1.5" />
         </label>
         <label className="grid gap-1 text-sm">

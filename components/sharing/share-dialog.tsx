@@ -62,7 +62,7 @@ export function SharePanel({ partId }: { partId: string }) {
     <div className="grid gap-5">
       <form onSubmit={submit} className="grid gap-3" aria-label="Invite by e-mail">
         <p className="text-sm text-graphite">
-          Your teacher gets an e-mail with a link. They see your markings and comment on notes; with “propose” they can also suggest
+          Your teacher gets an e-mail with a link. They see your markings and comment on notes; with “propose” they can also propose
           markings, which change nothing until you accept them.
         </p>
         <label htmlFor={`${id}-email`} className="text-sm font-medium">E-mail address</label>

@@ -1,6 +1,6 @@
 "use client";
 
-import { createContext, useActionState, useContext, useId, type ReactNode } from "react";
+import { createContext, useActionState, useContext, useId, useState, type ReactNode } from "react";
 import { useFormStatus } from "react-dom";
 import { idleState, type ActionState } from "@/lib/http/action-state";
 import { inputClass, selectClass } from "./styles";
@@ -15,7 +15,7 @@ const StateContext = createContext<ActionState>(idleState);
  * submit button and is announced to screen readers.
  */
 export function ActionForm({
-  action, children, submitLabel, submitAriaLabel, className, hidden, variant = "primary", successMessage, inline = false,
+  action, children, submitLabel, submitAriaLabel, className, hidden, variant = "primary", successMessage, inline = false, confirm,
 }: {
   action: ServerAction;
   children?: ReactNode;
@@ -27,8 +27,14 @@ export function ActionForm({
   variant?: "primary" | "quiet" | "danger";
   successMessage?: string;
   inline?: boolean;
+  /**
+   * For what cannot be taken back by a click (a removal): the button first asks this question,
+   * and the action runs only from its "Yes" button.
+   */
+  confirm?: { question: string; yes: string };
 }) {
   const [state, formAction] = useActionState(action, idleState);
+  const [asking, setAsking] = useState(false);
   const fieldErrorShown = state.fieldErrors && Object.keys(state.fieldErrors).some((k) => k !== "_form");
   const message = state.status === 0 ? null : state.ok ? (state.message ?? successMessage) : fieldErrorShown ? null : state.message;
   return (
@@ -43,7 +49,26 @@ export function ActionForm({
             </p>
           ) : null}
         </div>
-        <SubmitButton label={submitLabel} ariaLabel={submitAriaLabel} variant={variant} />
+        {confirm && !asking ? (
+          <button
+            type="button"
+            aria-label={submitAriaLabel}
+            onClick={() => setAsking(true)}
+            className={`justify-self-start whitespace-nowrap rounded-card px-4 py-2 font-semibold ${buttonStyles[variant]}`}
+          >
+            {submitLabel}
+          </button>
+        ) : confirm ? (
+          <span className="flex flex-wrap items-center gap-2" role="group" aria-label={confirm.question}>
+            <span className="text-sm font-semibold">{confirm.question}</span>
+            <SubmitButton label={confirm.yes} variant={variant} />
+            <button type="button" onClick={() => setAsking(false)} className={`whitespace-nowrap rounded-card px-4 py-2 font-semibold ${buttonStyles.quiet}`}>
+              Keep
+            </button>
+          </span>
+        ) : (
+          <SubmitButton label={submitLabel} ariaLabel={submitAriaLabel} variant={variant} />
+        )}
       </form>
     </StateContext.Provider>
   );

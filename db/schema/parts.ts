@@ -32,6 +32,8 @@ export const parts = pgTable(
     chosenPartId: text("chosen_part_id").notNull(),
     keyLabel: text("key_label").notNull().default(""),
     tempo: real("tempo"),
+    /** The player's working tempo (♩ per minute) when they set one; else the part's own tempo is used. */
+    workingTempo: real("working_tempo"),
     measureCount: integer("measure_count").notNull().default(0),
     noteCount: integer("note_count").notNull().default(0),
     /** Keys of the chosen part's markable notes; a marking on any other key is refused. */

@@ -179,6 +179,17 @@ describe("MIDI export", () => {
     expect(Math.round(wide.track.controlChanges[6][0].value * 127)).toBe(12);
   });
 
+  it("plays at the working tempo, every written tempo change scaled by the same factor", () => {
+    // Written ♩ = 120 then 60; a working tempo of 90 is 3/4 of the first: 90 then 45.
+    const slow = parse(renderMidi(part, marked, { workingTempo: 90 }));
+    expect(slow.midi.header.tempos.map((t) => [t.ticks, Math.round(t.bpm)])).toEqual([
+      [0, 90],
+      [3 * 4 * 480, 45],
+    ]);
+    // The first note (4 beats: 2 s at ♩ = 120) lasts 4 × 60 / 90 s at ♩ = 90.
+    expect(slow.track.notes[0].duration).toBeCloseTo((4 * 60) / 90, 3);
+  });
+
   it("plays the part at its tempi with ties merged, grace notes short and the flute program", () => {
     expect(midi.header.tempos.map((t) => [t.ticks, Math.round(t.bpm)])).toEqual([
       [0, 120],

@@ -14,6 +14,28 @@ export interface MidiOptions {
   bendRangeSemitones?: number;
   /** General MIDI program, 0-based (73 = Flute). */
   program?: number;
+  /**
+   * The part's working tempo (♩ per minute): the part plays at it, every written tempo change
+   * scaled by the same factor. Without it, the written tempos (120 where the part has none).
+   */
+  workingTempo?: number | null;
+}
+
+/**
+ * The part as played at the working tempo: every tempo × factor, so every time in seconds ÷ factor
+ * (the model's times are at the written tempi).
+ */
+function atWorkingTempo(part: PartModel, workingTempo: number | null | undefined): PartModel {
+  if (!workingTempo || !(workingTempo > 0)) return part;
+  const first = part.measures.find((m) => m.tempo > 0)?.tempo ?? DEFAULT_TEMPO;
+  const factor = workingTempo / first;
+  if (factor === 1) return part;
+  return {
+    ...part,
+    // A measure without a tempo of its own goes on at the one before (the first at `first`).
+    measures: part.measures.map((m, i) => ({ ...m, startSeconds: m.startSeconds / factor, tempo: m.tempo > 0 ? m.tempo * factor : i === 0 ? first * factor : m.tempo })),
+    notes: part.notes.map((n) => ({ ...n, onsetSeconds: n.onsetSeconds / factor, durationSeconds: n.durationSeconds / factor })),
+  };
 }
 
 const PPQ = 480; // @tonejs/midi's fixed header resolution
@@ -91,6 +113,7 @@ export function renderMidi(
   markings: Map<string, MarkingValues>,
   options: MidiOptions = {},
 ): Uint8Array {
+  part = atWorkingTempo(part, options.workingTempo);
   const semitones = options.bendRangeSemitones ?? 2;
   const program = options.program ?? 73;
   if (!Number.isInteger(semitones) || semitones < 1 || semitones > 24) {

@@ -8,9 +8,9 @@ export const ROLES = ["phrase-start", "peak", "tension", "resolution"] as const;
 
 export const markingValuesSchema = z.object({
   depthCents: z
-    .number({ error: "Depth must be a number of cents." })
-    .min(0, "Depth cannot be below 0 cents.")
-    .max(100, "Depth cannot be above 100 cents."),
+    .number({ error: "Depth must be a number (of ¢)." })
+    .min(0, "Depth cannot be below 0¢.")
+    .max(100, "Depth cannot be above 100¢."),
   speedHz: z
     .number({ error: "Speed must be a number of pulses per second (Hz)." })
     .min(0, "Speed cannot be below 0 Hz.")

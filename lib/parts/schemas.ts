@@ -16,10 +16,17 @@ export const patchPartBody = z
     title: z.string().trim().min(1, "A title cannot be empty.").max(200, "A title can hold at most 200 characters.").optional(),
     composer: z.string().trim().max(200, "A composer name can hold at most 200 characters.").optional(),
     chosenPart: z.string().min(1).max(100).optional(),
+    /** ♩ per minute; null goes back to the part's own tempo. */
+    workingTempo: z
+      .number({ error: "The working tempo must be a number of beats (♩) per minute." })
+      .min(20, "A working tempo is at least ♩ = 20.")
+      .max(300, "A working tempo is at most ♩ = 300.")
+      .nullable()
+      .optional(),
     version: z.number().int().positive().optional(),
   })
-  .refine((b) => b.title !== undefined || b.composer !== undefined || b.chosenPart !== undefined, {
-    message: "Send at least one of title, composer or chosenPart.",
+  .refine((b) => b.title !== undefined || b.composer !== undefined || b.chosenPart !== undefined || b.workingTempo !== undefined, {
+    message: "Send at least one of title, composer, chosenPart or workingTempo.",
   });
 
 export const sampleBody = z.object({ name: z.string().regex(/^[a-z0-9-]+\.(musicxml|mxl)$/, "Unknown sample.") });

@@ -22,14 +22,14 @@ describe("markedNoteRows", () => {
       bar: "2",
       note: "B♭4",
       role: "Peak",
-      depth: "35 ¢",
+      depth: "35¢",
       // 6 Hz at 120 bpm: 6 × 60 / 120 = 3 pulses per beat (arithmetic).
       speed: "6 Hz · 3/beat",
-      placement: "top on pitch",
-      onsetShape: "immediate, growing",
+      placement: "Top on the pitch",
+      onsetShape: "From the start, growing",
       comment: "breathe before",
     });
-    expect(rows[0]).toMatchObject({ bar: "1", note: "D5", depth: "20 ¢", speed: "5.5 Hz · 2.75/beat", placement: "centred" });
+    expect(rows[0]).toMatchObject({ bar: "1", note: "D5", depth: "20¢", speed: "5.5 Hz · 2.75/beat", placement: "Centred on the pitch" });
   });
 
   it("says none for a deliberate no-vibrato, and leaves pulses out without a tempo", () => {

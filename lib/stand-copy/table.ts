@@ -1,3 +1,4 @@
+import { VALUE_WORDS, onsetAndShape } from "@/lib/markings/labels";
 import type { AnalyzedNote } from "@/lib/analysis/types";
 import { noteLabel } from "@/lib/markings/note-labels";
 import { formatNumber, pulsesPerBeat } from "@/lib/markings/pulses";
@@ -41,10 +42,10 @@ export function markedNoteRows(markings: readonly Marked[], notes: readonly Anal
       bar,
       note,
       role: m.role ? ROLE_INFO[m.role].label : "",
-      depth: none ? "none" : `${formatNumber(m.depthCents, 1)} ¢`,
+      depth: none ? "none" : `${formatNumber(m.depthCents, 1)}¢`,
       speed: none ? "–" : `${formatNumber(m.speedHz, 2)} Hz${Number.isFinite(pulses) ? ` · ${formatNumber(pulses, 2)}/beat` : ""}`,
-      placement: none ? "–" : m.placement === "centered" ? "centred" : "top on pitch",
-      onsetShape: none ? "–" : `${m.onset}, ${m.shape}`,
+      placement: none ? "–" : VALUE_WORDS.placement[m.placement],
+      onsetShape: none ? "–" : onsetAndShape(m),
       comment: m.comment.trim(),
     };
   });

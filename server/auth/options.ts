@@ -14,7 +14,7 @@ export const SIGN_IN_FAILED = "E-mail or password is wrong.";
 /** A bcrypt hash of a random string: comparing against it keeps timing equal for unknown accounts. */
 const DUMMY_HASH = "$2b$10$Qd90rXyM/0bQOk9wvpgzt.AsnvksRY3dP3zG9YvwIsySjiCPH5cZu";
 
-const SESSION_MAX_AGE = 30 * 24 * 3600;
+export const SESSION_MAX_AGE = 30 * 24 * 3600;
 
 let cached: NextAuthOptions | undefined;
 

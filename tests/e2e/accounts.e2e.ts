@@ -37,13 +37,15 @@ describe("accounts in the browser", () => {
     await page.getByLabel("Password").fill(password);
     expect(await page.getByRole("radio", { name: /Player/ }).isChecked()).toBe(true);
     await page.getByRole("button", { name: "Create account" }).click();
-    await page.waitForURL((url) => url.pathname === "/sign-in" && url.searchParams.get("registered") === "1");
+    // Signed in at once, in the library.
+    await page.waitForURL((url) => url.pathname === "/parts" && url.searchParams.get("welcome") === "1");
+    expect(await page.getByTestId("signed-in-as").textContent()).toContain(name);
 
     await openMailLink(page, email, /Confirm your e-mail address/, "/verify-email");
     await page.getByRole("button", { name: "Confirm my e-mail address" }).click();
     await page.getByText("Your e-mail address is confirmed.").waitFor();
 
-    await signInThroughForm(page, email, password, "/studio");
+    await page.goto(`${APP_URL}/studio`);
     const header = page.getByTestId("signed-in-as");
     expect(await header.textContent()).toContain(name);
     expect(await header.textContent()).toContain("Player");

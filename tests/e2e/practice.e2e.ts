@@ -122,7 +122,7 @@ describe("the practice page", () => {
     const log = page.getByTestId("practice-log");
     await log.getByLabel("What").selectOption("pulse-trainer");
     await log.getByLabel("Minutes").fill("12");
-    await log.getByLabel("Notes").fill("Climbed to four pulses at 90");
+    await log.getByLabel("Practice notes").fill("Climbed to four pulses at 90");
     await log.getByRole("button", { name: "Add to the log" }).click();
     await log.getByTestId("log-entries").getByText("Climbed to four pulses at 90").waitFor();
     expect(await page.getByTestId("total-minutes").innerText()).toBe("12 minutes in all");
@@ -132,11 +132,11 @@ describe("the practice page", () => {
     await page.getByTestId("log-entries").getByText("Climbed to four pulses at 90").waitFor();
     // A bad entry names its problem and keeps what was typed.
     await page.getByTestId("practice-log").getByLabel("Minutes").fill("0");
-    await page.getByTestId("practice-log").getByLabel("Notes").fill("kept");
+    await page.getByTestId("practice-log").getByLabel("Practice notes").fill("kept");
     await page.getByTestId("practice-log").getByRole("button", { name: "Add to the log" }).click();
     await page.getByTestId("practice-log").getByRole("alert").waitFor();
     expect(await page.getByTestId("practice-log").getByRole("alert").innerText()).toMatch(/minute/i);
-    expect(await page.getByTestId("practice-log").getByLabel("Notes").inputValue()).toBe("kept");
+    expect(await page.getByTestId("practice-log").getByLabel("Practice notes").inputValue()).toBe("kept");
   });
 
   it("fits a phone screen", async () => {

@@ -90,7 +90,7 @@ describe("sharing a part with a teacher", () => {
     await tPanel.getByTestId("comment").filter({ hasText: "Let this note bloom." }).waitFor();
     await tPanel.getByRole("button", { name: "Propose a change to this marking" }).click();
     const form = tPanel.getByTestId("proposal-form");
-    await form.getByLabel("Depth (cents)").fill("35");
+    await form.getByLabel("Depth (¢)").fill("35");
     await form.getByLabel("Role").selectOption("peak");
     await form.getByLabel(/Why/).fill("This is the peak of the phrase.");
     await form.getByRole("button", { name: "Send proposal" }).click();
@@ -146,7 +146,7 @@ describe("sharing a part with a teacher", () => {
     const tPanel2 = t.getByTestId("discussion-panel");
     await tPanel2.getByRole("button", { name: "Propose a change to this marking" }).click();
     const form2 = tPanel2.getByTestId("proposal-form");
-    await form2.getByLabel("Depth (cents)").fill("18");
+    await form2.getByLabel("Depth (¢)").fill("18");
     await form2.getByLabel(/Why/).fill("Lighter, to leave room for the peak.");
     await form2.getByRole("button", { name: "Send proposal" }).click();
     const mine = tPanel2.getByRole("region", { name: "Proposals" }).getByTestId("proposal-card");

@@ -97,7 +97,7 @@ describe("the stand copy", () => {
     await page.locator('[data-score-status="ready"][data-layout="drawn"]').waitFor({ timeout: 60_000 });
     await expect(page.getByTestId("audition-caution").textContent()).resolves.toContain("Audio starts quiet; keep headphone volume moderate.");
     await page.locator(`[data-layer="hits"] [data-note-key="${markedKeys[1]}"]`).click();
-    await page.getByRole("button", { name: "Audition the selected note" }).click();
+    await page.getByRole("button", { name: "Listen to the selected note" }).click();
     await page.getByRole("button", { name: /Stop/ }).and(page.locator(":enabled")).waitFor();
     await page.getByRole("button", { name: /Stop/ }).click();
 

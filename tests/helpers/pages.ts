@@ -18,18 +18,20 @@ export async function openMailLink(page: Page, to: string, subject: RegExp, path
   await page.waitForURL((url) => url.pathname === path);
 }
 
-/** Signs up through the form, confirms the address from the local mailbox and signs in. */
+/** Signs up through the form (which signs in), confirms the address from the local mailbox, opens `callbackUrl`. */
 export async function signUpAndSignIn(page: Page, o: { name: string; email: string; password: string; callbackUrl: string }) {
   await page.goto(`${APP_URL}/sign-up`);
   await page.getByLabel("Name").fill(o.name);
   await page.getByLabel("E-mail").fill(o.email);
   await page.getByLabel("Password").fill(o.password);
   await page.getByRole("button", { name: "Create account" }).click();
-  await page.waitForURL((url) => url.pathname === "/sign-in");
+  // A new account is signed in at once and lands in the library.
+  await page.waitForURL((url) => url.pathname === "/parts" && url.searchParams.get("welcome") === "1");
   await openMailLink(page, o.email, /Confirm your e-mail address/, "/verify-email");
   await page.getByRole("button", { name: "Confirm my e-mail address" }).click();
   await page.getByText("Your e-mail address is confirmed.").waitFor();
-  await signInThroughForm(page, o.email, o.password, o.callbackUrl);
+  await page.goto(`${APP_URL}${o.callbackUrl}`);
+  await page.waitForURL((url) => url.pathname === o.callbackUrl.split("?")[0]);
 }
 
 export interface SideTabsLayout {

@@ -18,7 +18,10 @@ describe("accounts", () => {
       name: "Lio Varenne", email, password: "wave-and-breath-2026", role: "teacher",
     });
     expect(signUp.status).toBe(303);
-    expect(signUp.redirect).toContain("/sign-in?registered=1");
+    // The new account lands signed in, in the library.
+    expect(signUp.redirect).toBe("/parts?welcome=1");
+    expect(anon.hasSession()).toBe(true);
+    expect(await (await anon.fetch("/api/me")).json()).toMatchObject({ email, name: "Lio Varenne", role: "teacher" });
 
     const client = await signIn(email, "wave-and-breath-2026");
     const before = await (await client.fetch("/api/me")).json();

@@ -69,6 +69,27 @@ describe("upload and library", () => {
     expect((await bad.json()).field).toBe("chosenPart");
   });
 
+  it("keeps one working tempo per part: the part's own until the player sets theirs, refused out of range, only by the owner", async () => {
+    const created = await uploadSample(owner, sampleFiles().find((n) => n.endsWith(".musicxml"))!);
+    const patch = (client: ApiClient, body: unknown) =>
+      client.fetch(`/api/parts/${created.id}`, { method: "PATCH", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+    const before = await (await owner.fetch(`/api/parts/${created.id}`)).json();
+    expect(before.workingTempo).toBeNull();
+    expect(before.tempo).toBe(before.writtenTempo);
+
+    const set = await patch(owner, { workingTempo: 66 });
+    expect(set.status).toBe(200);
+    expect(await set.json()).toMatchObject({ tempo: 66, workingTempo: 66, writtenTempo: before.writtenTempo });
+
+    const tooFast = await patch(owner, { workingTempo: 900 });
+    expect(tooFast.status).toBe(400);
+    expect(JSON.stringify(await tooFast.json())).toMatch(/at most ♩ = 300/);
+    expect((await patch(other, { workingTempo: 80 })).status).toBe(404);
+
+    const back = await (await patch(owner, { workingTempo: null })).json();
+    expect(back).toMatchObject({ tempo: before.writtenTempo, workingTempo: null });
+  });
+
   it("answers every hostile file with the reader's own 4xx code through the route", async () => {
     const files = fs.existsSync(HOSTILE_DIR) ? fs.readdirSync(HOSTILE_DIR).filter((n) => !n.endsWith(".md")) : [];
     expect(files.length).toBeGreaterThanOrEqual(10);

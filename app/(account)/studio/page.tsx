@@ -33,7 +33,8 @@ export default async function StudioPage({ searchParams }: { searchParams: Searc
                 <h2 className="text-lg font-semibold">{s.name}</h2>
                 <p className="text-graphite">Teacher: {s.teacherName} ({s.teacherEmail}) · joined {date(s.joinedAt)}</p>
                 <div className="mt-3">
-                  <ActionForm action={leaveStudioAction} inline variant="danger" submitLabel={`Leave ${s.name}`} hidden={{ studioId: s.studioId }} />
+                  <ActionForm action={leaveStudioAction} inline variant="danger" submitLabel={`Leave ${s.name}`} hidden={{ studioId: s.studioId }}
+                    confirm={{ question: `Leave ${s.name}? Joining again takes a new invitation from ${s.teacherName}.`, yes: "Yes, leave" }} />
                 </div>
               </li>
             ))}
@@ -64,7 +65,8 @@ export default async function StudioPage({ searchParams }: { searchParams: Searc
                     <td className="break-all py-3 pr-3">{m.email}</td>
                     <td className="whitespace-nowrap py-3">{date(m.joinedAt)}</td>
                     <td className="py-3 text-right">
-                      <ActionForm action={removeMemberAction} inline variant="danger" submitLabel="Remove" submitAriaLabel={`Remove ${m.name}`} hidden={{ playerId: m.playerId }} />
+                      <ActionForm action={removeMemberAction} inline variant="danger" submitLabel="Remove" submitAriaLabel={`Remove ${m.name}`} hidden={{ playerId: m.playerId }}
+                        confirm={{ question: `Remove ${m.name} from your studio?`, yes: "Yes, remove" }} />
                     </td>
                   </tr>
                 ))}

@@ -9,7 +9,10 @@ export interface PartDetail {
   title: string;
   composer: string;
   keyLabel: string;
+  /** The working tempo (the player's, else the part's own); null when neither exists. */
   tempo: number | null;
+  writtenTempo: number | null;
+  workingTempo: number | null;
   chosenPartId: string;
   parts: { id: string; name: string }[];
   measureCount: number;

@@ -95,7 +95,8 @@ export default async function AdminUsersPage({ searchParams }: { searchParams: S
                         <ActionForm action={setStatusAction} inline variant={u.status === "active" ? "danger" : "quiet"}
                           submitLabel={u.status === "active" ? "Disable" : "Enable"}
                           submitAriaLabel={`${u.status === "active" ? "Disable" : "Enable"} ${u.name}`}
-                          hidden={{ userId: u.id, status: u.status === "active" ? "disabled" : "active" }} />
+                          hidden={{ userId: u.id, status: u.status === "active" ? "disabled" : "active" }}
+                          confirm={u.status === "active" ? { question: `Disable ${u.name}? They are signed out at once and cannot sign in until enabled again.`, yes: "Yes, disable" } : undefined} />
                       </div>
                     )}
                   </td>
