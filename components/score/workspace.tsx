@@ -390,7 +390,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
           <ToolButton onClick={() => actions.zoomBy(0.1)} label="Zoom in">
             +
           </ToolButton>
-          <ToolButton onClick={() => actions.setZoom(fitZoom(scrollerRef.current?.clientWidth ?? 1000))} label="Fit to width">
+          <ToolButton onClick={() => actions.setZoom(fitZoom(scrollerRef.current?.clientWidth ?? 1000))} label="Fit width">
             Fit width
           </ToolButton>
         </div>
