@@ -15,7 +15,8 @@ export interface PhraseMapProps {
   onJump: (noteKey: string) => void;
 }
 
-const H = 44;
+/** Room for the start and peak marks (24 px targets) above a 24 px phrase bar. */
+const H = 48;
 
 /** A strip of the whole part: each phrase a span with its start, peak and end, and the marked notes. */
 /** Memoized: a click on a note re-renders the workspace, and nothing here depends on the selection. */
@@ -28,7 +29,7 @@ export const PhraseMap = memo(function PhraseMap({ noteOrder, phrases, markings,
   return (
     <nav aria-label="Phrase map" className="relative w-full" data-testid="phrase-map">
       <div className="relative" style={{ height: H }}>
-        <div className="absolute inset-x-0 top-[30px] h-px bg-rule" aria-hidden="true" />
+        <div className="absolute inset-x-0 top-[36px] h-px bg-rule" aria-hidden="true" />
         {phrases.map((p, i) => {
           const left = pct(p.start);
           const right = pct(p.end);
@@ -37,10 +38,13 @@ export const PhraseMap = memo(function PhraseMap({ noteOrder, phrases, markings,
               <button
                 type="button"
                 onClick={() => onJump(p.start)}
-                className="absolute inset-x-0 top-[22px] h-4 rounded-sm border border-graphite bg-paper-deep hover:bg-rule"
+                className="group absolute inset-x-0 top-6 h-6"
                 aria-label={`Phrase ${i + 1}: ${labelOf(p.start)} to ${labelOf(p.end)}, peak ${labelOf(p.peak)}`}
                 title={`Phrase ${i + 1}`}
-              />
+              >
+                {/* The bar drawn inside a 24 px tall target (WCAG 2.2 SC 2.5.8). */}
+                <span className="absolute inset-x-0 top-1 h-4 rounded-sm border border-graphite bg-paper-deep group-hover:bg-rule" aria-hidden="true" />
+              </button>
               <Mark at={0} role="phrase-start" label={`Phrase ${i + 1} start, ${labelOf(p.start)}`} onClick={() => onJump(p.start)} />
               <Mark
                 at={right - left > 0 ? ((pct(p.peak) - left) / (right - left)) * 100 : 0}
@@ -48,19 +52,19 @@ export const PhraseMap = memo(function PhraseMap({ noteOrder, phrases, markings,
                 label={`Phrase ${i + 1} peak, ${labelOf(p.peak)}`}
                 onClick={() => onJump(p.peak)}
               />
-              <span className="absolute right-0 top-[20px] h-5 w-[3px] bg-ink" aria-hidden="true" title={`End: ${labelOf(p.end)}`} />
+              <span className="absolute right-0 top-[26px] h-5 w-[3px] bg-ink" aria-hidden="true" title={`End: ${labelOf(p.end)}`} />
             </div>
           );
         })}
+        {/* Where the marked notes are: a picture only, since dots this small (and this close
+            together) cannot be targets a finger can hit; a tap there lands on the phrase. */}
         {marked.map((m) => (
-          <button
+          <span
             key={m.noteKey}
-            type="button"
-            onClick={() => onJump(m.noteKey)}
-            className="absolute top-[38px] h-1.5 w-1.5 -translate-x-1/2 rounded-full bg-ink"
+            className="pointer-events-none absolute top-[41px] h-1.5 w-1.5 -translate-x-1/2 rounded-full bg-ink"
             style={{ left: `${pct(m.noteKey)}%` }}
-            aria-label={`Marked note, ${labelOf(m.noteKey)}`}
-            tabIndex={-1}
+            aria-hidden="true"
+            data-marked-note={m.noteKey}
           />
         ))}
       </div>

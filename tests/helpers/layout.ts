@@ -27,15 +27,17 @@ export interface LayoutMeasure {
   overflowing: string[];
   /** Visible controls smaller than MIN_TARGET in either direction, outside the WCAG exceptions. */
   small: SmallTarget[];
+  /** Boxes inside the page that scroll sideways (a wide table in a scroller, say). */
+  sidewaysScrollers: string[];
 }
 
 /**
  * Measures the page as laid out: the document's width and every visible control smaller than
  * 24×24 CSS px. Exceptions from SC 2.5.8 that apply here: a link inside a sentence ("Inline"),
- * and a control whose size the browser sets ("User agent control" — none are left unstyled, so
- * this is only the native checkbox and radio when wrapped in a label that is itself big enough).
- * Elements inside the engraving (the score's own SVG) and inside `[data-scroll-x]` (the zoomed
- * score may scroll sideways) are not measured for width.
+ * and an input whose label (which works it when clicked) is big enough — the native checkbox and
+ * radio, or a visually hidden file input behind a styled label.
+ * Boxes that scroll sideways inside the page count too, except `[data-scroll-x]`: the score's
+ * scroller, which may when the player zooms in.
  */
 export async function measureLayout(page: Page, minTarget = MIN_TARGET): Promise<LayoutMeasure> {
   // esbuild (tsx) may wrap the inner functions below in its `__name` helper, absent in the page.
@@ -60,9 +62,10 @@ export async function measureLayout(page: Page, minTarget = MIN_TARGET): Promise
       const own = (el.textContent ?? "").replace(/\s+/g, " ").trim();
       return text.length > own.length + 3;
     };
+    // Clicking a control's label works the control, so a big enough label is its target (the
+    // native checkbox, or a visually hidden file input behind a styled label).
     const bigEnoughLabel = (el: Element) => {
-      const input = el as HTMLInputElement;
-      if (el.tagName !== "INPUT" || !["checkbox", "radio"].includes(input.type)) return false;
+      if (el.tagName !== "INPUT") return false;
       const label = el.closest("label") ?? (el.id ? document.querySelector(`label[for="${CSS.escape(el.id)}"]`) : null);
       if (!label) return false;
       const r = label.getBoundingClientRect();
@@ -105,6 +108,14 @@ export async function measureLayout(page: Page, minTarget = MIN_TARGET): Promise
         overflowing.push(`${describe(el)} right=${Math.round(r.right)}`);
       }
     }
-    return { viewportWidth, documentWidth: document.documentElement.scrollWidth, overflowing: overflowing.slice(0, 8), small };
+    const sidewaysScrollers: string[] = [];
+    for (const el of document.body.querySelectorAll("*")) {
+      if (el.closest("[data-scroll-x]") || !visible(el)) continue;
+      const overflowX = getComputedStyle(el).overflowX;
+      if ((overflowX === "auto" || overflowX === "scroll") && el.scrollWidth > el.clientWidth + 1) {
+        sidewaysScrollers.push(`${describe(el)} scrolls ${el.scrollWidth} in ${el.clientWidth}`);
+      }
+    }
+    return { sidewaysScrollers, viewportWidth, documentWidth: document.documentElement.scrollWidth, overflowing: overflowing.slice(0, 8), small };
   }, minTarget);
 }
