@@ -4,6 +4,10 @@ import { config } from "@/lib/config";
 import * as schema from "./schema";
 
 export type Db = NodePgDatabase<typeof schema>;
+/** An open transaction; data-access functions that take one run inside the caller's transaction. */
+export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
+/** The database or an open transaction: what a data-access function reads and writes through. */
+export type Executor = Db | Tx;
 
 const globalForDb = globalThis as unknown as { ondulaPool?: Pool; ondulaDb?: Db };
 
@@ -32,4 +36,9 @@ export async function closeDb(): Promise<void> {
   globalForDb.ondulaPool = undefined;
   globalForDb.ondulaDb = undefined;
   await p?.end();
+}
+
+/** Runs `fn` in one transaction: everything it writes is kept together or not at all. */
+export function transaction<T>(fn: (tx: Tx) => Promise<T>): Promise<T> {
+  return db().transaction(fn);
 }

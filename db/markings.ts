@@ -2,12 +2,10 @@ import "server-only";
 import { and, asc, desc, eq, isNotNull, isNull, sql } from "drizzle-orm";
 import type { MarkingDto, MarkingValues } from "@/lib/markings/schema";
 import { alias } from "drizzle-orm/pg-core";
-import { db, type Db } from "./client";
+import { db, type Executor, type Tx } from "./client";
 import { markingHistory, markings, parts, proposals, users, type Marking } from "./schema";
 
 const proposers = alias(users, "proposers");
-
-type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
 /** A marking as stored in history rows and sent over the wire. */
 export function toMarkingDto(m: Marking): MarkingDto {
@@ -31,8 +29,8 @@ export async function listMarkingsByPartId({ partId }: { partId: string }): Prom
   return rows.map(toMarkingDto);
 }
 
-export async function getMarkingByNoteKey({ partId, noteKey }: { partId: string; noteKey: string }): Promise<MarkingDto | null> {
-  const [row] = await db().select().from(markings).where(and(eq(markings.partId, partId), eq(markings.noteKey, noteKey)));
+export async function getMarkingByNoteKey({ partId, noteKey, tx }: { partId: string; noteKey: string; tx?: Executor }): Promise<MarkingDto | null> {
+  const [row] = await (tx ?? db()).select().from(markings).where(and(eq(markings.partId, partId), eq(markings.noteKey, noteKey)));
   return row ? toMarkingDto(row) : null;
 }
 
@@ -109,8 +107,10 @@ export async function writeMarking(o: {
   actorId: string;
   groupId: string;
   proposalId?: string;
+  /** The caller's transaction, when the write is one step of a larger change. */
+  tx?: Executor;
 }): Promise<WriteResult> {
-  return db().transaction(async (tx) => {
+  return (o.tx ?? db()).transaction(async (tx) => {
     await lockPart(tx, o.partId);
     const current = await currentMarking(tx, o.partId, o.noteKey);
     const matches = current ? current.version === o.expectedVersion : o.expectedVersion === undefined;

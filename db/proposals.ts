@@ -2,7 +2,7 @@ import "server-only";
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
 import type { MarkingValues } from "@/lib/markings/schema";
 import type { ProposalDto, ProposalStatus } from "@/lib/sharing/dto";
-import { db } from "./client";
+import { db, type Executor } from "./client";
 
 export type { ProposalDto, ProposalStatus };
 import { proposals, users, type Proposal } from "./schema";
@@ -59,8 +59,8 @@ export async function listProposalsByPartId({ partId, noteKey, statuses }: {
   return rows.map(toDto);
 }
 
-export async function getProposalById({ partId, proposalId }: { partId: string; proposalId: string }): Promise<ProposalDto | null> {
-  const [row] = await db()
+export async function getProposalById({ partId, proposalId, tx }: { partId: string; proposalId: string; tx?: Executor }): Promise<ProposalDto | null> {
+  const [row] = await (tx ?? db())
     .select(columns)
     .from(proposals)
     .innerJoin(users, eq(users.id, proposals.authorId))
@@ -72,13 +72,14 @@ export async function getProposalById({ partId, proposalId }: { partId: string; 
  * Moves a proposal from one of `from` to `to`. The guard makes the first decision win when two
  * windows decide at once; null means it had already been decided.
  */
-export async function transitionProposal({ proposalId, from, to, reply }: {
+export async function transitionProposal({ proposalId, from, to, reply, tx }: {
   proposalId: string;
   from: ProposalStatus[];
   to: ProposalStatus;
   reply?: string | null;
+  tx?: Executor;
 }): Promise<Proposal | null> {
-  const [row] = await db()
+  const [row] = await (tx ?? db())
     .update(proposals)
     .set({ status: to, decidedAt: to === "open" ? null : new Date(), ...(reply !== undefined ? { reply } : {}) })
     .where(and(eq(proposals.id, proposalId), inArray(proposals.status, from)))

@@ -2,6 +2,7 @@ import { asc, count, desc, eq, ilike, or, sql, type SQL } from "drizzle-orm";
 import type { Role } from "@/lib/auth/types";
 import { db } from "./client";
 import { users, type User } from "./schema";
+import type { UserSort } from "@/lib/accounts/user-list";
 
 const byEmail = (email: string) => sql`lower(${users.email}) = ${email.trim().toLowerCase()}`;
 
@@ -66,8 +67,6 @@ export async function setUserStatus({ userId, status }: { userId: string; status
     .where(eq(users.id, userId));
 }
 
-export const USER_SORTS = ["name", "email", "role", "status", "created"] as const;
-export type UserSort = (typeof USER_SORTS)[number];
 
 const sortColumn = { name: users.name, email: users.email, role: users.role, status: users.status, created: users.createdAt };
 

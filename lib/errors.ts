@@ -34,13 +34,26 @@ export interface ErrorBody {
   message: string;
   field?: string;
   details?: unknown;
+  /** On a conflict, the resource as it is now, so the client can show it beside the refused change. */
+  current?: unknown;
+  /** Other state sent with a conflict (e.g. the proposal that just went stale). */
+  [state: string]: unknown;
 }
 
 export class AppError extends Error {
   constructor(
     readonly code: ErrorCode,
     message: string,
-    readonly extra: { field?: string; details?: unknown; headers?: Record<string, string> } = {},
+    readonly extra: {
+      field?: string;
+      details?: unknown;
+      /**
+       * A conflict's state as it is now (`current`: the resource the refused change was made
+       * against), sent beside the code so the client can show both and let the person choose.
+       */
+      state?: { current: unknown } & Record<string, unknown>;
+      headers?: Record<string, string>;
+    } = {},
   ) {
     super(message);
     this.name = "AppError";
@@ -51,14 +64,10 @@ export class AppError extends Error {
   }
 
   toBody(): ErrorBody {
-    return { code: this.code, message: this.message, field: this.extra.field, details: this.extra.details };
+    return { ...this.extra.state, code: this.code, message: this.message, field: this.extra.field, details: this.extra.details };
   }
 
   toResponse(): Response {
     return Response.json(this.toBody(), { status: this.status, headers: this.extra.headers });
   }
-}
-
-export function statusForCode(code: string): number {
-  return STATUS[code.split(":")[0] as ErrorKind] ?? 400;
 }

@@ -4,11 +4,11 @@ import { after } from "next/server";
 import { z } from "zod";
 import {
   requestPasswordReset, resetPassword, sendVerification, signUp, verifyEmail,
-} from "@/lib/accounts/registration";
+} from "@/server/accounts/registration";
 import { newPasswordSchema } from "@/lib/auth/password-rules";
-import { admitSignInLinkRequest, sendSignInLink, SIGN_IN_LINK_SENT } from "@/lib/auth/sign-in-link";
+import { admitSignInLinkRequest, sendSignInLink, SIGN_IN_LINK_SENT } from "@/server/auth/sign-in-link";
 import { AppError } from "@/lib/errors";
-import { defineAction } from "@/lib/http/action";
+import { defineAction } from "@/server/http/action";
 import { clientAddress } from "@/lib/http/client-address";
 import { safeCallbackPath } from "@/lib/http/safe-redirect";
 

@@ -1,11 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import type { AssignmentDto, AssignmentListDto, CreateAssignmentBody, PatchAssignmentBody } from "@/lib/assignments/schema";
-import { ApiError, fetchJson, partUrl } from "@/components/score/api/fetch-json";
-import { sharingKeys } from "@/components/sharing/api";
-
-export const assignmentKeys = {
-  list: (partId: string) => ["parts", partId, "assignments"] as const,
-};
+import { ApiError, fetchJson, partUrl } from "@/components/client/fetch-json";
+import { assignmentKeys, notificationKeys } from "@/components/client/keys";
 
 export const assignmentsQueryOptions = (partId: string) =>
   queryOptions({ queryKey: assignmentKeys.list(partId), queryFn: () => fetchJson<AssignmentListDto>(`${partUrl(partId)}/assignments`) });
@@ -48,7 +44,7 @@ export function useReadAssignmentNotifications(partId: string) {
   return useMutation({
     mutationFn: () => fetchJson<{ updated: number }>(`/api/notifications/read`, { method: "POST", body: JSON.stringify({ partId, kind: "assignment" }) }),
     onSuccess: (r) => {
-      if (r.updated > 0) client.invalidateQueries({ queryKey: sharingKeys.allNotifications });
+      if (r.updated > 0) client.invalidateQueries({ queryKey: notificationKeys.all });
     },
   });
 }

@@ -2,7 +2,7 @@
 
 import { useId, useState, type FormEvent } from "react";
 import { ASSIGNMENT_DRILLS, DRILL_LABELS, INSTRUCTIONS_MAX_LENGTH, MINUTES_PER_DAY_MAX, type AssignmentDrill, type AssignmentDto } from "@/lib/assignments/schema";
-import { ApiError } from "@/components/score/api/fetch-json";
+import { ApiError } from "@/components/client/fetch-json";
 import { fieldClass, inputClass, selectClass } from "@/components/ui/styles";
 import { conflictCurrent, useCreateAssignment, useUpdateAssignment } from "./api";
 

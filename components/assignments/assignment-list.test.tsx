@@ -3,7 +3,7 @@ import { cleanup, fireEvent, render, screen, waitFor, within } from "@testing-li
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { addDays, localIsoDate } from "@/lib/assignments/due";
 import type { AssignmentDto, AssignmentListDto } from "@/lib/assignments/schema";
-import { assignmentKeys } from "./api";
+import { assignmentKeys } from "@/components/client/keys";
 import { PracticeAssignments } from "./assignment-list";
 
 afterEach(() => {

@@ -3,7 +3,7 @@
 import { useEffect, useRef, useState } from "react";
 import { arrangeAssignments, dueStatus, type DueStatus } from "@/lib/assignments/due";
 import { DRILL_LABELS, type AssignmentDto } from "@/lib/assignments/schema";
-import { ApiError } from "@/components/score/api/fetch-json";
+import { ApiError } from "@/components/client/fetch-json";
 import { useAssignments, useDeleteAssignment, useReadAssignmentNotifications, useUpdateAssignment } from "./api";
 import { AssignmentForm, type NoteOption } from "./assignment-form";
 import { useToday } from "./use-today";

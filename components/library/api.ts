@@ -5,6 +5,8 @@ import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient }
 export type { ListedPart } from "@/lib/parts/dto";
 import type { ListedPart } from "@/lib/parts/dto";
 import type { MarkingImport } from "@/lib/parts/import-report";
+import { ApiError, fetchJson, jsonRequest } from "@/components/client/fetch-json";
+import { partKeys } from "@/components/client/keys";
 
 export interface PartListPage {
   items: ListedPart[];
@@ -19,38 +21,10 @@ export interface ListParams {
   page: number;
 }
 
-/** An error from our API: `{ code, message, field? }`. */
-export class ApiError extends Error {
-  constructor(readonly status: number, readonly code: string, message: string, readonly field?: string, readonly body?: unknown) {
-    super(message);
-  }
-}
-
-export async function apiFetch<T>(input: string, init?: RequestInit): Promise<T> {
-  let res: Response;
-  try {
-    res = await fetch(input, { ...init, headers: { accept: "application/json", ...(init?.headers ?? {}) } });
-  } catch {
-    throw new ApiError(0, "unavailable:offline", "Ondula cannot be reached. Check your connection; nothing was lost.");
-  }
-  const body = await res.json().catch(() => null);
-  if (!res.ok) {
-    throw new ApiError(res.status, body?.code ?? "unavailable:server", body?.message ?? `The server answered ${res.status}.`, body?.field, body);
-  }
-  return body as T;
-}
-
-export const partKeys = {
-  all: ["parts"] as const,
-  list: (p: ListParams) => ["parts", "list", p] as const,
-  detail: (partId: string) => ["parts", "detail", partId] as const,
-  samples: () => ["parts", "samples"] as const,
-};
-
 export const partListOptions = (p: ListParams) =>
   queryOptions({
     queryKey: partKeys.list(p),
-    queryFn: () => apiFetch<PartListPage>(`/api/parts?${new URLSearchParams({ query: p.query, sort: p.sort, page: String(p.page) })}`),
+    queryFn: () => fetchJson<PartListPage>(`/api/parts?${new URLSearchParams({ query: p.query, sort: p.sort, page: String(p.page) })}`),
     placeholderData: keepPreviousData,
   });
 
@@ -59,14 +33,14 @@ export function usePartList(p: ListParams) {
 }
 
 export function useSamples() {
-  return useQuery({ queryKey: partKeys.samples(), queryFn: () => apiFetch<{ samples: string[] }>("/api/parts/samples") });
+  return useQuery({ queryKey: partKeys.samples(), queryFn: () => fetchJson<{ samples: string[] }>("/api/parts/samples") });
 }
 
 export function useRenamePart() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: ({ partId, title }: { partId: string; title: string }) =>
-      apiFetch(`/api/parts/${partId}`, { method: "PATCH", headers: { "content-type": "application/json" }, body: JSON.stringify({ title }) }),
+      fetchJson(`/api/parts/${partId}`, jsonRequest("PATCH", { title })),
     onSettled: () => qc.invalidateQueries({ queryKey: partKeys.all }),
   });
 }
@@ -74,7 +48,7 @@ export function useRenamePart() {
 export function useDeletePart() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (partId: string) => apiFetch(`/api/parts/${partId}`, { method: "DELETE" }),
+    mutationFn: (partId: string) => fetchJson(`/api/parts/${partId}`, { method: "DELETE" }),
     onSettled: () => qc.invalidateQueries({ queryKey: partKeys.all }),
   });
 }
@@ -83,7 +57,7 @@ export function useChoosePart() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: ({ partId, chosenPart }: { partId: string; chosenPart: string }) =>
-      apiFetch(`/api/parts/${partId}`, { method: "PATCH", headers: { "content-type": "application/json" }, body: JSON.stringify({ chosenPart }) }),
+      fetchJson(`/api/parts/${partId}`, jsonRequest("PATCH", { chosenPart })),
     onSettled: () => qc.invalidateQueries({ queryKey: partKeys.all }),
   });
 }
@@ -92,7 +66,7 @@ export function useTrySample() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (name: string) =>
-      apiFetch<UploadResult>("/api/parts/samples", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ name }) }),
+      fetchJson<UploadResult>("/api/parts/samples", jsonRequest("POST", { name })),
     onSettled: () => qc.invalidateQueries({ queryKey: partKeys.all }),
   });
 }
@@ -115,7 +89,7 @@ export function uploadPart(file: File, onProgress: (fraction: number) => void, o
     xhr.onload = () => {
       const body = xhr.response;
       if (xhr.status === 201) resolve(body as UploadResult);
-      else reject(new ApiError(xhr.status, body?.code ?? "unavailable:server", body?.message ?? `The server answered ${xhr.status}.`));
+      else reject(ApiError.fromAnswer(xhr.status, body));
     };
     xhr.onerror = () => reject(new ApiError(0, "unavailable:offline", "The upload was interrupted. Check your connection and try again."));
     const form = new FormData();

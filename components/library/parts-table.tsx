@@ -2,9 +2,10 @@
 
 import Link from "next/link";
 import { useEffect, useState } from "react";
+import { useUnreadByPart } from "@/components/client/notifications";
 import { MenuButton } from "@/components/ui/menu-button";
 import { selectClass } from "@/components/ui/styles";
-import { PartUnreadBadge } from "@/components/sharing/unread-badge";
+import { UnreadBadge } from "@/components/ui/unread-badge";
 import { usePartList, useDeletePart, useRenamePart, type ListedPart } from "./api";
 
 /**
@@ -247,4 +248,10 @@ function PartRow({ part }: { part: ListedPart }) {
       </td>
     </tr>
   );
+}
+
+/** The library's badge for one part, from one shared request for all parts. */
+function PartUnreadBadge({ partId }: { partId: string }) {
+  const counts = useUnreadByPart();
+  return <UnreadBadge count={counts[partId] ?? 0} className="ml-2" />;
 }

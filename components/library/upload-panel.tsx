@@ -4,7 +4,9 @@ import { useRouter } from "next/navigation";
 import { useId, useRef, useState } from "react";
 import { useQueryClient } from "@tanstack/react-query";
 import { describeMarkingImport } from "@/lib/parts/import-report";
-import { ApiError, partKeys, uploadPart, useChoosePart, useSamples, useTrySample, type UploadResult } from "./api";
+import { ApiError } from "@/components/client/fetch-json";
+import { partKeys } from "@/components/client/keys";
+import { uploadPart, useChoosePart, useSamples, useTrySample, type UploadResult } from "./api";
 
 type UploadState =
   | { phase: "idle" }

@@ -1,11 +1,8 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import type { PracticeEntryBody, PracticeEntryDto, PracticeLogDto, TakeBody, TakeDto } from "@/lib/practice/schema";
-import { fetchJson, partUrl } from "@/components/score/api/fetch-json";
+import { fetchJson, partUrl } from "@/components/client/fetch-json";
+import { practiceKeys } from "@/components/client/keys";
 
-export const practiceKeys = {
-  log: (partId: string) => ["parts", partId, "practice"] as const,
-  takes: (partId: string) => ["parts", partId, "takes"] as const,
-};
 
 export const practiceLogQueryOptions = (partId: string) =>
   queryOptions({ queryKey: practiceKeys.log(partId), queryFn: () => fetchJson<PracticeLogDto>(`${partUrl(partId)}/practice`) });

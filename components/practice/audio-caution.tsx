@@ -1,4 +1,4 @@
-import { AUDITION_CAUTION } from "@/components/score/audition-control";
+import { AUDITION_CAUTION } from "@/lib/practice/cautions";
 import { MAX_VOLUME } from "@/lib/export/audition";
 
 /** The product's caution beside every sound control (the same words as the workspace's audition). */

@@ -2,7 +2,7 @@
 
 import { useState, type FormEvent } from "react";
 import { PRACTICE_KIND_LABELS, PRACTICE_KINDS, type PracticeKind } from "@/lib/practice/schema";
-import { ApiError } from "@/components/score/api/fetch-json";
+import { ApiError } from "@/components/client/fetch-json";
 import { selectClass, inputClass, fieldClass } from "@/components/ui/styles";
 import { useAddPracticeEntry, usePracticeLog } from "./api";
 import { Button, fmt, Section } from "./ui";

@@ -4,7 +4,7 @@ import { useEffect, useRef, useState } from "react";
 import { midiToHz } from "@/lib/analysis/vibrato";
 import { analyseTake, type TakeAnalysis } from "@/lib/practice/take-analysis";
 import type { TakeDto } from "@/lib/practice/schema";
-import { ApiError } from "@/components/score/api/fetch-json";
+import { ApiError } from "@/components/client/fetch-json";
 import { useSaveTake, useTakes } from "./api";
 import { ContourPlot } from "./contour-plot";
 import { startRecording, type Recording } from "./recorder";

@@ -15,7 +15,8 @@ vi.mock("@/lib/export/audition", async (original) => ({
 // jsdom has no Web Audio; the control only needs a context to hand over.
 vi.stubGlobal("AudioContext", class { state = "running"; resume = async () => {}; close = async () => {}; });
 
-const { AuditionControl, AUDITION_CAUTION } = await import("./audition-control");
+const { AuditionControl } = await import("./audition-control");
+const { AUDITION_CAUTION } = await import("@/lib/practice/cautions");
 const { DEFAULT_VOLUME } = await import("@/lib/export/audition");
 
 const note = (m: number, onset: string, midi: number): AnalyzedNote => ({ key: `P1:m${m}:s1:v1:${onset}:${midi}`, measure: String(m + 1), pitch: "C4", midi, onset, duration: "1/2", degree: null });

@@ -5,6 +5,7 @@ import type { AnalyzedNote, PhraseResult } from "@/lib/analysis/types";
 import { auditionNotes, DEFAULT_VOLUME, MAX_VOLUME, type AuditionHandle } from "@/lib/export/audition";
 import { phraseAround, planAuditionNotes } from "@/lib/markings/audition-plan";
 import type { MarkingValues } from "@/lib/markings/schema";
+import { AUDITION_CAUTION } from "@/lib/practice/cautions";
 
 export interface AuditionControlProps {
   /** The selected notes (score order is restored from the analysis). */
@@ -15,7 +16,6 @@ export interface AuditionControlProps {
   tempo: number | null;
 }
 
-export const AUDITION_CAUTION = "Audio starts quiet; keep headphone volume moderate.";
 
 /**
  * Plays the selection (or the phrase around one selected note) with the marked vibrato. The level

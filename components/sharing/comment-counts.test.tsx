@@ -2,13 +2,14 @@ import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { renderHook } from "@testing-library/react";
 import type { ReactNode } from "react";
 import { describe, expect, it } from "vitest";
-import { sharingKeys, useCommentCounts } from "./api";
+import { commentKeys } from "@/components/client/keys";
+import { useCommentCounts } from "./api";
 
 const PART = "part-1";
 
 function setup(threads: { threadKey: string; count: number; unresolved: boolean; openProposals: number }[]) {
   const client = new QueryClient({ defaultOptions: { queries: { retry: false, staleTime: Infinity, refetchInterval: false } } });
-  client.setQueryData(sharingKeys.summary(PART), { threads });
+  client.setQueryData(commentKeys.summary(PART), { threads });
   const wrapper = ({ children }: { children: ReactNode }) => <QueryClientProvider client={client}>{children}</QueryClientProvider>;
   return { client, ...renderHook(() => useCommentCounts(PART), { wrapper }) };
 }
@@ -30,7 +31,7 @@ describe("useCommentCounts", () => {
     const first = result.current;
     rerender();
     expect(result.current).toBe(first);
-    client.setQueryData(sharingKeys.summary(PART), { threads: [{ threadKey: "K1", count: 2, unresolved: true, openProposals: 0 }] });
+    client.setQueryData(commentKeys.summary(PART), { threads: [{ threadKey: "K1", count: 2, unresolved: true, openProposals: 0 }] });
     rerender();
     expect(result.current).not.toBe(first);
     expect(result.current).toEqual({ K1: 2 });

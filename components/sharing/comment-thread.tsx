@@ -2,7 +2,8 @@
 
 import { useEffect, useId, useState } from "react";
 import { COMMENT_MAX_LENGTH } from "@/lib/sharing/comment-text";
-import { useDeleteComment, useEditComment, useMarkRead, usePostComment, useResolveThread, useThread, type CommentItem } from "./api";
+import { useMarkRead } from "@/components/client/notifications";
+import { useDeleteComment, useEditComment, usePostComment, useResolveThread, useThread, type CommentItem } from "./api";
 import { formatWhen } from "./format";
 
 export interface CommentThreadProps {

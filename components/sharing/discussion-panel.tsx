@@ -3,8 +3,8 @@
 import { useState } from "react";
 import type { MarkingDto } from "@/lib/markings/schema";
 import { PART_THREAD } from "@/lib/sharing/schemas";
-import { AssignOnNote } from "@/components/assignments/assign-on-note";
-import { useNotifications, useProposals } from "./api";
+import { useNotifications } from "@/components/client/notifications";
+import { useProposals } from "./api";
 import { CommentThread } from "./comment-thread";
 import { formatWhen } from "./format";
 import { ProposalCard, ProposalForm } from "./proposal-card";
@@ -23,6 +23,8 @@ export interface DiscussionPanelProps {
   labelOf: (noteKey: string) => string;
   /** Selects and shows a note on the score. */
   onShowNote?: (noteKey: string) => void;
+  /** What a student sees of the practice set on the note (the screen composing this panel supplies it). */
+  renderNotePractice?: (noteKey: string, label: string) => React.ReactNode;
 }
 
 /**
@@ -64,7 +66,7 @@ function ScopeButton({ children, pressed, disabled, onClick }: { children: React
   );
 }
 
-function NoteDiscussion({ partId, permission, viewerId, noteKey, currentMarking, labelOf }: DiscussionPanelProps & { noteKey: string }) {
+function NoteDiscussion({ partId, permission, viewerId, noteKey, currentMarking, labelOf, renderNotePractice }: DiscussionPanelProps & { noteKey: string }) {
   const proposals = useProposals(partId);
   const [proposing, setProposing] = useState(false);
   const label = labelOf(noteKey);
@@ -94,7 +96,7 @@ function NoteDiscussion({ partId, permission, viewerId, noteKey, currentMarking,
           </button>
         )
       ) : null}
-      {permission !== "owner" ? <AssignOnNote partId={partId} noteKey={noteKey} label={label} /> : null}
+      {permission !== "owner" && renderNotePractice ? renderNotePractice(noteKey, label) : null}
       <CommentThread partId={partId} threadKey={noteKey} label={label} viewerId={viewerId} canComment />
       {decided.length > 0 ? (
         <details className="text-sm">

@@ -5,7 +5,7 @@ import {
   DEFAULT_MARKING, ONSETS, PLACEMENTS, ROLES, SHAPES, markingValuesSchema, type MarkingDto, type MarkingValues,
 } from "@/lib/markings/schema";
 import { COMMENT_MAX_LENGTH } from "@/lib/sharing/comment-text";
-import { ApiError } from "@/components/library/api";
+import { ApiError } from "@/components/client/fetch-json";
 import { useAcceptProposal, useCreateProposal, useDeclineProposal, useWithdrawProposal, type ProposalItem } from "./api";
 import { formatWhen } from "./format";
 

@@ -1,7 +1,7 @@
 "use client";
 
 import { useId, useRef, useState } from "react";
-import { ApiError } from "@/components/library/api";
+import { ApiError } from "@/components/client/fetch-json";
 import { useChangePermission, useInvite, useResend, useRevoke, useShares, type ShareItem, type SharePermission } from "./api";
 import { PERMISSION_LABEL, formatWhen } from "./format";
 

@@ -3,7 +3,7 @@
 import Link from "next/link";
 import { useSharedWithMe } from "./api";
 import { PERMISSION_LABEL, formatWhen } from "./format";
-import { UnreadBadge } from "./unread-badge";
+import { UnreadBadge } from "@/components/ui/unread-badge";
 
 /**
  * For a teacher's studio page: parts students shared with them, grouped by student, the ones

@@ -1,15 +1,24 @@
 import Link from "next/link";
-import { SignOutButton } from "@/components/auth/sign-out-button";
 import { ActionForm } from "@/components/ui/action-form";
-import { resendVerificationAction } from "@/app/(auth)/actions";
-import { getCurrentUser } from "@/lib/auth/session";
+import type { ActionState } from "@/lib/http/action-state";
+import type { CurrentUser } from "@/lib/auth/types";
 
 const ROLE_LABEL = { player: "Player", teacher: "Teacher", admin: "Admin" } as const;
 
-/** Who is signed in and their role, the links their role may use, and sign-out. */
-export async function SiteHeader() {
-  // The header must never take a page down: without the database it shows the signed-out links.
-  const user = await getCurrentUser().catch(() => null);
+/**
+ * Who is signed in and their role, the links their role may use, and sign-out. The root layout
+ * resolves the session and hands over the sign-out button and the server action that sends the
+ * confirmation again (a shared piece imports no feature and no route).
+ */
+export function SiteHeader({
+  user,
+  signOutButton,
+  resendVerificationAction,
+}: {
+  user: CurrentUser | null;
+  signOutButton: React.ReactNode;
+  resendVerificationAction: (state: ActionState, form: FormData) => Promise<ActionState>;
+}) {
   return (
     <header className="no-print border-b border-rule bg-paper">
       <nav aria-label="Main" className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-gutter py-3">
@@ -33,7 +42,7 @@ export async function SiteHeader() {
                 {ROLE_LABEL[user.role]}
               </span>
             </span>
-            <SignOutButton />
+            {signOutButton}
           </>
         ) : (
           <>

@@ -1,11 +1,11 @@
 "use server";
 
 import { z } from "zod";
-import { updateUserProfile } from "@/db/users";
-import { changePassword } from "@/lib/accounts/registration";
+import { updateProfile } from "@/server/accounts/profile";
+import { changePassword } from "@/server/accounts/registration";
 import { newPasswordSchema } from "@/lib/auth/password-rules";
 import { assertCan } from "@/lib/auth/policy";
-import { defineAction, formCheckbox } from "@/lib/http/action";
+import { defineAction, formCheckbox } from "@/server/http/action";
 
 export const updateProfileAction = defineAction({
   name: "updateProfile",
@@ -15,8 +15,7 @@ export const updateProfileAction = defineAction({
     emailNotifications: formCheckbox,
   }),
   run: async ({ input, user }) => {
-    assertCan(user, "account:edit", { type: "account", account: { id: user.id } });
-    await updateUserProfile({ userId: user.id, name: input.name, emailNotifications: input.emailNotifications });
+    await updateProfile(user, input);
     return { message: "Saved.", revalidate: ["/settings"] };
   },
 });

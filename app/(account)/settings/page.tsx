@@ -1,9 +1,9 @@
 import type { Metadata } from "next";
-import { getUserById } from "@/db/users";
+import { getProfile } from "@/server/accounts/profile";
 import { ActionForm, Checkbox, Field } from "@/components/ui/action-form";
 import { PageShell, Panel } from "@/components/ui/page-shell";
 import { PASSWORD_MIN_LENGTH } from "@/lib/auth/password-rules";
-import { requirePageUser } from "@/lib/auth/require-page-user";
+import { requirePageUser } from "@/server/auth/require-page-user";
 import { resendVerificationAction } from "../../(auth)/actions";
 import { changePasswordAction, updateProfileAction } from "./actions";
 
@@ -11,7 +11,7 @@ export const metadata: Metadata = { title: "Settings" };
 
 export default async function SettingsPage() {
   const user = await requirePageUser("/settings");
-  const row = (await getUserById({ userId: user.id }))!;
+  const row = await getProfile(user);
   return (
     <PageShell title="Settings" lead={<>Signed in as <strong>{user.email}</strong> ({user.role}).</>}>
       <Panel title="Profile" id="profile">

@@ -1,8 +1,8 @@
 "use server";
 
 import { z } from "zod";
-import { inviteToStudio, joinStudio, leaveStudio, removeMember } from "@/lib/accounts/studio";
-import { defineAction } from "@/lib/http/action";
+import { inviteToStudio, joinStudio, leaveStudio, removeMember } from "@/server/accounts/studio";
+import { defineAction } from "@/server/http/action";
 
 export const inviteAction = defineAction({
   name: "inviteToStudio",

@@ -1,15 +1,11 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { listOpenInvitations, listStudioMembers, listStudiosByPlayerId } from "@/db/studios";
-import { listPracticeProgressForTeacher } from "@/db/assignments";
 import { PracticeProgress } from "@/components/assignments/practice-progress";
-import { utcIsoDate } from "@/lib/assignments/due";
-import { groupProgressByStudent, progressWindowStart } from "@/lib/assignments/progress";
 import { ActionForm, Field } from "@/components/ui/action-form";
 import { SharedWithMe } from "@/components/sharing/shared-with-me";
 import { Notice, PageShell, Panel } from "@/components/ui/page-shell";
-import { ownStudio } from "@/lib/accounts/studio";
-import { requirePageUser } from "@/lib/auth/require-page-user";
+import { listMyStudios, loadOwnStudio } from "@/server/accounts/studio";
+import { requirePageUser } from "@/server/auth/require-page-user";
 import { inviteAction, leaveStudioAction, removeMemberAction } from "./actions";
 
 export const metadata: Metadata = { title: "Studio" };
@@ -24,7 +20,7 @@ export default async function StudioPage({ searchParams }: { searchParams: Searc
   if (user.role === "admin") notFound();
 
   if (user.role === "player") {
-    const studios = await listStudiosByPlayerId({ playerId: user.id });
+    const studios = await listMyStudios(user);
     return (
       <PageShell title="Your studios" lead="The teachers whose studios you belong to.">
         {joined ? <Notice>You joined the studio.</Notice> : null}
@@ -47,19 +43,12 @@ export default async function StudioPage({ searchParams }: { searchParams: Searc
     );
   }
 
-  const studio = await ownStudio(user);
-  const now = new Date();
-  const [members, invitations, progress] = await Promise.all([
-    listStudioMembers({ studioId: studio.id }),
-    listOpenInvitations({ studioId: studio.id }),
-    // The server's calendar is UTC: a due date counts as passed once the UTC day has moved on.
-    listPracticeProgressForTeacher({ teacherId: user.id, today: utcIsoDate(now), since: progressWindowStart(now) }),
-  ]);
+  const { studio, members, invitations, students } = await loadOwnStudio(user);
   return (
     <PageShell width="wide" title={studio.name} lead="Your students, and the invitations still open.">
       {joined ? <Notice>You joined the studio.</Notice> : null}
       <SharedWithMe />
-      <PracticeProgress students={groupProgressByStudent(progress)} />
+      <PracticeProgress students={students} />
       <div className="grid gap-8 lg:grid-cols-[2fr_1fr]">
         <Panel title={`Members (${members.length})`} id="members">
           {members.length === 0 ? <p className="text-graphite">No students yet. Invite them by e-mail.</p> : (

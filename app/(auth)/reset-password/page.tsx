@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { peekToken } from "@/db/tokens";
+import { checkEmailLink } from "@/server/accounts/registration";
 import { ActionForm, Field } from "@/components/ui/action-form";
 import { Notice, PageShell, Panel } from "@/components/ui/page-shell";
 import { PASSWORD_MIN_LENGTH } from "@/lib/auth/password-rules";
@@ -12,7 +12,7 @@ type Search = Promise<Record<string, string | string[] | undefined>>;
 
 export default async function ResetPasswordPage({ searchParams }: { searchParams: Search }) {
   const token = (await searchParams).token;
-  const peek = typeof token === "string" && token.length <= 200 ? await peekToken({ purpose: "reset_password", token }) : { state: "unknown" as const };
+  const peek = await checkEmailLink("reset_password", token);
   return (
     <PageShell title="Choose a new password">
       {peek.state === "valid" ? (

@@ -4,7 +4,7 @@ import { redirect } from "next/navigation";
 import { SignInForm } from "@/components/auth/sign-in-form";
 import { ActionForm, Field } from "@/components/ui/action-form";
 import { Notice, PageShell, Panel } from "@/components/ui/page-shell";
-import { getCurrentUser } from "@/lib/auth/session";
+import { getCurrentUser } from "@/server/auth/session";
 import { safeCallbackPath } from "@/lib/http/safe-redirect";
 import { requestSignInLinkAction } from "../actions";
 

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { peekToken } from "@/db/tokens";
+import { checkEmailLink } from "@/server/accounts/registration";
 import { ActionForm } from "@/components/ui/action-form";
 import { Notice, PageShell, Panel } from "@/components/ui/page-shell";
 import { verifyEmailAction } from "../actions";
@@ -12,12 +12,12 @@ type Search = Promise<Record<string, string | string[] | undefined>>;
 /** Confirming takes a click: mail scanners that open links must not use the token up. */
 export default async function VerifyEmailPage({ searchParams }: { searchParams: Search }) {
   const token = (await searchParams).token;
-  const peek = typeof token === "string" && token.length <= 200 ? await peekToken({ purpose: "verify_email", token }) : { state: "unknown" as const };
+  const peek = await checkEmailLink("verify_email", token);
   return (
     <PageShell title="Confirm your e-mail address">
       {peek.state === "valid" ? (
         <Panel>
-          <p className="mb-4">Confirm that <strong>{peek.row.email}</strong> is your address.</p>
+          <p className="mb-4">Confirm that <strong>{peek.email}</strong> is your address.</p>
           <ActionForm action={verifyEmailAction} submitLabel="Confirm my e-mail address" hidden={{ token: token as string }} />
         </Panel>
       ) : peek.state === "used" ? (

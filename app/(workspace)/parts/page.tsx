@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { redirect } from "next/navigation";
-import { getCurrentUser } from "@/lib/auth/session";
+import { getCurrentUser } from "@/server/auth/session";
 import { PartsTable } from "@/components/library/parts-table";
 import { UploadPanel } from "@/components/library/upload-panel";
 

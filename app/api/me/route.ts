@@ -1,4 +1,4 @@
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { handle } from "@/lib/http/handler";
 
 export const dynamic = "force-dynamic";

@@ -1,16 +1,11 @@
 import { handle } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
-import { groupByStudent } from "@/lib/sharing/attention";
-import { listSharedPartsForViewer } from "@/db/shares";
+import { requireUser } from "@/server/auth/session";
+import { listSharedParts } from "@/server/sharing";
 
 export const dynamic = "force-dynamic";
 
-/**
- * Parts other people shared with the viewer, grouped by student and sorted by what needs
- * attention. Only the viewer's own live shares are read, so no further policy check applies.
- */
+/** Parts other people shared with the viewer, grouped by student and sorted by what needs attention. */
 export const GET = handle(async () => {
   const user = await requireUser();
-  const rows = await listSharedPartsForViewer({ viewerId: user.id });
-  return Response.json({ students: groupByStudent(rows) });
+  return Response.json(await listSharedParts(user));
 });

@@ -1,4 +1,4 @@
-import { fetchJson, partUrl } from "./fetch-json";
+import { fetchJson, partUrl } from "@/components/client/fetch-json";
 
 /** DELETE one note's marking at the version the player saw. 409 on a stale one. */
 export function deleteMarking(partId: string, noteKey: string, version: number, group?: string): Promise<{ noteKey: string; deleted: true }> {

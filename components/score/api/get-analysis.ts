@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import type { PartAnalysis } from "@/lib/analysis/types";
-import { fetchJson, partUrl } from "./fetch-json";
-import { partKeys } from "./keys";
+import { fetchJson, partUrl } from "@/components/client/fetch-json";
+import { partKeys } from "@/components/client/keys";
 
 export const getAnalysis = async (partId: string) => {
   const analysis = await fetchJson<PartAnalysis>(`${partUrl(partId)}/analysis`);

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
-import { fetchJson, partUrl } from "./fetch-json";
-import { historyKeys } from "./keys";
+import { fetchJson, partUrl } from "@/components/client/fetch-json";
+import { historyKeys } from "@/components/client/keys";
 
 export interface HistoryEntry {
   id: number | string;

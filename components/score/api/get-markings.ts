@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import type { MarkingDto } from "@/lib/markings/schema";
-import { fetchJson, partUrl } from "./fetch-json";
-import { markingKeys } from "./keys";
+import { fetchJson, partUrl } from "@/components/client/fetch-json";
+import { markingKeys } from "@/components/client/keys";
 
 export interface MarkingList {
   markings: MarkingDto[];

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
-import { fetchJson, partUrl } from "./fetch-json";
-import { partKeys } from "./keys";
+import { fetchJson, partUrl } from "@/components/client/fetch-json";
+import { partKeys } from "@/components/client/keys";
 
 export type Permission = "owner" | "comment" | "propose";
 

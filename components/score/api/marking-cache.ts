@@ -1,7 +1,7 @@
 import type { QueryClient } from "@tanstack/react-query";
 import type { MarkingDto } from "@/lib/markings/schema";
 import type { MarkingList } from "./get-markings";
-import { markingKeys } from "./keys";
+import { markingKeys } from "@/components/client/keys";
 
 /** Reads and writes single notes of the cached marking list (the optimistic view). */
 export function cachedMarkings(client: QueryClient, partId: string): MarkingDto[] {

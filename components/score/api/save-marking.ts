@@ -9,8 +9,8 @@ import {
 import type { MarkingDto, MarkingValues } from "@/lib/markings/schema";
 import { useEditorStoreApi } from "../editor-store";
 import { deleteMarking } from "./delete-marking";
-import { ApiError, retryDelay, retryTransient } from "./fetch-json";
-import { historyKeys, markingKeys } from "./keys";
+import { ApiError, retryDelay, retryTransient } from "@/components/client/fetch-json";
+import { historyKeys, markingKeys } from "@/components/client/keys";
 import { cachedMarking, cachedMarkings, writeCachedMarking } from "./marking-cache";
 import { putMarking } from "./put-marking";
 import { newGroupId } from "./uuid";

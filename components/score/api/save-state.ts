@@ -3,7 +3,7 @@
 import { onlineManager, useMutationState } from "@tanstack/react-query";
 import { useEffect, useSyncExternalStore } from "react";
 import { useEditorStore, type SaveState } from "../editor-store";
-import { markingKeys } from "./keys";
+import { markingKeys } from "@/components/client/keys";
 
 /** Derives the save state from the part's pending writes and the connection. */
 export function deriveSaveState(input: { pending: number; failing: number; online: boolean; conflicts: number }): SaveState {

@@ -2,8 +2,8 @@
 
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import type { Role } from "@/lib/analysis/types";
-import { fetchJson, partUrl, retryDelay, retryTransient } from "./fetch-json";
-import { decisionKeys } from "./keys";
+import { fetchJson, partUrl, retryDelay, retryTransient } from "@/components/client/fetch-json";
+import { decisionKeys } from "@/components/client/keys";
 
 export interface SuggestionDecision {
   noteKey: string;

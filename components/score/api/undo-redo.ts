@@ -4,9 +4,9 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { applyServerChanges, toState } from "@/lib/markings/changes";
 import type { MarkingDto } from "@/lib/markings/schema";
 import { useEditorStoreApi } from "../editor-store";
-import { fetchJson, partUrl, retryDelay, retryTransient } from "./fetch-json";
+import { fetchJson, partUrl, retryDelay, retryTransient } from "@/components/client/fetch-json";
 import type { HistoryState } from "./get-history";
-import { historyKeys, markingKeys } from "./keys";
+import { historyKeys, markingKeys } from "@/components/client/keys";
 import { cachedMarkings, writeCachedMarkings } from "./marking-cache";
 
 export interface HistoryStepResult {

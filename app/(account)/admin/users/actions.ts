@@ -1,9 +1,9 @@
 "use server";
 
 import { z } from "zod";
-import { changeRole, changeStatus } from "@/lib/accounts/admin";
+import { changeRole, changeStatus } from "@/server/accounts/admin";
 import { ROLES } from "@/lib/auth/types";
-import { defineAction } from "@/lib/http/action";
+import { defineAction } from "@/server/http/action";
 
 const userId = z.string().uuid("Not a valid account id.");
 

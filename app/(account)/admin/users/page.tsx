@@ -2,12 +2,13 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { z } from "zod";
-import { listUsers, USER_SORTS, type UserSort } from "@/db/users";
+import { USER_SORTS, type UserSort } from "@/lib/accounts/user-list";
+import { listAccounts } from "@/server/accounts/admin";
 import { ActionForm, SelectField } from "@/components/ui/action-form";
 import { inputClass } from "@/components/ui/styles";
 import { PageShell } from "@/components/ui/page-shell";
 import { can } from "@/lib/auth/policy";
-import { requirePageUser } from "@/lib/auth/require-page-user";
+import { requirePageUser } from "@/server/auth/require-page-user";
 import { ROLES } from "@/lib/auth/types";
 import { setRoleAction, setStatusAction } from "./actions";
 
@@ -38,7 +39,7 @@ export default async function AdminUsersPage({ searchParams }: { searchParams: S
   const me = await requirePageUser("/admin/users");
   if (!can(me, "admin:list_users", { type: "site" })) notFound();
   const { q, sort, dir, page } = search.parse(await searchParams);
-  const { rows, total } = await listUsers({ query: q, sort, dir, page, pageSize: PAGE_SIZE });
+  const { rows, total } = await listAccounts(me, { query: q, sort, dir, page, pageSize: PAGE_SIZE });
   const pages = Math.max(1, Math.ceil(total / PAGE_SIZE));
   const href = (over: Partial<{ q: string; sort: string; dir: string; page: number }>) => {
     const p = new URLSearchParams({ q, sort, dir, page: String(page), ...Object.fromEntries(Object.entries(over).map(([k, v]) => [k, String(v)])) });

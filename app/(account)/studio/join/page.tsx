@@ -3,8 +3,8 @@ import Link from "next/link";
 import { ActionForm } from "@/components/ui/action-form";
 import { SignOutButton } from "@/components/auth/sign-out-button";
 import { Notice, PageShell, Panel } from "@/components/ui/page-shell";
-import { viewInvitation } from "@/lib/accounts/studio";
-import { getCurrentUser } from "@/lib/auth/session";
+import { viewInvitation } from "@/server/accounts/studio";
+import { getCurrentUser } from "@/server/auth/session";
 import { joinStudioAction } from "../actions";
 
 export const metadata: Metadata = { title: "Join a studio" };

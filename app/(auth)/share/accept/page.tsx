@@ -3,9 +3,9 @@ import Link from "next/link";
 import { redirect } from "next/navigation";
 import { SignOutButton } from "@/components/auth/sign-out-button";
 import { Notice, PageShell, Panel } from "@/components/ui/page-shell";
-import { getCurrentUser } from "@/lib/auth/session";
+import { getCurrentUser } from "@/server/auth/session";
 import { AppError } from "@/lib/errors";
-import { acceptInvitation, acceptPath, lookUpInvitation } from "@/lib/server/sharing";
+import { acceptInvitation, acceptPath, lookUpInvitation } from "@/server/sharing";
 
 export const metadata: Metadata = { title: "Shared part" };
 export const dynamic = "force-dynamic";

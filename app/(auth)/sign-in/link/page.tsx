@@ -3,8 +3,8 @@ import Link from "next/link";
 import type { ReactNode } from "react";
 import { SignInLinkButton } from "@/components/auth/sign-in-link-button";
 import { Notice, PageShell, Panel } from "@/components/ui/page-shell";
-import { getCurrentUser } from "@/lib/auth/session";
-import { lookUpSignInLink } from "@/lib/auth/sign-in-link";
+import { getCurrentUser } from "@/server/auth/session";
+import { lookUpSignInLink } from "@/server/auth/sign-in-link";
 
 // The token is in this page's address: never send it on to another site.
 export const metadata: Metadata = { title: "Sign in with your link", referrer: "no-referrer" };

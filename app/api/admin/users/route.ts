@@ -1,7 +1,7 @@
 import { z } from "zod";
-import { USER_SORTS, listUsers } from "@/db/users";
-import { assertCan } from "@/lib/auth/policy";
-import { getCurrentUser } from "@/lib/auth/session";
+import { USER_SORTS } from "@/lib/accounts/user-list";
+import { listAccounts } from "@/server/accounts/admin";
+import { getCurrentUser } from "@/server/auth/session";
 import { handle, parseQuery } from "@/lib/http/handler";
 
 export const dynamic = "force-dynamic";
@@ -17,7 +17,6 @@ const userListQuery = z.object({
 /** Accounts for admins: search, sort and pages on the server. */
 export const GET = handle(async (request) => {
   const input = parseQuery(request, userListQuery);
-  assertCan(await getCurrentUser(), "admin:list_users", { type: "site" });
-  const { rows, total } = await listUsers({ query: input.q, sort: input.sort, dir: input.dir, page: input.page, pageSize: input.pageSize });
-  return Response.json({ rows, total, page: input.page, pageSize: input.pageSize }, { headers: { "cache-control": "no-store" } });
+  const page = await listAccounts(await getCurrentUser(), { query: input.q, sort: input.sort, dir: input.dir, page: input.page, pageSize: input.pageSize });
+  return Response.json(page, { headers: { "cache-control": "no-store" } });
 });

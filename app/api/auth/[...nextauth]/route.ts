@@ -1,7 +1,7 @@
 import NextAuth from "next-auth";
-import { authOptions } from "@/lib/auth/options";
-import { checkLimits, rateLimitError, signInChecks } from "@/lib/auth/rate-limit";
-import { linkUseChecks } from "@/lib/auth/sign-in-link";
+import { authOptions } from "@/server/auth/options";
+import { checkLimits, rateLimitError, signInChecks } from "@/server/auth/rate-limit";
+import { linkUseChecks } from "@/server/auth/sign-in-link";
 import { clientAddress } from "@/lib/http/client-address";
 
 type Context = { params: Promise<{ nextauth: string[] }> };

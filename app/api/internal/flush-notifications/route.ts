@@ -2,7 +2,7 @@ import { timingSafeEqual } from "node:crypto";
 import { handle } from "@/lib/http/handler";
 import { config, isProduction } from "@/lib/config";
 import { AppError } from "@/lib/errors";
-import { flushDueNotifications } from "@/lib/server/notify";
+import { flushDueNotifications } from "@/server/notify";
 
 export const dynamic = "force-dynamic";
 

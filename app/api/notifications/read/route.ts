@@ -1,7 +1,7 @@
 import { handle, parseJson } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { readBody } from "@/lib/sharing/schemas";
-import { markNotificationsRead } from "@/db/notifications";
+import { markRead } from "@/server/notifications";
 
 export const dynamic = "force-dynamic";
 
@@ -9,7 +9,5 @@ export const dynamic = "force-dynamic";
 export const POST = handle(async (request) => {
   const user = await requireUser();
   const body = await parseJson(request, readBody);
-  // Only the caller's own rows are touched, so a part they lost access to needs no policy check.
-  const updated = await markNotificationsRead({ userId: user.id, partId: body.partId, threadKey: body.thread, kind: body.kind });
-  return Response.json({ updated });
+  return Response.json(await markRead(user, body));
 });

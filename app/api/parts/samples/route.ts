@@ -2,10 +2,10 @@ import fs from "node:fs/promises";
 import path from "node:path";
 import { handle, parseJson } from "@/lib/http/handler";
 import { assertCan } from "@/lib/auth/policy";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { AppError } from "@/lib/errors";
 import { sampleBody } from "@/lib/parts/schemas";
-import { createPartFromFile } from "@/lib/server/parts";
+import { createPartFromFile } from "@/server/parts";
 
 export const dynamic = "force-dynamic";
 

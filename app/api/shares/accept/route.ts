@@ -1,7 +1,7 @@
 import { handle, parseJson } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { acceptBody } from "@/lib/sharing/schemas";
-import { acceptInvitation } from "@/lib/server/sharing";
+import { acceptInvitation } from "@/server/sharing";
 
 export const dynamic = "force-dynamic";
 

@@ -1,9 +1,9 @@
 import { notFound, redirect } from "next/navigation";
 import { BareScore } from "@/components/score/bare-score";
-import { getCurrentUser } from "@/lib/auth/session";
+import { getCurrentUser } from "@/server/auth/session";
 import { config } from "@/lib/config";
 import { selectPartsXml } from "@/lib/musicxml";
-import { loadPart } from "@/lib/server/parts";
+import { loadPart } from "@/server/parts";
 
 export const dynamic = "force-dynamic";
 

@@ -1,18 +1,10 @@
 import type { Metadata } from "next";
-import { toState } from "@/lib/markings/changes";
-import { resolutionsOf } from "@/lib/markings/durations";
-import { pendingSuggestions } from "@/lib/markings/suggestions";
-import { selectPartsXml } from "@/lib/musicxml";
-import { chosenPartAnalysis, loadPartForPage, partTitleForViewer } from "@/lib/server/parts";
+import { partTitleForViewer } from "@/server/parts";
+import { loadStandCopy } from "@/server/stand-copy";
 import { parseStandCopyOptions } from "@/lib/stand-copy/options";
-import { listMarkingsByPartId } from "@/db/markings";
-import { listCommentsByPartId } from "@/db/comments";
-import { listDecisionsByPartId } from "@/db/suggestion-decisions";
-import { getUserById } from "@/db/users";
-import { StandCopy } from "@/components/stand-copy/stand-copy";
+import { StandCopy } from "@/components/screens/stand-copy";
 
 export const dynamic = "force-dynamic";
-
 
 export async function generateMetadata({ params }: { params: Promise<{ partId: string }> }): Promise<Metadata> {
   const { partId } = await params;
@@ -29,36 +21,7 @@ export default async function StandCopyPage({
   searchParams: Promise<Record<string, string | string[] | undefined>>;
 }) {
   const { partId } = await params;
-  const { access } = await loadPartForPage({ partId, action: "part:view", path: `/parts/${partId}/print` });
-  const { part } = access;
   const options = parseStandCopyOptions(await searchParams);
-  const [markings, analysis, decisions, owner, comments] = await Promise.all([
-    listMarkingsByPartId({ partId }),
-    chosenPartAnalysis(part),
-    options.suggestions ? listDecisionsByPartId({ partId }) : Promise.resolve([]),
-    getUserById({ userId: part.ownerId }),
-    options.comments ? listCommentsByPartId({ partId }) : Promise.resolve(null),
-  ]);
-  const suggestions = options.suggestions ? pendingSuggestions(analysis.suggestions, decisions, toState(markings)) : [];
-  const resolutions = resolutionsOf(analysis.suggestions);
-
-  return (
-    <StandCopy
-      data={{
-        partId,
-        title: part.title,
-        composer: part.composer,
-        keyLabel: part.keyLabel,
-        tempo: part.tempo,
-        playerName: owner?.name ?? "",
-        xml: selectPartsXml(part.musicxml, [part.chosenPartId]),
-        markings,
-        notes: analysis.notes,
-        suggestions,
-        resolutions,
-        comments: comments?.map(({ threadKey, authorName, body, createdAt }) => ({ threadKey, authorName, body, createdAt })) ?? null,
-        options,
-      }}
-    />
-  );
+  const data = await loadStandCopy({ partId, path: `/parts/${partId}/print`, options });
+  return <StandCopy data={data} />;
 }

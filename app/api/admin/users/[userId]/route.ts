@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { changeRole, changeStatus } from "@/lib/accounts/admin";
-import { requireUser } from "@/lib/auth/session";
+import { changeRole, changeStatus } from "@/server/accounts/admin";
+import { requireUser } from "@/server/auth/session";
 import { ROLES } from "@/lib/auth/types";
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
 

@@ -1,7 +1,7 @@
 import { handle, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
-import { chosenPartAnalysis, loadPart } from "@/lib/server/parts";
+import { getPartAnalysis } from "@/server/parts";
 
 export const dynamic = "force-dynamic";
 
@@ -9,6 +9,5 @@ export const dynamic = "force-dynamic";
 export const GET = handle(async (_request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
-  const { part } = await loadPart(user, partId, "part:view");
-  return Response.json(await chosenPartAnalysis(part));
+  return Response.json(await getPartAnalysis(user, partId));
 });

@@ -1,13 +1,8 @@
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
-import { createAssignmentBody, type AssignmentListDto } from "@/lib/assignments/schema";
+import { requireUser } from "@/server/auth/session";
+import { createAssignmentBody } from "@/lib/assignments/schema";
 import { partIdParams } from "@/lib/parts/schemas";
-import { ASSIGNMENT_NOTIFICATION } from "@/lib/sharing/note-label";
-import { assertSettableDueDate, assignmentAbilities, assignmentSummary } from "@/lib/server/assignments";
-import { notifyParticipants } from "@/lib/server/notify";
-import { loadPart } from "@/lib/server/parts";
-import { assertNoteOfPart } from "@/lib/server/practice";
-import { insertAssignment, listAssignmentsByPartId } from "@/db/assignments";
+import { createAssignment, listAssignments } from "@/server/assignments";
 
 export const dynamic = "force-dynamic";
 
@@ -15,9 +10,7 @@ export const dynamic = "force-dynamic";
 export const GET = handle(async (_request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
-  const access = await loadPart(user, partId, "assignment:view");
-  const assignments = await listAssignmentsByPartId({ partId });
-  return Response.json({ assignments, ...assignmentAbilities(user, access) } satisfies AssignmentListDto);
+  return Response.json(await listAssignments(user, partId));
 });
 
 /** A teacher the part is shared with sets practice for its owner, who is notified (and e-mailed, batched). */
@@ -25,18 +18,5 @@ export const POST = handle(async (request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
   const body = await parseJson(request, createAssignmentBody);
-  const { part } = await loadPart(user, partId, "assignment:create");
-  assertNoteOfPart(part, body.noteKey);
-  assertSettableDueDate(body.dueOn);
-  const assignment = await insertAssignment({ ...body, partId, assignedBy: user.id });
-  await notifyParticipants({
-    partId,
-    actorId: user.id,
-    kind: ASSIGNMENT_NOTIFICATION,
-    // No thread: reading a note's comments must not count as reading the practice set on it.
-    threadKey: null,
-    summary: assignmentSummary(user.name, assignment),
-    onlyUserIds: [part.ownerId],
-  });
-  return Response.json(assignment, { status: 201 });
+  return Response.json(await createAssignment(user, partId, body), { status: 201 });
 });

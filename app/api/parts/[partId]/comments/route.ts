@@ -1,13 +1,8 @@
 import { handle, parseJson, parseParams, parseQuery } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
-import { excerpt } from "@/lib/sharing/comment-text";
-import { threadLabel } from "@/lib/sharing/note-label";
 import { commentBody, threadQuery } from "@/lib/sharing/schemas";
-import { notifyParticipants } from "@/lib/server/notify";
-import { loadPart } from "@/lib/server/parts";
-import { assertThreadKey } from "@/lib/server/sharing";
-import { getThreadByKey, insertComment } from "@/db/comments";
+import { getThread, postComment } from "@/server/comments";
 
 export const dynamic = "force-dynamic";
 
@@ -15,9 +10,7 @@ export const GET = handle(async (request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
   const { thread } = parseQuery(request, threadQuery);
-  const { part } = await loadPart(user, partId, "part:view");
-  assertThreadKey(part, thread);
-  return Response.json(await getThreadByKey({ partId, threadKey: thread }));
+  return Response.json(await getThread(user, partId, thread));
 });
 
 export const POST = handle(async (request, { params }) => {
@@ -25,15 +18,5 @@ export const POST = handle(async (request, { params }) => {
   const user = await requireUser();
   const { thread } = parseQuery(request, threadQuery);
   const { body } = await parseJson(request, commentBody);
-  const { part } = await loadPart(user, partId, "part:comment");
-  assertThreadKey(part, thread);
-  const comment = await insertComment({ partId, threadKey: thread, authorId: user.id, authorName: user.name, body });
-  await notifyParticipants({
-    partId,
-    actorId: user.id,
-    kind: "comment",
-    threadKey: thread,
-    summary: `${user.name} commented on ${threadLabel(thread)}: “${excerpt(body)}”`,
-  });
-  return Response.json(comment, { status: 201 });
+  return Response.json(await postComment(user, { partId, threadKey: thread, body }), { status: 201 });
 });

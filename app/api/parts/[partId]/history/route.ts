@@ -1,14 +1,12 @@
 import { handle, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
-import { loadPart } from "@/lib/server/parts";
-import { historyStateByPartId } from "@/db/markings";
+import { getHistory } from "@/server/markings";
 
 export const dynamic = "force-dynamic";
 
 export const GET = handle(async (_request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
-  await loadPart(user, partId, "part:view");
-  return Response.json(await historyStateByPartId({ partId }));
+  return Response.json(await getHistory(user, partId));
 });

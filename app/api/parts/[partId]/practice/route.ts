@@ -1,10 +1,8 @@
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
-import { practiceEntryBodySchema, type PracticeLogDto } from "@/lib/practice/schema";
-import { loadPart } from "@/lib/server/parts";
-import { assertNoteOfPart, canWritePractice } from "@/lib/server/practice";
-import { insertPracticeEntry, listPracticeEntriesByPartId } from "@/db/practice";
+import { practiceEntryBodySchema } from "@/lib/practice/schema";
+import { addPracticeEntry, getPracticeLog } from "@/server/practice";
 
 export const dynamic = "force-dynamic";
 
@@ -12,18 +10,12 @@ export const dynamic = "force-dynamic";
 export const GET = handle(async (_request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
-  const access = await loadPart(user, partId, "practice:view");
-  const { part } = access;
-  const log = await listPracticeEntriesByPartId({ partId, userId: part.ownerId });
-  return Response.json({ ...log, canWrite: canWritePractice(user, access) } satisfies PracticeLogDto);
+  return Response.json(await getPracticeLog(user, partId));
 });
 
 export const POST = handle(async (request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
   const body = await parseJson(request, practiceEntryBodySchema);
-  const { part } = await loadPart(user, partId, "practice:write");
-  assertNoteOfPart(part, body.noteKey);
-  const entry = await insertPracticeEntry({ partId, userId: user.id, kind: body.kind, minutes: body.minutes, noteKey: body.noteKey ?? null, notes: body.notes });
-  return Response.json({ entry }, { status: 201 });
+  return Response.json(await addPracticeEntry(user, partId, body), { status: 201 });
 });

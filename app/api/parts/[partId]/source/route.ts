@@ -1,7 +1,7 @@
 import { handle, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
-import { loadPart } from "@/lib/server/parts";
+import { loadPart } from "@/server/parts";
 
 export const dynamic = "force-dynamic";
 

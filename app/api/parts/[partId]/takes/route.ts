@@ -1,11 +1,8 @@
 import { handle, parseJson, parseParams, parseQuery } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
 import { listTakesQuery, takeBodySchema } from "@/lib/practice/schema";
-import { loadPart } from "@/lib/server/parts";
-import { assertNoteOfPart } from "@/lib/server/practice";
-import { getMarkingByNoteKey } from "@/db/markings";
-import { insertTake, listTakesByPartId } from "@/db/practice";
+import { listTakes, saveTake } from "@/server/practice";
 
 export const dynamic = "force-dynamic";
 
@@ -14,24 +11,13 @@ export const GET = handle(async (request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
   const { noteKey } = parseQuery(request, listTakesQuery);
-  const { part } = await loadPart(user, partId, "practice:view");
-  return Response.json({ takes: await listTakesByPartId({ partId, userId: part.ownerId, noteKey }) });
+  return Response.json(await listTakes(user, partId, noteKey));
 });
 
-/** Stores a take's numbers; the marking it is compared with is read here, not sent by the client. */
+/** Stores a take's numbers; the marking it is compared with is read on the server. */
 export const POST = handle(async (request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
   const body = await parseJson(request, takeBodySchema);
-  const { part } = await loadPart(user, partId, "practice:write");
-  assertNoteOfPart(part, body.noteKey);
-  const marking = await getMarkingByNoteKey({ partId, noteKey: body.noteKey });
-  const { noteKey, ...numbers } = body;
-  const take = await insertTake({
-    partId,
-    userId: user.id,
-    noteKey,
-    measured: { ...numbers, marked: marking ? { speedHz: marking.speedHz, depthCents: marking.depthCents } : null },
-  });
-  return Response.json({ take }, { status: 201 });
+  return Response.json(await saveTake(user, partId, body), { status: 201 });
 });

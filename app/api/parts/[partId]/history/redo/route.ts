@@ -1,16 +1,12 @@
 import { handle, parseParams } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
+import { requireUser } from "@/server/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
-import { loadPart } from "@/lib/server/parts";
-import { historyStateByPartId, redoLatest } from "@/db/markings";
+import { stepHistory } from "@/server/markings";
 
 export const dynamic = "force-dynamic";
 
 export const POST = handle(async (_request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
-  await loadPart(user, partId, "marking:write");
-  const changes = await redoLatest({ partId, actorId: user.id });
-  const { canUndo, canRedo } = await historyStateByPartId({ partId, limit: 1 });
-  return Response.json({ changes, canUndo, canRedo });
+  return Response.json(await stepHistory(user, partId, "redo"));
 });

@@ -1,45 +1,18 @@
-import { randomUUID } from "node:crypto";
 import { z } from "zod";
 import { handle, parseJson, parseParams, parseQuery } from "@/lib/http/handler";
-import { requireUser } from "@/lib/auth/session";
-import { AppError } from "@/lib/errors";
+import { requireUser } from "@/server/auth/session";
 import { putMarkingBodySchema } from "@/lib/markings/schema";
 import { noteParams } from "@/lib/parts/note-params";
-import { loadPart } from "@/lib/server/parts";
-import { writeMarking, type WriteResult } from "@/db/markings";
-import type { Part } from "@/db/schema";
+import { removeMarking, saveMarking } from "@/server/markings";
 
 export const dynamic = "force-dynamic";
-
-function assertNoteExists(part: Part, noteKey: string) {
-  if (!part.noteKeys.includes(noteKey)) {
-    throw new AppError("not_found:note", `There is no note ${noteKey} in this part. Reload the page: the part may have changed.`);
-  }
-}
-
-function answer(result: WriteResult, created: boolean): Response {
-  if (!result.ok) {
-    return Response.json(
-      {
-        code: "conflict:marking",
-        message: "This note's marking was changed elsewhere since you opened it. Choose which version to keep.",
-        current: result.current,
-      },
-      { status: 409 },
-    );
-  }
-  return Response.json({ marking: result.marking }, { status: created ? 201 : 200 });
-}
 
 export const PUT = handle(async (request, { params }) => {
   const { partId, noteKey } = await parseParams(params, noteParams);
   const user = await requireUser();
-  const body = await parseJson(request, putMarkingBodySchema);
-  const { part } = await loadPart(user, partId, "marking:write");
-  assertNoteExists(part, noteKey);
-  const { version, group, ...values } = body;
-  const result = await writeMarking({ partId, noteKey, values, expectedVersion: version, actorId: user.id, groupId: group ?? randomUUID() });
-  return answer(result, result.ok && version === undefined);
+  const { version, group, ...values } = await parseJson(request, putMarkingBodySchema);
+  const { marking, created } = await saveMarking(user, { partId, noteKey, values, version, group });
+  return Response.json({ marking }, { status: created ? 201 : 200 });
 });
 
 const deleteQuery = z.object({
@@ -51,9 +24,5 @@ export const DELETE = handle(async (request, { params }) => {
   const { partId, noteKey } = await parseParams(params, noteParams);
   const user = await requireUser();
   const { version, group } = parseQuery(request, deleteQuery);
-  const { part } = await loadPart(user, partId, "marking:write");
-  assertNoteExists(part, noteKey);
-  const result = await writeMarking({ partId, noteKey, values: null, expectedVersion: version, actorId: user.id, groupId: group ?? randomUUID() });
-  if (!result.ok) return answer(result, false);
-  return Response.json({ noteKey, deleted: true });
+  return Response.json(await removeMarking(user, { partId, noteKey, version, group }));
 });

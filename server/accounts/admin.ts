@@ -1,5 +1,6 @@
 import "server-only";
-import { getUserById, setUserRole, setUserStatus } from "@/db/users";
+import { getUserById, listUsers, setUserRole, setUserStatus } from "@/db/users";
+import type { UserSort } from "@/lib/accounts/user-list";
 import { assertCan } from "@/lib/auth/policy";
 import type { CurrentUser, Role } from "@/lib/auth/types";
 import { AppError } from "@/lib/errors";
@@ -22,4 +23,11 @@ export async function changeStatus(admin: CurrentUser | null, { userId, status }
   const row = await target(admin, userId, "account:set_status");
   await setUserStatus({ userId: row.id, status });
   return row;
+}
+
+/** One page of accounts for admins: search, sort and pages on the server. */
+export async function listAccounts(admin: CurrentUser | null, q: { query: string; sort: UserSort; dir: "asc" | "desc"; page: number; pageSize: number }) {
+  assertCan(admin, "admin:list_users", { type: "site" });
+  const { rows, total } = await listUsers(q);
+  return { rows, total, page: q.page, pageSize: q.pageSize };
 }

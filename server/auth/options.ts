@@ -4,7 +4,7 @@ import CredentialsProvider from "next-auth/providers/credentials";
 import { getUserByEmail } from "@/db/users";
 import { config, isProduction } from "@/lib/config";
 import { clientAddress } from "@/lib/http/client-address";
-import { verifyPassword } from "./password";
+import { verifyPassword } from "@/lib/auth/password";
 import { pruneAttempts, recordAttempt, signInChecks } from "./rate-limit";
 import { linkUseChecks, signInWithLink } from "./sign-in-link";
 

@@ -3,7 +3,7 @@ import { and, desc, eq, gt, lt, sql } from "drizzle-orm";
 import { db } from "@/db/client";
 import { authAttempts } from "@/db/schema";
 import { AppError } from "@/lib/errors";
-import { describeWait, limitKey, LIMITS, retryAt, type LimitRule } from "./rate-limit-rules";
+import { describeWait, limitKey, LIMITS, retryAt, type LimitRule } from "@/lib/auth/rate-limit-rules";
 
 /**
  * Abuse limits kept in PostgreSQL (table auth_attempts), so every server behind a load balancer

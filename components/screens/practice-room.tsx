@@ -8,13 +8,13 @@ import { formatNumber, pulsesPerBeat } from "@/lib/markings/pulses";
 import type { AssignmentDto } from "@/lib/assignments/schema";
 import { PracticeAssignments } from "@/components/assignments/assignment-list";
 import { selectClass } from "@/components/ui/styles";
-import { AudioCaution, VolumeControl } from "./audio-caution";
-import { audioContext } from "./audio";
-import { HoldLadder } from "./hold-ladder";
-import { PracticeLog } from "./practice-log";
-import { PulseTrainer } from "./pulse-trainer";
-import { TakeRecorder } from "./take-recorder";
-import { Button, Figure, fmt } from "./ui";
+import { AudioCaution, VolumeControl } from "@/components/practice/audio-caution";
+import { audioContext } from "@/components/practice/audio";
+import { HoldLadder } from "@/components/practice/hold-ladder";
+import { PracticeLog } from "@/components/practice/practice-log";
+import { PulseTrainer } from "@/components/practice/pulse-trainer";
+import { TakeRecorder } from "@/components/practice/take-recorder";
+import { Button, Figure, fmt } from "@/components/practice/ui";
 
 export interface PracticeNote {
   key: string;

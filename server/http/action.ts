@@ -3,13 +3,13 @@ import { revalidatePath } from "next/cache";
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { z } from "zod";
-import { getCurrentUser } from "@/lib/auth/session";
+import { getCurrentUser } from "@/server/auth/session";
 import type { CurrentUser } from "@/lib/auth/types";
 import { AppError } from "@/lib/errors";
-import type { ActionState } from "./action-state";
-import { toErrorBody, zodFieldErrors, zodIssue } from "./errors";
+import type { ActionState } from "@/lib/http/action-state";
+import { toErrorBody, zodFieldErrors, zodIssue } from "@/lib/http/errors";
 
-export type { ActionState } from "./action-state";
+export type { ActionState } from "@/lib/http/action-state";
 
 /** What an action's body may ask for once it succeeds. */
 export interface Outcome<D> {

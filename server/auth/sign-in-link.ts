@@ -7,8 +7,8 @@ import { safeCallbackPath } from "@/lib/http/safe-redirect";
 import { sendMail } from "@/lib/mail/send";
 import { appLink, signInLinkMail } from "@/lib/mail/templates";
 import { checkLimits, rateLimitError, recordAttempt } from "./rate-limit";
-import { LIMITS, type LimitRule } from "./rate-limit-rules";
-import type { Role } from "./types";
+import { LIMITS, type LimitRule } from "@/lib/auth/rate-limit-rules";
+import type { Role } from "@/lib/auth/types";
 
 /**
  * Sign-in links: a second way to sign in, by proving the mailbox instead of knowing the password.

@@ -1,8 +1,11 @@
 import "server-only";
 import {
   acceptInvitation, createInvitation, ensureStudioForTeacher, getInvitationByToken, getStudioById, isStudioMember,
-  removeStudioMember,
+  listOpenInvitations, listStudioMembers, listStudiosByPlayerId, removeStudioMember,
 } from "@/db/studios";
+import { listPracticeProgressForTeacher } from "@/db/assignments";
+import { utcIsoDate } from "@/lib/assignments/due";
+import { groupProgressByStudent, progressWindowStart } from "@/lib/assignments/progress";
 import { getUserByEmail, markEmailVerified } from "@/db/users";
 import { assertCan } from "@/lib/auth/policy";
 import type { CurrentUser } from "@/lib/auth/types";
@@ -72,4 +75,22 @@ export async function joinStudio(user: CurrentUser | null, { token }: { token: s
   // The link reached this address, which confirms it.
   await markEmailVerified({ userId: user.id });
   return inv;
+}
+
+/** A player's studios: the teachers whose studios they belong to. */
+export async function listMyStudios(user: CurrentUser) {
+  return listStudiosByPlayerId({ playerId: user.id });
+}
+
+/** A teacher's studio page: members, open invitations and their students' practice progress. */
+export async function loadOwnStudio(user: CurrentUser) {
+  const studio = await ownStudio(user);
+  const now = new Date();
+  const [members, invitations, progress] = await Promise.all([
+    listStudioMembers({ studioId: studio.id }),
+    listOpenInvitations({ studioId: studio.id }),
+    // The server's calendar is UTC: a due date counts as passed once the UTC day has moved on.
+    listPracticeProgressForTeacher({ teacherId: user.id, today: utcIsoDate(now), since: progressWindowStart(now) }),
+  ]);
+  return { studio, members, invitations, students: groupProgressByStudent(progress) };
 }

@@ -1,7 +1,5 @@
 "use client";
 
-import { useUnreadByPart } from "./api";
-
 /** A count of unread comments, proposals and replies; nothing when there are none. */
 export function UnreadBadge({ count, className = "" }: { count: number; className?: string }) {
   if (count <= 0) return null;
@@ -16,10 +14,4 @@ export function UnreadBadge({ count, className = "" }: { count: number; classNam
       {count > 99 ? "99+" : count}
     </span>
   );
-}
-
-/** The library's badge for one part, from one shared request for all parts. */
-export function PartUnreadBadge({ partId }: { partId: string }) {
-  const counts = useUnreadByPart();
-  return <UnreadBadge count={counts[partId] ?? 0} className="ml-2" />;
 }

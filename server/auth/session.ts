@@ -4,7 +4,7 @@ import { cache } from "react";
 import { getUserById } from "@/db/users";
 import { AppError } from "@/lib/errors";
 import { authOptions } from "./options";
-import type { CurrentUser } from "./types";
+import type { CurrentUser } from "@/lib/auth/types";
 
 interface OndulaSession {
   userId?: string;

@@ -1,8 +1,8 @@
 import "server-only";
-import { consumeToken, issueToken } from "@/db/tokens";
+import { consumeToken, issueToken, peekToken } from "@/db/tokens";
 import { createUser, getUserByEmail, getUserById, markEmailVerified, setUserPassword } from "@/db/users";
 import { hashPassword, verifyPassword } from "@/lib/auth/password";
-import { checkLimits, rateLimitError, recordAttempt, resetChecks } from "@/lib/auth/rate-limit";
+import { checkLimits, rateLimitError, recordAttempt, resetChecks } from "@/server/auth/rate-limit";
 import type { CurrentUser } from "@/lib/auth/types";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
@@ -69,4 +69,16 @@ export async function changePassword(user: CurrentUser, { current, next }: { cur
     throw new AppError("bad_request:password", "The current password is wrong.", { field: "current" });
   }
   await setUserPassword({ userId: user.id, passwordHash: await hashPassword(next) });
+}
+
+export type EmailLinkState = { state: "valid"; email: string } | { state: "used" | "expired" | "unknown" };
+
+/**
+ * Whether a link from an e-mail (password reset or address confirmation) would be accepted now,
+ * without using it, so the page shows the right form.
+ */
+export async function checkEmailLink(purpose: "reset_password" | "verify_email", token: unknown): Promise<EmailLinkState> {
+  if (typeof token !== "string" || token.length > 200) return { state: "unknown" };
+  const peek = await peekToken({ purpose, token });
+  return peek.state === "valid" ? { state: "valid", email: peek.row.email } : { state: peek.state };
 }

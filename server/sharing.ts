@@ -8,11 +8,14 @@ import { PART_THREAD } from "@/lib/sharing/schemas";
 import { appLink } from "@/lib/mail/templates";
 import { sendMail } from "@/lib/mail/send";
 import {
-  acceptShareById, getLiveShareByEmail, getShareByTokenHash, insertShare, renewShareTokenById, type ShareByToken,
+  acceptShareById, getLiveShareByEmail, getShareById, getShareByTokenHash, getShareDtoById, insertShare, listSharedPartsForViewer, listSharesByPartId,
+  renewShareTokenById, revokeShareById, updateSharePermissionById, type ShareByToken,
 } from "@/db/shares";
+import { groupByStudent } from "@/lib/sharing/attention";
 import type { Part, Share } from "@/db/schema";
 import { markEmailVerified } from "@/db/users";
 import { notifyParticipants } from "./notify";
+import { loadPart } from "./parts";
 
 /** An invitation link works for 14 days. */
 export const SHARE_TTL_MS = 14 * 24 * 3600_000;
@@ -145,4 +148,49 @@ export function assertThreadKey(part: Pick<Part, "noteKeys">, threadKey: string)
   if (!part.noteKeys.includes(threadKey)) {
     throw new AppError("not_found:note", `There is no note ${threadKey} in this part. Reload the page: the part may have changed.`);
   }
+}
+
+/**
+ * Parts other people shared with the viewer, grouped by student and sorted by what needs
+ * attention. Only the viewer's own live shares are read, so no further policy check applies.
+ */
+export async function listSharedParts(user: CurrentUser) {
+  return { students: groupByStudent(await listSharedPartsForViewer({ viewerId: user.id })) };
+}
+
+export async function listShares(user: CurrentUser, partId: string) {
+  await loadPart(user, partId, "part:share");
+  return { shares: await listSharesByPartId({ partId }) };
+}
+
+export async function sharePart(user: CurrentUser, o: { partId: string; email: string; permission: "comment" | "propose" }) {
+  const { part } = await loadPart(user, o.partId, "part:share");
+  const share = await inviteToPart(user, part, o.email, o.permission);
+  return getShareDtoById({ partId: o.partId, shareId: share.id });
+}
+
+async function loadShare(user: CurrentUser, partId: string, shareId: string) {
+  const { part } = await loadPart(user, partId, "part:share");
+  const share = await getShareById({ partId, shareId });
+  if (!share) throw new AppError("not_found:share", "This invitation does not exist or has been withdrawn. Reload the list.");
+  return { part, share };
+}
+
+export async function changeSharePermission(user: CurrentUser, o: { partId: string; shareId: string; permission: "comment" | "propose" }) {
+  await loadShare(user, o.partId, o.shareId);
+  await updateSharePermissionById({ shareId: o.shareId, permission: o.permission });
+  return getShareDtoById({ partId: o.partId, shareId: o.shareId });
+}
+
+/** Revokes at once: every later request of that person is checked against the share and fails. */
+export async function revokeShare(user: CurrentUser, o: { partId: string; shareId: string }): Promise<{ id: string; revoked: true }> {
+  await loadShare(user, o.partId, o.shareId);
+  await revokeShareById({ shareId: o.shareId });
+  return { id: o.shareId, revoked: true };
+}
+
+export async function resendShare(user: CurrentUser, o: { partId: string; shareId: string }) {
+  const { part, share } = await loadShare(user, o.partId, o.shareId);
+  await resendInvitation(user, part, share);
+  return getShareDtoById({ partId: o.partId, shareId: o.shareId });
 }

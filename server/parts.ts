@@ -3,15 +3,22 @@ import { analyzeScore, ANALYSIS_VERSION } from "@/lib/analysis";
 import type { PartAnalysis, ScoreAnalysis } from "@/lib/analysis/types";
 import { assertCan, type Action } from "@/lib/auth/policy";
 import { notFound, redirect } from "next/navigation";
-import { getCurrentUser } from "@/lib/auth/session";
+import { getCurrentUser } from "@/server/auth/session";
 import type { CurrentUser } from "@/lib/auth/types";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { readScoreFile } from "@/lib/musicxml";
-import { ingestScore, type IngestedScore } from "@/lib/parts/ingest";
+import { ingestScore, summarizePart, type IngestedScore } from "@/lib/parts/ingest";
+import { embedMarkings } from "@/lib/export/musicxml-markings";
+import { renderMidi } from "@/lib/export/midi";
+import type { MarkingValues } from "@/lib/markings/schema";
+import { selectPartsXml } from "@/lib/musicxml";
+import type { listPartsQuery, patchPartBody } from "@/lib/parts/schemas";
+import type { z } from "zod";
 import { extractMarkingsWithReport, stripMarkings } from "@/lib/export/musicxml-markings";
-import { getPartAccessById, insertPart, newPartValues, storeAnalysisById, type PartAccess } from "@/db/parts";
-import { writeMarking } from "@/db/markings";
+import { deletePartById, getPartAccessById, insertPart, listPartsForViewer, newPartValues, storeAnalysisById, updatePartById, type PartAccess } from "@/db/parts";
+import { listMarkingsByPartId, writeMarking } from "@/db/markings";
+import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import type { Part } from "@/db/schema";
 import { randomUUID } from "node:crypto";
 
@@ -71,6 +78,14 @@ export async function partTitleForViewer(partId: string): Promise<string | null>
   if (!user || !UUID.test(partId)) return null;
   const access = await loadPart(user, partId, "part:view").catch(() => null);
   return access?.part.title ?? null;
+}
+
+
+/** A note named in a request body must be a note of the part (a stale tab may hold old keys). */
+export function assertNoteOfPart(part: Part, noteKey: string | null | undefined) {
+  if (noteKey && !part.noteKeys.includes(noteKey)) {
+    throw new AppError("bad_request:note", `There is no note ${noteKey} in this part. Reload the page: the part may have changed.`, { field: "noteKey" });
+  }
 }
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
@@ -144,3 +159,97 @@ export function partDto(access: PartAccess) {
   };
 }
 export type PartDto = ReturnType<typeof partDto>;
+
+// ——— use cases ———
+
+export async function listParts(user: CurrentUser, q: z.infer<typeof listPartsQuery>) {
+  const result = await listPartsForViewer({ viewerId: user.id, ...q });
+  return { ...result, page: q.page, pageSize: q.pageSize };
+}
+
+export async function getPart(user: CurrentUser, partId: string): Promise<PartDto> {
+  return partDto(await loadPart(user, partId, "part:view"));
+}
+
+/**
+ * Stores an uploaded score as a new part of the uploader's (see `createPartFromFile`). The upload
+ * is received only once the policy allows it, so a refused caller's file is never read.
+ */
+export async function uploadPart(user: CurrentUser, receive: () => Promise<{ fileName: string; bytes: Uint8Array }>) {
+  assertCan(user, "part:create", { type: "site" });
+  const file = await receive();
+  const { part, importedMarkings, unreadableMarkings } = await createPartFromFile(user, file.fileName, file.bytes);
+  return { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId, importedMarkings, unreadableMarkings };
+}
+
+/** Renames the part, or chooses another part of its score (summarised again from the stored text). */
+export async function updatePart(user: CurrentUser, partId: string, body: z.infer<typeof patchPartBody>): Promise<PartDto> {
+  const access = await loadPart(user, partId, "part:edit");
+  const changes: Parameters<typeof updatePartById>[0]["changes"] = {};
+  if (body.title !== undefined) changes.title = body.title;
+  if (body.composer !== undefined) changes.composer = body.composer;
+  if (body.chosenPart !== undefined && body.chosenPart !== access.part.chosenPartId) {
+    if (!access.part.partList.some((p) => p.id === body.chosenPart)) {
+      throw new AppError("bad_request:chosen_part", `This score has no part "${body.chosenPart}". Choose one of: ${access.part.partList.map((p) => p.id).join(", ")}.`, { field: "chosenPart" });
+    }
+    const analysis = await analysisOf(access.part);
+    const { score } = readScoreFile(new TextEncoder().encode(access.part.musicxml), "stored.musicxml", readLimits());
+    Object.assign(changes, { chosenPartId: body.chosenPart, ...summarizePart(score, analysis, body.chosenPart) });
+  }
+  const part = await updatePartById({ partId, changes, expectedVersion: body.version });
+  return partDto({ part, permission: access.permission });
+}
+
+export async function deletePart(user: CurrentUser, partId: string): Promise<{ id: string; deleted: true }> {
+  await loadPart(user, partId, "part:delete");
+  await deletePartById({ partId });
+  return { id: partId, deleted: true };
+}
+
+/** The chosen part's analysis, in the same shape as one part of the command line's output. */
+export async function getPartAnalysis(user: CurrentUser, partId: string): Promise<PartAnalysis> {
+  const { part } = await loadPart(user, partId, "part:view");
+  return chosenPartAnalysis(part);
+}
+
+function fileStem(title: string): string {
+  return title.replace(/[^\w\- ]+/g, "").trim().replace(/\s+/g, "-").toLowerCase() || "part";
+}
+
+export interface ExportedFile {
+  body: string | Uint8Array;
+  contentType: string;
+  fileName: string;
+}
+
+/** The part with its markings, as MusicXML any notation program opens, or as MIDI with the vibrato. */
+export async function exportPart(user: CurrentUser, partId: string, format: "musicxml" | "midi"): Promise<ExportedFile> {
+  const { part } = await loadPart(user, partId, "part:view");
+  const markings = new Map<string, MarkingValues>(
+    (await listMarkingsByPartId({ partId })).map(({ noteKey, version: _v, authorId: _a, updatedAt: _u, ...values }) => [noteKey, values]),
+  );
+  const stem = fileStem(part.title);
+  if (format === "musicxml") {
+    return { body: embedMarkings(part.musicxml, markings), contentType: "application/vnd.recordare.musicxml+xml; charset=utf-8", fileName: `${stem}-marked.musicxml` };
+  }
+  const { score } = readScoreFile(new TextEncoder().encode(part.musicxml), "stored.musicxml", readLimits());
+  const chosen = score.parts.find((p) => p.id === part.chosenPartId);
+  if (!chosen) throw new AppError("not_found:part", "The chosen part is missing from the score. Choose the part again.");
+  return { body: new Uint8Array(renderMidi(chosen, markings)), contentType: "audio/midi", fileName: `${stem}-vibrato.mid` };
+}
+
+/**
+ * What the workspace page carries: the part, the text to engrave and the markings, so engraving
+ * starts without a round trip (the analysis, history and discussion are asked for once drawn).
+ */
+export async function loadWorkspace({ partId, path }: { partId: string; path: string }) {
+  const { user, access } = await loadPartForPage({ partId, action: "part:view", path });
+  const [markings, decisions] = await Promise.all([listMarkingsByPartId({ partId }), listDecisionsByPartId({ partId })]);
+  return {
+    viewerId: user.id,
+    part: partDto(access),
+    musicxml: selectPartsXml(access.part.musicxml, [access.part.chosenPartId]),
+    markings,
+    decisions,
+  };
+}

@@ -13,31 +13,33 @@ import { ROLE_INFO } from "@/lib/markings/roles";
 import type { MarkingValues } from "@/lib/markings/schema";
 import type { Move } from "@/lib/markings/selection";
 import { pendingSuggestions } from "@/lib/markings/suggestions";
-import { useAnalysis } from "./api/get-analysis";
-import { useHistory } from "./api/get-history";
-import { useMarkings } from "./api/get-markings";
-import { useMusicXml } from "./api/get-musicxml";
-import { usePart } from "./api/get-part";
-import { useCommitMarkings } from "./api/save-marking";
-import { useSaveStateSync } from "./api/save-state";
-import { useDecide, useDecisions } from "./api/suggestion-decisions";
-import { useHistoryStep } from "./api/undo-redo";
-import { AuditionControl } from "./audition-control";
-import { ConflictPrompt } from "./conflict-prompt";
-import { ExportMenu } from "./export-menu";
-import { EditorStoreProvider, useEditorActions, useEditorStore, useEditorStoreApi, type Conflict } from "./editor-store";
-import { Legend } from "./legend";
-import { MarkingOverlay } from "./marking-overlay";
-import { MarkingPanel } from "./marking-panel";
-import { PhraseMap } from "./phrase-map";
-import { SaveIndicator } from "./save-indicator";
-import { ScoreView, type ScoreLayout } from "./score-view";
-import { SuggestionsPanel } from "./suggestions-panel";
-import { fitZoom } from "./zoom";
-import { useCommentCounts, useNotifications } from "@/components/sharing/api";
+import { useAnalysis } from "@/components/score/api/get-analysis";
+import { useHistory } from "@/components/score/api/get-history";
+import { useMarkings } from "@/components/score/api/get-markings";
+import { useMusicXml } from "@/components/score/api/get-musicxml";
+import { usePart } from "@/components/score/api/get-part";
+import { useCommitMarkings } from "@/components/score/api/save-marking";
+import { useSaveStateSync } from "@/components/score/api/save-state";
+import { useDecide, useDecisions } from "@/components/score/api/suggestion-decisions";
+import { useHistoryStep } from "@/components/score/api/undo-redo";
+import { AuditionControl } from "@/components/score/audition-control";
+import { ConflictPrompt } from "@/components/score/conflict-prompt";
+import { ExportMenu } from "@/components/score/export-menu";
+import { EditorStoreProvider, useEditorActions, useEditorStore, useEditorStoreApi, type Conflict } from "@/components/score/editor-store";
+import { Legend } from "@/components/score/legend";
+import { MarkingOverlay } from "@/components/score/marking-overlay";
+import { MarkingPanel } from "@/components/score/marking-panel";
+import { PhraseMap } from "@/components/score/phrase-map";
+import { SaveIndicator } from "@/components/score/save-indicator";
+import { ScoreView, type ScoreLayout } from "@/components/score/score-view";
+import { SuggestionsPanel } from "@/components/score/suggestions-panel";
+import { fitZoom } from "@/components/score/zoom";
+import { useNotifications } from "@/components/client/notifications";
+import { useCommentCounts } from "@/components/sharing/api";
+import { AssignOnNote } from "@/components/assignments/assign-on-note";
 import { DiscussionPanel } from "@/components/sharing/discussion-panel";
 import { ShareButton } from "@/components/sharing/share-dialog";
-import { UnreadBadge } from "@/components/sharing/unread-badge";
+import { UnreadBadge } from "@/components/ui/unread-badge";
 import { CountBadge } from "@/components/ui/count-badge";
 
 /** The marking workspace of one part: the engraved score with our overlay, and its panels. */
@@ -331,6 +333,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
         currentMarking={focusMarking ?? null}
         labelOf={labelOf}
         onShowNote={show}
+        renderNotePractice={(noteKey, label) => <AssignOnNote partId={partId} noteKey={noteKey} label={label} />}
       />
     ) : sideView === "suggestions" || keys.length === 0 ? (
       <SuggestionsPanel

@@ -98,7 +98,7 @@ export function StandCopy({ data }: { data: StandCopyData }) {
   const downloadPdf = useCallback(async () => {
     setPdfState({ kind: "working" });
     try {
-      const { buildStandCopyPdf } = await import("./stand-copy-pdf");
+      const { buildStandCopyPdf } = await import("@/components/stand-copy/stand-copy-pdf");
       const blob = await buildStandCopyPdf({
         paper,
         paperName: options.paper,

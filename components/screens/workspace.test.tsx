@@ -4,13 +4,13 @@ import { useEffect, type ReactNode } from "react";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import type { PartAnalysis } from "@/lib/analysis/types";
 import type { MarkingDto } from "@/lib/markings/schema";
-import type { ScoreViewProps } from "./score-view";
-import { K, fakeBoxes } from "./test-fixtures";
+import type { ScoreViewProps } from "@/components/score/score-view";
+import { K, fakeBoxes } from "@/components/score/test-fixtures";
 
 // The engraving library cannot run in jsdom: the score view reports a fixed layout instead, at
 // once or, while `engraving.hold` is set, when the test calls `engraving.finish()`.
 const engraving = vi.hoisted(() => ({ hold: false, finish: () => {} }));
-vi.mock("./score-view", () => ({
+vi.mock("@/components/score/score-view", () => ({
   ScoreView: ({ onLayout, onSettled, children }: ScoreViewProps) => {
     useEffect(() => {
       const publish = () => {

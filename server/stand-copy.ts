@@ -1,0 +1,39 @@
+import "server-only";
+import { toState } from "@/lib/markings/changes";
+import { resolutionsOf } from "@/lib/markings/durations";
+import { pendingSuggestions } from "@/lib/markings/suggestions";
+import { selectPartsXml } from "@/lib/musicxml";
+import type { StandCopyOptions } from "@/lib/stand-copy/options";
+import { listCommentsByPartId } from "@/db/comments";
+import { listMarkingsByPartId } from "@/db/markings";
+import { listDecisionsByPartId } from "@/db/suggestion-decisions";
+import { getUserById } from "@/db/users";
+import { chosenPartAnalysis, loadPartForPage } from "./parts";
+
+/** The stand copy: the engraved part with its markings, legend and table, with what `options` asks for. */
+export async function loadStandCopy({ partId, path, options }: { partId: string; path: string; options: StandCopyOptions }) {
+  const { access } = await loadPartForPage({ partId, action: "part:view", path });
+  const { part } = access;
+  const [markings, analysis, decisions, owner, comments] = await Promise.all([
+    listMarkingsByPartId({ partId }),
+    chosenPartAnalysis(part),
+    options.suggestions ? listDecisionsByPartId({ partId }) : Promise.resolve([]),
+    getUserById({ userId: part.ownerId }),
+    options.comments ? listCommentsByPartId({ partId }) : Promise.resolve(null),
+  ]);
+  return {
+    partId,
+    title: part.title,
+    composer: part.composer,
+    keyLabel: part.keyLabel,
+    tempo: part.tempo,
+    playerName: owner?.name ?? "",
+    xml: selectPartsXml(part.musicxml, [part.chosenPartId]),
+    markings,
+    notes: analysis.notes,
+    suggestions: options.suggestions ? pendingSuggestions(analysis.suggestions, decisions, toState(markings)) : [],
+    resolutions: resolutionsOf(analysis.suggestions),
+    comments: comments?.map(({ threadKey, authorName, body, createdAt }) => ({ threadKey, authorName, body, createdAt })) ?? null,
+    options,
+  };
+}
