@@ -401,7 +401,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
             Fit width
           </ToolButton>
         </div>
-        <div className="flex items-center gap-1">
+        <div className="flex flex-wrap items-center gap-1">
           {canEdit && part.data ? <ShareButton partId={partId} partTitle={part.data.title} /> : null}
           <ToolButton
             onClick={() => actions.setSideView("suggestions")}
