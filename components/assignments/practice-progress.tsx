@@ -22,16 +22,16 @@ export function PracticeProgress({ students }: { students: StudentProgress[] }) 
       {students.length === 0 ? (
         <p className="text-graphite">No student has shared a part with you yet, so there is no practice to follow.</p>
       ) : (
-        <div className="overflow-x-auto rounded-card border border-rule bg-paper-card">
+        <div className="rounded-card border border-rule bg-paper-card">
           <table className="w-full text-left text-sm">
             <caption className="sr-only">Practice progress per student and part</caption>
             <thead className="border-b border-rule bg-paper-deep">
               <tr>
                 <th scope="col" className="px-3 py-2 font-semibold">Student</th>
                 <th scope="col" className="px-3 py-2 font-semibold">Part</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Your practice</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Last {PROGRESS_WINDOW_DAYS} days</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Last take</th>
+                <th scope="col" className={`px-3 py-2 font-semibold ${FOLDED_CELL}`}>Your practice</th>
+                <th scope="col" className={`px-3 py-2 font-semibold ${FOLDED_CELL}`}>Last {PROGRESS_WINDOW_DAYS} days</th>
+                <th scope="col" className={`px-3 py-2 font-semibold ${FOLDED_CELL}`}>Last take</th>
               </tr>
             </thead>
             <tbody>
@@ -41,35 +41,29 @@ export function PracticeProgress({ students }: { students: StudentProgress[] }) 
                     {i === 0 ? (
                       <th scope="rowgroup" rowSpan={s.parts.length} className="px-3 py-2 align-top font-semibold">
                         {s.ownerName}
-                        <span className="block font-normal text-graphite">{s.ownerEmail}</span>
+                        <span className="block font-normal text-graphite [overflow-wrap:anywhere]">{s.ownerEmail}</span>
                       </th>
                     ) : null}
                     <td className="px-3 py-2">
-                      <Link href={`/parts/${p.partId}/practice`} className="font-medium text-accent-strong underline">{p.title}</Link>
+                      <Link href={`/parts/${p.partId}/practice`} className="inline-flex min-h-6 items-center font-medium text-accent-strong underline">{p.title}</Link>
+                      {/* The next three columns, folded under the part on a phone. */}
+                      <dl className="mt-1 grid grid-cols-[auto_1fr] gap-x-2 text-xs md:hidden">
+                        <dt className="text-graphite">Your practice</dt>
+                        <dd><OpenPractice part={p} /></dd>
+                        <dt className="text-graphite">Last {PROGRESS_WINDOW_DAYS} days</dt>
+                        <dd className="tabular-nums"><MinutesLately part={p} /></dd>
+                        <dt className="text-graphite">Last take</dt>
+                        <dd><LastTake part={p} /></dd>
+                      </dl>
                     </td>
-                    <td className="px-3 py-2" data-testid="progress-open">
-                      {p.openAssignments === 0 ? (
-                        <span className="text-graphite">none open</span>
-                      ) : (
-                        <>
-                          {p.openAssignments} open{" "}
-                          {p.overdueAssignments > 0 ? (
-                            <span className="ml-2 inline-flex items-center gap-1 rounded border border-danger px-1.5 font-semibold text-danger">
-                              <span aria-hidden="true">!</span>
-                              {p.overdueAssignments} overdue
-                            </span>
-                          ) : null}
-                        </>
-                      )}
+                    <td className={`px-3 py-2 ${FOLDED_CELL}`} data-testid="progress-open">
+                      <OpenPractice part={p} />
                     </td>
-                    <td className="px-3 py-2 tabular-nums" data-testid="progress-minutes">
-                      {formatNumber(p.minutesLately, 1)} min
-                      {p.minutesAskedPerDay > 0 ? (
-                        <span className="text-graphite"> of {minutesAskedInWindow(p.minutesAskedPerDay)} asked</span>
-                      ) : null}
+                    <td className={`px-3 py-2 tabular-nums ${FOLDED_CELL}`} data-testid="progress-minutes">
+                      <MinutesLately part={p} />
                     </td>
-                    <td className="px-3 py-2" data-testid="progress-take">
-                      {p.lastTakeAt ? day.format(new Date(p.lastTakeAt)) : <span className="text-graphite">none yet</span>}
+                    <td className={`px-3 py-2 ${FOLDED_CELL}`} data-testid="progress-take">
+                      <LastTake part={p} />
                     </td>
                   </tr>
                 )),
@@ -80,4 +74,37 @@ export function PracticeProgress({ students }: { students: StudentProgress[] }) 
       )}
     </section>
   );
+}
+
+/** Below `md` (a phone) these columns fold under the part's name. */
+const FOLDED_CELL = "hidden md:table-cell";
+
+type ProgressPart = StudentProgress["parts"][number];
+
+function OpenPractice({ part: p }: { part: ProgressPart }) {
+  if (p.openAssignments === 0) return <span className="text-graphite">none open</span>;
+  return (
+    <>
+      {p.openAssignments} open{" "}
+      {p.overdueAssignments > 0 ? (
+        <span className="ml-2 inline-flex items-center gap-1 rounded border border-danger px-1.5 font-semibold text-danger">
+          <span aria-hidden="true">!</span>
+          {p.overdueAssignments} overdue
+        </span>
+      ) : null}
+    </>
+  );
+}
+
+function MinutesLately({ part: p }: { part: ProgressPart }) {
+  return (
+    <>
+      {formatNumber(p.minutesLately, 1)} min
+      {p.minutesAskedPerDay > 0 ? <span className="text-graphite"> of {minutesAskedInWindow(p.minutesAskedPerDay)} asked</span> : null}
+    </>
+  );
+}
+
+function LastTake({ part: p }: { part: ProgressPart }) {
+  return p.lastTakeAt ? <>{day.format(new Date(p.lastTakeAt))}</> : <span className="text-graphite">none yet</span>;
 }

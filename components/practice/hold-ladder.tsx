@@ -77,10 +77,12 @@ export function HoldLadder({ tempo, writtenBeats, markedHz }: { tempo: number; w
                 type="button"
                 onClick={() => start(i)}
                 aria-current={current ? "step" : undefined}
-                aria-label={`Start at hold ${i + 1}: ${s.beats} beats, ${fmt(s.seconds)} seconds`}
                 className="grid min-h-11 w-full grid-cols-[4.5rem_1fr_1fr_1fr] items-center gap-2 whitespace-nowrap max-sm:grid-cols-[3.5rem_auto_auto_1fr] max-sm:gap-3 rounded-card border border-transparent px-3 text-left text-sm hover:bg-paper-deep aria-[current=step]:border-accent aria-[current=step]:bg-paper-deep aria-[current=step]:font-semibold"
               >
-                <span className="text-graphite">Hold {i + 1}</span>
+                {/* The name is what the row shows, so a voice command can say it (WCAG 2.5.3). */}
+                <span className="text-graphite">
+                  <span className="sr-only">Start at </span>Hold {i + 1}
+                </span>
                 <span className="tabular-nums">
                   {formatNumber(s.beats)} {s.beats === 1 ? "beat" : "beats"}
                 </span>

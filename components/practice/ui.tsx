@@ -38,7 +38,7 @@ export function Button({
       disabled={disabled}
       aria-label={label}
       aria-pressed={pressed}
-      className={`min-h-11 rounded-card px-4 text-sm font-semibold disabled:cursor-not-allowed disabled:opacity-50 ${look}`}
+      className={`min-h-11 min-w-11 rounded-card px-4 text-sm font-semibold disabled:cursor-not-allowed disabled:opacity-50 ${look}`}
     >
       {children}
     </button>

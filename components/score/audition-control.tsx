@@ -97,7 +97,7 @@ export function AuditionControl({ keys, notes, phrases, markings, tempo }: Audit
           value={volume}
           onChange={(e) => setVolume(Number(e.target.value))}
           aria-valuetext={`${Math.round((volume / MAX_VOLUME) * 100)} %`}
-          className="w-24"
+          className="h-6 w-24"
         />
         <span className="w-10 tabular-nums text-graphite">{Math.round((volume / MAX_VOLUME) * 100)} %</span>
       </label>

@@ -9,6 +9,7 @@ import {
   GLYPH, commentMarker, glyphSlots, glyphText, roleShapePath, suggestionDash, vibratoWave, waveWidth,
   type NoteBox,
 } from "@/lib/markings/glyph-geometry";
+import { hitSpans, TOUCH_TARGET_PX } from "@/lib/markings/hit-areas";
 import { fitLabels } from "@/lib/markings/glyph-labels";
 import { tensionArcPieces, type ArcRow } from "@/lib/markings/tension-arc";
 import { ROLE_INFO } from "@/lib/markings/roles";
@@ -177,21 +178,29 @@ const HitLayer = memo(function HitLayer({
   useLayoutEffect(() => {
     if (placed.size > 0) performance.mark("ondula:notes-selectable");
   }, [placed]);
+  // Touch targets up to 44 px wide without taking a neighbour's taps (lib/markings/hit-areas.ts).
+  const spans = useMemo(
+    () =>
+      hitSpans(
+        [...placed.values()].map(({ box, row }) => ({ key: box.key, centre: box.x + box.width / 2, row, minWidth: Math.max(box.width + 8 * scale, 24) })),
+      ),
+    [placed, scale],
+  );
   return (
     <g data-layer="hits">
       {[...placed.values()].map(({ box, rowTop }) => {
         const slots = glyphSlots(box, scale, rowTop);
-        // Touch-friendly: at least 24 px wide, and from the glyphs above down to the note.
-        const w = Math.max(box.width + 8 * scale, 24);
+        const span = spans.get(box.key)!;
+        // From the glyphs above down to the note, and never less than a fingertip tall.
         const top = slots.commentY;
-        const bottom = box.y + box.height + 4 * scale;
+        const bottom = Math.max(box.y + box.height + 4 * scale, top + TOUCH_TARGET_PX);
         return (
           <rect
             key={box.key}
             data-note-key={box.key}
-            x={box.x + box.width / 2 - w / 2}
+            x={span.left}
             y={top}
-            width={w}
+            width={span.width}
             height={bottom - top}
             fill="transparent"
             className="pointer-events-auto cursor-pointer"

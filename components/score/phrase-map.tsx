@@ -20,8 +20,9 @@ export interface PhraseMapProps {
   localKeys?: readonly LocalKey[];
 }
 
-const STRIP_H = 44;
-const KEY_BAND_H = 18;
+/** Room for the start and peak marks (24 px targets) above a 24 px phrase bar (WCAG 2.2 SC 2.5.8). */
+const STRIP_H = 48;
+const KEY_BAND_H = 24;
 /** The furthest the map zooms in: past this a phrase is a handful of notes. */
 const MAX_ZOOM = 64;
 /** A key's name is written in its span where it fits. */
@@ -89,7 +90,7 @@ export const PhraseMap = memo(function PhraseMap({ noteOrder, phrases, markings,
       ) : null}
       <div className={zoom > 1 ? "overflow-x-auto" : ""}>
         <div className="relative mx-3" style={{ height, width: zoom > 1 ? width : undefined }}>
-          <div className="absolute inset-x-0 top-[30px] h-px bg-rule" aria-hidden="true" />
+          <div className="absolute inset-x-0 top-[36px] h-px bg-rule" aria-hidden="true" />
           {items.map((it) => {
             if (it.kind === "group") {
               const first = phrases[it.first];
@@ -99,43 +100,52 @@ export const PhraseMap = memo(function PhraseMap({ noteOrder, phrases, markings,
                   key={`g${it.first}`}
                   type="button"
                   onClick={() => onJump(first.start)}
-                  className="absolute top-[22px] h-4 rounded-sm border border-graphite hover:opacity-80"
-                  // Hatched: several phrases drawn as one span.
-                  style={{ left: it.left, width: it.width, backgroundImage: "repeating-linear-gradient(90deg, #F3EDE0 0 3px, #DDD5C4 3px 4px)" }}
+                  className="group absolute top-6 h-6"
+                  style={{ left: it.left, width: it.width }}
                   aria-label={`Phrases ${it.first + 1} to ${it.last + 1}: ${labelOf(first.start)} to ${labelOf(last.end)}`}
                   title={`Phrases ${it.first + 1}–${it.last + 1}`}
                   data-phrase-group={`${it.first + 1}-${it.last + 1}`}
-                />
+                >
+                  {/* Hatched: several phrases drawn as one span, inside a 24 px tall target. */}
+                  <span
+                    className="absolute inset-x-0 top-1 h-4 rounded-sm border border-graphite group-hover:opacity-80"
+                    style={{ backgroundImage: "repeating-linear-gradient(90deg, #F3EDE0 0 3px, #DDD5C4 3px 4px)" }}
+                    aria-hidden="true"
+                  />
+                </button>
               );
             }
             const p = phrases[it.index];
             const i = it.index;
             return (
-              <div key={`${p.start}-${i}`} className="absolute top-0 h-[44px]" style={{ left: it.left, width: it.width }}>
+              <div key={`${p.start}-${i}`} className="absolute top-0 h-12" style={{ left: it.left, width: it.width }}>
                 <button
                   type="button"
                   onClick={() => onJump(p.start)}
-                  className="absolute inset-x-0 top-[22px] h-4 rounded-sm border border-graphite bg-paper-deep hover:bg-rule"
+                  className="group absolute inset-x-0 top-6 h-6"
                   aria-label={`Phrase ${i + 1}: ${labelOf(p.start)} to ${labelOf(p.end)}, peak ${labelOf(p.peak)}`}
                   title={`Phrase ${i + 1}`}
-                />
+                >
+                  {/* The bar drawn inside a 24 px tall target (WCAG 2.2 SC 2.5.8). */}
+                  <span className="absolute inset-x-0 top-1 h-4 rounded-sm border border-graphite bg-paper-deep group-hover:bg-rule" aria-hidden="true" />
+                </button>
                 {it.width >= 24 ? <Mark at={0} role="phrase-start" label={`Phrase ${i + 1} start, ${labelOf(p.start)}`} onClick={() => onJump(p.start)} /> : null}
                 {it.peak !== null ? <Mark at={it.peak} role="peak" label={`Phrase ${i + 1} peak, ${labelOf(p.peak)}`} onClick={() => onJump(p.peak)} /> : null}
-                <span className="absolute right-0 top-[20px] h-5 w-[3px] bg-ink" aria-hidden="true" title={`End: ${labelOf(p.end)}`} />
+                <span className="absolute right-0 top-[26px] h-5 w-[3px] bg-ink" aria-hidden="true" title={`End: ${labelOf(p.end)}`} />
               </div>
             );
           })}
           {dots.map((d) => {
             const key = noteOrder[d.first];
             return (
-              <button
+              // A picture only: dots this small and this close together are no target a finger can hit.
+              <span
                 key={key}
-                type="button"
-                onClick={() => onJump(key)}
-                className="absolute top-[38px] h-1.5 w-1.5 -translate-x-1/2 rounded-full bg-ink"
+                className="pointer-events-none absolute top-[41px] h-1.5 w-1.5 -translate-x-1/2 rounded-full bg-ink"
                 style={{ left: d.x }}
-                aria-label={d.count > 1 ? `${d.count} marked notes from ${labelOf(key)}` : `Marked note, ${labelOf(key)}`}
-                tabIndex={-1}
+                aria-hidden="true"
+                data-marked-note={key}
+                title={d.count > 1 ? `${d.count} marked notes from ${labelOf(key)}` : `Marked note, ${labelOf(key)}`}
               />
             );
           })}
@@ -149,7 +159,7 @@ export const PhraseMap = memo(function PhraseMap({ noteOrder, phrases, markings,
                 key={`${k.from}-${i}`}
                 type="button"
                 onClick={() => onJump(noteOrder[k.from])}
-                className={`absolute overflow-hidden whitespace-nowrap rounded-sm border px-1 text-left text-[11px] leading-[16px] ${k.mode === "minor" ? "border-graphite bg-paper-deep" : "border-rule bg-paper-card"}`}
+                className={`absolute overflow-hidden whitespace-nowrap rounded-sm border px-1 text-left text-[11px] leading-[22px] ${k.mode === "minor" ? "border-graphite bg-paper-deep" : "border-rule bg-paper-card"}`}
                 style={{ top: STRIP_H + 2, height: KEY_BAND_H, left, width: w }}
                 aria-label={`Local key: ${label}`}
                 title={label}

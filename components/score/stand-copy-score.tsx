@@ -85,7 +85,9 @@ export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolu
   return (
     <div data-stand-score={status}>
       {/* The source keeps its width but no height, in print too, so it never re-lays out. */}
-      <div ref={sourceRef} className="pointer-events-none h-0 overflow-hidden" aria-hidden="true" inert>
+      {/* It also undoes the page's viewing scale (--stand-zoom, see stand-copy.tsx), so what is
+          measured from it is in the paper's own pixels on any screen. */}
+      <div ref={sourceRef} className="pointer-events-none h-0 overflow-hidden [zoom:calc(1/var(--stand-zoom,1))] print:[zoom:1]" aria-hidden="true" inert>
         <div style={{ width }}>
           <ScoreView xml={xml} zoom={zoom} onLayout={onLayout} minTextPx={GLYPH_TEXT_PX} layoutFrom="drawing">
             {layout ? (

@@ -99,7 +99,7 @@ export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, canWri
       <header className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <p className="text-sm text-graphite">
-            <Link href={`/parts/${partId}`} className="underline underline-offset-4 hover:text-ink">
+            <Link href={`/parts/${partId}`} className="inline-flex min-h-6 items-center underline underline-offset-4 hover:text-ink">
               ← Back to the score
             </Link>
           </p>

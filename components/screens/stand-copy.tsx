@@ -2,14 +2,14 @@
 
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { useCallback, useMemo, useRef, useState } from "react";
+import { useCallback, useLayoutEffect, useMemo, useRef, useState, type CSSProperties, type RefObject } from "react";
 import type { AnalyzedNote, Suggestion } from "@/lib/analysis/types";
 import { toState } from "@/lib/markings/changes";
 import { noteDurations, resolutionsOf } from "@/lib/markings/durations";
 import { noteLabel } from "@/lib/markings/note-labels";
 import { formatNumber } from "@/lib/markings/pulses";
 import type { MarkingDto } from "@/lib/markings/schema";
-import { PAPERS, contentWidthPx, standCopyHref, type StandCopyOptions } from "@/lib/stand-copy/options";
+import { PAPERS, PX_PER_MM, contentWidthPx, standCopyHref, type StandCopyOptions } from "@/lib/stand-copy/options";
 import { markedNoteRows } from "@/lib/stand-copy/table";
 import { Legend } from "@/components/score/legend";
 import { StandCopyScore } from "@/components/score/stand-copy-score";
@@ -39,6 +39,27 @@ function fileStem(title: string): string {
   return title.replace(/[^\w\- ]+/g, "").trim().replace(/\s+/g, "-").toLowerCase() || "part";
 }
 
+/** Room kept on each side of the page when it is scaled down to a narrow screen, in CSS px. */
+const SIDE_ROOM = 12;
+
+/**
+ * The scale at which the paper page fits the frame's width on screen (at most 1): a phone sees
+ * the whole page, smaller, as it will print. Print and the PDF always use the true size.
+ */
+function useViewScale(frameRef: RefObject<HTMLDivElement | null>, pagePx: number): number {
+  const [scale, setScale] = useState(1);
+  useLayoutEffect(() => {
+    const frame = frameRef.current;
+    if (!frame) return;
+    const fit = (available: number) => setScale(Math.min(1, Math.max(0.2, (available - 2 * SIDE_ROOM) / pagePx)));
+    fit(frame.clientWidth);
+    const observer = new ResizeObserver(([entry]) => fit(entry.contentRect.width));
+    observer.observe(frame);
+    return () => observer.disconnect();
+  }, [frameRef, pagePx]);
+  return scale;
+}
+
 /** The printable annotated copy of a part, with its print and PDF buttons. */
 export function StandCopy({ data }: { data: StandCopyData }) {
   const router = useRouter();
@@ -46,6 +67,8 @@ export function StandCopy({ data }: { data: StandCopyData }) {
   const paper = PAPERS[options.paper];
   const width = contentWidthPx(paper);
   const legendRef = useRef<HTMLDivElement>(null);
+  const frameRef = useRef<HTMLDivElement>(null);
+  const viewScale = useViewScale(frameRef, width + 2 * paper.marginMm * PX_PER_MM);
   const [systems, setSystems] = useState<SVGSVGElement[]>([]);
   const [pdfState, setPdfState] = useState<{ kind: "idle" | "working" | "done" | "error"; message?: string }>({ kind: "idle" });
 
@@ -101,7 +124,7 @@ export function StandCopy({ data }: { data: StandCopyData }) {
   }, [paper, options.paper, data.title, data.composer, meta, systems, rows, comments]);
 
   return (
-    <div className="bg-paper-deep py-6 print:bg-white print:py-0" data-testid="stand-copy" data-paper={options.paper}>
+    <div ref={frameRef} className="bg-paper-deep py-6 print:bg-white print:py-0" data-testid="stand-copy" data-paper={options.paper}>
       <style>{`@page { size: ${paper.cssSize}; margin: ${paper.marginMm}mm; }`}</style>
 
       <form className="no-print mx-auto mb-6 flex max-w-4xl flex-wrap items-end gap-x-6 gap-y-3 px-gutter" aria-label="Stand copy options" onSubmit={(e) => e.preventDefault()}>
@@ -147,8 +170,9 @@ export function StandCopy({ data }: { data: StandCopyData }) {
       </form>
 
       <article
-        className="stand-page mx-auto bg-white text-ink shadow-[0_1px_8px_rgba(27,26,23,0.15)] print:!p-0 print:shadow-none"
-        style={{ width, boxSizing: "content-box", padding: `${paper.marginMm}mm` }}
+        className="stand-page mx-auto bg-white text-ink shadow-[0_1px_8px_rgba(27,26,23,0.15)] [zoom:var(--stand-zoom)] print:!p-0 print:shadow-none print:[zoom:1]"
+        style={{ width, boxSizing: "content-box", padding: `${paper.marginMm}mm`, "--stand-zoom": viewScale } as CSSProperties}
+        data-view-scale={viewScale}
         aria-label={`Stand copy of ${data.title}`}
       >
         <header className="mb-2 border-b border-graphite/60 pb-2">

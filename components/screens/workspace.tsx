@@ -381,7 +381,11 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
     );
 
   return (
-    <div className="flex h-[calc(100dvh-3.6rem)] flex-col bg-paper" data-testid="workspace">
+    // A frame the height of the screen, the score scrolling inside it, where the screen is wide
+    // and tall enough to leave the music room under the toolbar (the site header is one line
+    // there); on a phone the page scrolls as a whole instead, so the toolbar moves away with
+    // the music.
+    <div className="flex flex-col bg-paper sm:[@media(min-height:40rem)]:h-[calc(100dvh-3.6rem)]" data-testid="workspace">
       <div className="no-print flex flex-wrap items-center gap-x-4 gap-y-1 border-b border-rule px-gutter py-2">
         <div className="w-full min-w-0 lg:w-auto lg:flex-1">
           <h1 className="truncate text-xl font-semibold leading-tight">{part.data?.title ?? "…"}</h1>
@@ -419,18 +423,18 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
           <ToolButton onClick={() => actions.zoomBy(0.1)} label="Zoom in">
             +
           </ToolButton>
-          <ToolButton onClick={() => actions.setZoom(fitZoom(scrollerRef.current?.clientWidth ?? 1000))} label="Fit to width">
+          <ToolButton onClick={() => actions.setZoom(fitZoom(scrollerRef.current?.clientWidth ?? 1000))} label="Fit width">
             Fit width
           </ToolButton>
         </div>
-        <div className="flex items-center gap-1">
+        <div className="flex flex-wrap items-center gap-1">
           {canEdit && part.data ? <ShareButton partId={partId} partTitle={part.data.title} /> : null}
           <ToolButton
             onClick={() => actions.setSideView("suggestions")}
-            label={pending.length ? `Suggestions, ${pending.length} to decide` : "Suggestions"}
+            // Named by what it shows, "Suggestions" and the count badge's "N to decide" (WCAG 2.5.3).
             pressed={panelOpen && (sideView === "suggestions" || keys.length === 0)}
           >
-            Suggestions
+            Suggestions{" "}
             <CountBadge count={pending.length} noun="to decide" className="ml-1" />
           </ToolButton>
           <ToolButton onClick={() => actions.setLegendOpen(!legendOpen)} label="Legend" pressed={legendOpen}>
@@ -473,7 +477,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
       <WorkspaceHint showHint={canEdit && xml.data !== undefined && Object.keys(markings).length === 0} />
 
       <div className="relative flex min-h-0 flex-1">
-        <div ref={scrollerRef} className="min-w-0 flex-1 overflow-auto" data-testid="score-scroller">
+        <div ref={scrollerRef} className="min-w-0 flex-1 overflow-auto" data-testid="score-scroller" data-scroll-x>
           <div
             ref={scoreRef}
             tabIndex={0}
@@ -556,7 +560,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
 
 function ToolButton({
   children, label, onClick, disabled, pressed,
-}: { children: React.ReactNode; label: string; onClick: () => void; disabled?: boolean; pressed?: boolean }) {
+}: { children: React.ReactNode; label?: string; onClick: () => void; disabled?: boolean; pressed?: boolean }) {
   return (
     <button
       type="button"

@@ -9,6 +9,9 @@ import { UnreadBadge } from "@/components/ui/unread-badge";
  * For a teacher's studio page: parts students shared with them, grouped by student, the ones
  * with unread items first and then by latest activity.
  */
+/** Below `md` (a phone) these columns fold under the part's title. */
+const FOLDED_CELL = "hidden md:table-cell";
+
 export function SharedWithMe() {
   const q = useSharedWithMe();
   return (
@@ -20,16 +23,16 @@ export function SharedWithMe() {
         <p className="text-graphite">No student has shared a part with you yet. Students share from their part’s workspace with your e-mail address.</p>
       ) : null}
       {q.data && q.data.students.length > 0 ? (
-        <div className="overflow-x-auto rounded-card border border-rule bg-paper-card">
+        <div className="rounded-card border border-rule bg-paper-card">
           <table className="w-full text-left text-sm">
             <thead className="border-b border-rule bg-paper-deep">
               <tr>
                 <th scope="col" className="px-3 py-2 font-semibold">Student</th>
                 <th scope="col" className="px-3 py-2 font-semibold">Part</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Unread</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Open proposals</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Last activity</th>
-                <th scope="col" className="px-3 py-2 font-semibold">You may</th>
+                <th scope="col" className={`px-3 py-2 font-semibold ${FOLDED_CELL}`}>Unread</th>
+                <th scope="col" className={`px-3 py-2 font-semibold ${FOLDED_CELL}`}>Open proposals</th>
+                <th scope="col" className={`px-3 py-2 font-semibold ${FOLDED_CELL}`}>Last activity</th>
+                <th scope="col" className={`px-3 py-2 font-semibold ${FOLDED_CELL}`}>You may</th>
               </tr>
             </thead>
             <tbody>
@@ -39,16 +42,27 @@ export function SharedWithMe() {
                     {i === 0 ? (
                       <th scope="rowgroup" rowSpan={s.parts.length} className="px-3 py-2 align-top font-semibold">
                         {s.ownerName}
-                        <span className="block font-normal text-graphite">{s.ownerEmail}</span>
+                        <span className="block font-normal text-graphite [overflow-wrap:anywhere]">{s.ownerEmail}</span>
                       </th>
                     ) : null}
                     <td className="px-3 py-2">
-                      <Link href={`/parts/${p.partId}`} className="font-medium text-accent-strong underline">{p.title}</Link>
+                      <Link href={`/parts/${p.partId}`} className="inline-flex min-h-6 items-center font-medium text-accent-strong underline">{p.title}</Link>
+                      {/* The other columns, folded under the part on a phone. */}
+                      <dl className="mt-1 grid grid-cols-[auto_1fr] gap-x-2 text-xs md:hidden">
+                        <dt className="text-graphite">Unread</dt>
+                        <dd>{p.unread > 0 ? p.unread : "—"}</dd>
+                        <dt className="text-graphite">Open proposals</dt>
+                        <dd className="tabular-nums">{p.openProposals || "—"}</dd>
+                        <dt className="text-graphite">Last activity</dt>
+                        <dd>{formatWhen(p.lastActivityAt)}</dd>
+                        <dt className="text-graphite">You may</dt>
+                        <dd>{PERMISSION_LABEL[p.permission]}</dd>
+                      </dl>
                     </td>
-                    <td className="px-3 py-2">{p.unread > 0 ? <UnreadBadge count={p.unread} /> : <span className="text-graphite">—</span>}</td>
-                    <td className="px-3 py-2 tabular-nums">{p.openProposals || "—"}</td>
-                    <td className="px-3 py-2">{formatWhen(p.lastActivityAt)}</td>
-                    <td className="px-3 py-2">{PERMISSION_LABEL[p.permission]}</td>
+                    <td className={`px-3 py-2 ${FOLDED_CELL}`}>{p.unread > 0 ? <UnreadBadge count={p.unread} /> : <span className="text-graphite">—</span>}</td>
+                    <td className={`px-3 py-2 tabular-nums ${FOLDED_CELL}`}>{p.openProposals || "—"}</td>
+                    <td className={`px-3 py-2 ${FOLDED_CELL}`}>{formatWhen(p.lastActivityAt)}</td>
+                    <td className={`px-3 py-2 ${FOLDED_CELL}`}>{PERMISSION_LABEL[p.permission]}</td>
                   </tr>
                 )),
               )}

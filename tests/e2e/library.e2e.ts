@@ -79,13 +79,26 @@ describe("the library in the browser", () => {
     await page.waitForFunction((n) => document.querySelectorAll("tbody tr").length === n, 1);
     expect(await rowTitles(page)).toEqual([target]);
 
-    await page.getByRole("button", { name: `Rename ${target}` }).click();
+    // The row's actions are in its menu, opened from the keyboard here and by pointer below.
+    const actions = page.getByRole("button", { name: `Actions for ${target}` });
+    expect(await actions.getAttribute("aria-haspopup")).toBe("menu");
+    await actions.focus();
+    await page.keyboard.press("ArrowDown");
+    const menu = page.getByRole("menu", { name: `Actions for ${target}` });
+    expect(await menu.getByRole("menuitem").allTextContents()).toEqual(["Download the original file", "Rename", "Delete"]);
+    expect(await menu.getByRole("menuitem", { name: "Download the original file" }).evaluate((el) => el === document.activeElement)).toBe(true);
+    await page.keyboard.press("Escape");
+    await menu.waitFor({ state: "detached" });
+    expect(await actions.evaluate((el) => el === document.activeElement)).toBe(true);
+    await actions.click();
+    await page.getByRole("menuitem", { name: "Rename" }).click();
     await page.getByLabel("New title").fill("Audition copy");
     await page.getByRole("button", { name: "Save" }).click();
     await page.getByLabel("Search title or composer").fill("");
     await page.getByRole("link", { name: "Audition copy", exact: true }).waitFor();
 
-    await page.getByRole("button", { name: "Delete Audition copy" }).click();
+    await page.getByRole("button", { name: "Actions for Audition copy" }).click();
+    await page.getByRole("menuitem", { name: "Delete" }).click();
     await page.getByRole("button", { name: "Delete for good" }).click();
     await page.waitForFunction((n) => document.querySelectorAll("tbody tr").length === n, 4);
     expect(await rowTitles(page)).not.toContain("Audition copy");

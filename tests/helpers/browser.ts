@@ -1,7 +1,7 @@
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { chromium, type BrowserContext } from "playwright-core";
+import { chromium, type Browser, type BrowserContext } from "playwright-core";
 
 /** Flags that keep Debian's Chromium quiet on a closed network (see the stack notes). */
 export const CHROMIUM_FLAGS = [
@@ -39,4 +39,12 @@ export async function launchContext(options: { width?: number; height?: number; 
 export function screenshotPath(name: string): string {
   fs.mkdirSync(OUTPUT_DIR, { recursive: true });
   return path.join(OUTPUT_DIR, `${name}.png`);
+}
+
+/**
+ * One headless Chromium for a suite that opens many contexts (one per signed-in person): cheaper
+ * than a browser per context. Close it with `browser.close()`.
+ */
+export async function launchBrowser(): Promise<Browser> {
+  return chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium", headless: true, args: CHROMIUM_FLAGS });
 }

@@ -25,13 +25,15 @@ const search = z.object({
 
 type Search = Promise<Record<string, string | string[] | undefined>>;
 
-const COLUMNS: Array<{ key: UserSort; label: string }> = [
+/** Below `md` (a phone) only the name and the changes keep columns; the rest shows under the name. */
+const COLUMNS: Array<{ key: UserSort; label: string; folds?: boolean }> = [
   { key: "name", label: "Name" },
-  { key: "email", label: "E-mail" },
-  { key: "role", label: "Role" },
-  { key: "status", label: "Status" },
-  { key: "created", label: "Created" },
+  { key: "email", label: "E-mail", folds: true },
+  { key: "role", label: "Role", folds: true },
+  { key: "status", label: "Status", folds: true },
+  { key: "created", label: "Created", folds: true },
 ];
+const FOLDED_CELL = "hidden md:table-cell";
 
 export default async function AdminUsersPage({ searchParams }: { searchParams: Search }) {
   const me = await requirePageUser("/admin/users");
@@ -49,14 +51,14 @@ export default async function AdminUsersPage({ searchParams }: { searchParams: S
       <form role="search" action="/admin/users" className="flex flex-wrap items-end gap-2">
         <div className="grid gap-1">
           <label htmlFor="user-search" className="font-semibold">Search by name or e-mail</label>
-          <input id="user-search" name="q" type="search" defaultValue={q} className={`${inputClass} w-80`} />
+          <input id="user-search" name="q" type="search" defaultValue={q} className={`${inputClass} w-80 max-w-full`} />
         </div>
         <input type="hidden" name="sort" value={sort} />
         <input type="hidden" name="dir" value={dir} />
-        <button type="submit" className="rounded-card border border-ink/30 bg-paper-card px-4 py-2 font-semibold hover:bg-paper-deep">Search</button>
+        <button type="submit" className="min-h-11 rounded-card border border-ink/30 bg-paper-card px-4 py-2 font-semibold hover:bg-paper-deep">Search</button>
         <p className="ml-auto text-graphite" aria-live="polite">{total} account{total === 1 ? "" : "s"}</p>
       </form>
-      <div className="overflow-x-auto rounded-card border border-rule bg-paper-card">
+      <div className="rounded-card border border-rule bg-paper-card">
         <table className="w-full border-collapse text-left">
           <caption className="sr-only">Accounts, sorted by {sort} {dir === "asc" ? "ascending" : "descending"}</caption>
           <thead className="border-b border-rule bg-paper-deep">
@@ -65,14 +67,14 @@ export default async function AdminUsersPage({ searchParams }: { searchParams: S
                 const active = c.key === sort;
                 const nextDir = active && dir === "asc" ? "desc" : "asc";
                 return (
-                  <th key={c.key} scope="col" className="px-4 py-2" aria-sort={active ? (dir === "asc" ? "ascending" : "descending") : undefined}>
-                    <Link href={href({ sort: c.key, dir: nextDir, page: 1 })} className="font-semibold hover:underline">
+                  <th key={c.key} scope="col" className={`px-4 py-1 ${c.folds ? FOLDED_CELL : ""}`} aria-sort={active ? (dir === "asc" ? "ascending" : "descending") : undefined}>
+                    <Link href={href({ sort: c.key, dir: nextDir, page: 1 })} className="inline-flex min-h-11 items-center whitespace-nowrap font-semibold hover:underline">
                       {c.label}{active ? (dir === "asc" ? " ↑" : " ↓") : ""}
                     </Link>
                   </th>
                 );
               })}
-              <th scope="col" className="px-4 py-2">Change</th>
+              <th scope="col" className="px-4 py-1">Change</th>
             </tr>
           </thead>
           <tbody>
@@ -80,15 +82,23 @@ export default async function AdminUsersPage({ searchParams }: { searchParams: S
               const self = u.id === me.id;
               return (
                 <tr key={u.id} className="border-b border-rule align-top last:border-0">
-                  <td className="px-4 py-3 font-semibold">{u.name}{self ? <span className="font-normal text-graphite"> (you)</span> : null}</td>
-                  <td className="px-4 py-3">{u.email}{u.emailVerified ? null : <span className="block text-sm text-graphite">not confirmed</span>}</td>
-                  <td className="px-4 py-3">{u.role}</td>
-                  <td className="px-4 py-3">{u.status === "disabled" ? <strong className="text-danger">disabled</strong> : "active"}</td>
-                  <td className="px-4 py-3 whitespace-nowrap">{u.createdAt.toISOString().slice(0, 10)}</td>
+                  <td className="px-4 py-3">
+                    <span className="font-semibold">{u.name}</span>
+                    {self ? <span className="text-graphite"> (you)</span> : null}
+                    {/* The folded columns, on a phone. */}
+                    <span className="block text-sm [overflow-wrap:anywhere] md:hidden">{u.email}{u.emailVerified ? null : <span className="text-graphite"> · not confirmed</span>}</span>
+                    <span className="block text-sm text-graphite md:hidden">
+                      {u.role} · {u.status === "disabled" ? <strong className="text-danger">disabled</strong> : "active"} · {u.createdAt.toISOString().slice(0, 10)}
+                    </span>
+                  </td>
+                  <td className={`px-4 py-3 [overflow-wrap:anywhere] ${FOLDED_CELL}`}>{u.email}{u.emailVerified ? null : <span className="block text-sm text-graphite">not confirmed</span>}</td>
+                  <td className={`px-4 py-3 ${FOLDED_CELL}`}>{u.role}</td>
+                  <td className={`px-4 py-3 ${FOLDED_CELL}`}>{u.status === "disabled" ? <strong className="text-danger">disabled</strong> : "active"}</td>
+                  <td className={`px-4 py-3 whitespace-nowrap ${FOLDED_CELL}`}>{u.createdAt.toISOString().slice(0, 10)}</td>
                   <td className="px-4 py-3">
                     {self ? <span className="text-graphite">—</span> : (
                       <div className="flex flex-wrap items-end gap-2">
-                        <ActionForm action={setRoleAction} inline submitLabel="Save role" submitAriaLabel={`Save the role of ${u.name}`} variant="quiet" hidden={{ userId: u.id }}>
+                        <ActionForm action={setRoleAction} inline submitLabel="Save role" submitAriaLabel={`Save role of ${u.name}`} variant="quiet" hidden={{ userId: u.id }}>
                           <SelectField name="role" label={`Role of ${u.name}`} hideLabel defaultValue={u.role}
                             options={ROLES.map((r) => ({ value: r, label: r }))} />
                         </ActionForm>
@@ -107,10 +117,10 @@ export default async function AdminUsersPage({ searchParams }: { searchParams: S
           </tbody>
         </table>
       </div>
-      <nav aria-label="Pages" className="flex items-center gap-4">
-        {page > 1 ? <Link href={href({ page: page - 1 })} className="text-accent-strong underline">Previous page</Link> : null}
+      <nav aria-label="Pages" className="flex flex-wrap items-center gap-4">
+        {page > 1 ? <Link href={href({ page: page - 1 })} className="inline-flex min-h-11 items-center text-accent-strong underline">Previous page</Link> : null}
         <span className="text-graphite">Page {Math.min(page, pages)} of {pages}</span>
-        {page < pages ? <Link href={href({ page: page + 1 })} className="text-accent-strong underline">Next page</Link> : null}
+        {page < pages ? <Link href={href({ page: page + 1 })} className="inline-flex min-h-11 items-center text-accent-strong underline">Next page</Link> : null}
       </nav>
     </PageShell>
   );
