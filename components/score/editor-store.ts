@@ -185,7 +185,3 @@ export function useEditorStore<T>(selector: (state: EditorState) => T): T {
 
 export const useSelection = () => useEditorStore((s) => s.selection);
 export const useEditorActions = () => useEditorStore((s) => s.actions);
-export const useZoom = () => useEditorStore((s) => s.zoom);
-export const useSaveState = () => useEditorStore((s) => s.saveState);
-export const useConflicts = () => useEditorStore((s) => s.conflicts);
-export const useBoxes = () => useEditorStore((s) => s.boxes);

@@ -13,11 +13,6 @@ export function speedFromPulsesPerBeat(pulses: number, bpm: number): number {
   return (pulses * bpm) / 60;
 }
 
-/** Rounds for display and for values typed by a person (speed to 0.1 Hz, pulses to 0.01). */
-export function roundTo(value: number, step: number): number {
-  return Math.round(value / step) * step;
-}
-
 /** "2.75" without float noise or trailing zeros. */
 export function formatNumber(value: number, decimals = 2): string {
   if (!Number.isFinite(value)) return "–";

@@ -63,10 +63,6 @@ export function cmp(a: Fraction, b: Fraction): number {
   return a.num / a.den - b.num / b.den;
 }
 
-export function toNumber(a: Fraction): number {
-  return a.num / a.den;
-}
-
 export function toString(a: Fraction): string {
   return `${a.num}/${a.den}`;
 }
