@@ -7,7 +7,8 @@ import type { AnalyzedNote, LocalKey, PartAnalysis, ScoreAnalysis, Suggestion } 
 import { degreeOf } from "./degree";
 import { type Key, keyFromSignature, majorOf, toKeyResult } from "./key";
 import { type KeySection, type LocalKeySpan, keySections, localKeysOf } from "./local-keys";
-import { Accompaniment, buildTimeline, extractMelody, frac, fracString, type MelodyNote } from "./melody";
+import { toNumber as frac, toString as fracString } from "@/lib/musicxml/fraction";
+import { Accompaniment, buildTimeline, extractMelody, type MelodyNote } from "./melody";
 import { findPhrases } from "./phrases";
 import { asciiName, mod } from "./spelling";
 import { phraseSuggestions, tensionSuggestions } from "./suggestions";
