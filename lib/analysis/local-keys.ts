@@ -134,21 +134,25 @@ export function localKeysOf(section: KeySection, melody: readonly MelodyNote[], 
     return meanCorrelation(h, pcOfLof(section.key.tonicLof), section.key.mode) >= meanCorrelation(h, pcOfLof(k.tonicLof), k.mode);
   };
   for (let i = 0; i < n; i++) if (assigned[i] && foreign(i, assigned[i] as Key)) assigned[i] = null;
-  for (let i = 0; i < n; ) {
-    const k = assigned[i];
-    if (!k) {
-      i++;
-      continue;
-    }
-    let j = i;
-    while (j + 1 < n && assigned[j + 1] && sameKey(assigned[j + 1] as Key, k)) j++;
+  for (const { i, j, k } of runsOf(assigned)) {
     let a = i;
     let z = j;
     while (a <= z && !evidence(a, k)) assigned[a++] = null;
     while (z >= a && fitsSection(z, k)) assigned[z--] = null;
-    i = j + 1;
   }
   const spans: LocalKeySpan[] = [];
+  for (const { i, j, k } of runsOf(assigned)) {
+    if (j - i + 1 >= minMeasures) spans.push({ fromIndex: section.fromIndex + i, toIndex: section.fromIndex + j, key: k });
+  }
+  return spans;
+}
+
+/**
+ * The runs of measures assigned the same key, as first and last index, read as the loop goes: a
+ * caller may clear measures of the run it is given (never of a later one) before the next run.
+ */
+function* runsOf(assigned: (Key | null)[]): Generator<{ i: number; j: number; k: Key }> {
+  const n = assigned.length;
   for (let i = 0; i < n; ) {
     const k = assigned[i];
     if (!k) {
@@ -157,8 +161,7 @@ export function localKeysOf(section: KeySection, melody: readonly MelodyNote[], 
     }
     let j = i;
     while (j + 1 < n && assigned[j + 1] && sameKey(assigned[j + 1] as Key, k)) j++;
-    if (j - i + 1 >= minMeasures) spans.push({ fromIndex: section.fromIndex + i, toIndex: section.fromIndex + j, key: k });
+    yield { i, j, k };
     i = j + 1;
   }
-  return spans;
 }
