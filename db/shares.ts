@@ -127,16 +127,6 @@ export async function acceptShareById({ shareId, userId }: { shareId: string; us
   return rows.length === 1;
 }
 
-/** Whether the user already has a live, accepted share of the part (another invitation). */
-export async function hasAcceptedShare({ partId, userId }: { partId: string; userId: string }): Promise<boolean> {
-  const [row] = await db()
-    .select({ id: shares.id })
-    .from(shares)
-    .where(and(eq(shares.partId, partId), eq(shares.userId, userId), isNotNull(shares.acceptedAt), isNull(shares.revokedAt)))
-    .limit(1);
-  return !!row;
-}
-
 export interface Participant {
   id: string;
   email: string;

@@ -20,6 +20,10 @@ export const markingKeys = {
   write: (partId: string) => ["parts", partId, "markings", "write"] as const,
   /** Scope that runs a part's writes, undo and redo one after another, in order. */
   scope: (partId: string) => `markings:${partId}`,
+  /** Client-only entries (never fetched): what the write queue learnt from the server. */
+  conflicts: (partId: string) => ["parts", partId, "markings", "conflicts"] as const,
+  versions: (partId: string) => ["parts", partId, "markings", "versions"] as const,
+  saveError: (partId: string) => ["parts", partId, "markings", "save-error"] as const,
 };
 
 export const historyKeys = {

@@ -5,7 +5,7 @@ import { useEffect, useRef } from "react";
 import type { MarkingDto, MarkingValues } from "@/lib/markings/schema";
 import { formatNumber } from "@/lib/markings/pulses";
 import { ROLE_INFO } from "@/lib/markings/roles";
-import type { Conflict } from "./editor-store";
+import type { Conflict } from "./api/write-state";
 
 export interface ConflictPromptProps {
   conflicts: Conflict[];

@@ -1,8 +1,7 @@
 import { act, cleanup, render } from "@testing-library/react";
 import { afterEach, describe, expect, it } from "vitest";
-import { DEFAULT_MARKING } from "@/lib/markings/schema";
 import { EditorStoreProvider, createEditorStore, useSelection, ZOOM } from "./editor-store";
-import { K, fakeBoxes, marking } from "./test-fixtures";
+import { K, fakeBoxes } from "./test-fixtures";
 
 afterEach(cleanup);
 
@@ -48,19 +47,6 @@ describe("editor store", () => {
     expect(store.getState().zoom).toBe(ZOOM.max);
     store.getState().actions.setZoom(0.01);
     expect(store.getState().zoom).toBe(ZOOM.min);
-  });
-
-  it("keeps one conflict per note and lets it be resolved", () => {
-    const store = createEditorStore({ partId: "p" });
-    const { actions } = store.getState();
-    actions.addConflict({ noteKey: K[0], mine: DEFAULT_MARKING, current: marking(K[0], { version: 2 }) });
-    actions.addConflict({ noteKey: K[0], mine: { ...DEFAULT_MARKING, depthCents: 70 }, current: marking(K[0], { version: 3 }) });
-    expect(store.getState().conflicts).toHaveLength(1);
-    expect(store.getState().conflicts[0].current?.version).toBe(3);
-    actions.updateConflictMine(K[0], null);
-    expect(store.getState().conflicts[0].mine).toBeNull();
-    actions.resolveConflict(K[0]);
-    expect(store.getState().conflicts).toEqual([]);
   });
 
   it("serves each part its own store through the provider", () => {

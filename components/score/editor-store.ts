@@ -1,28 +1,18 @@
 "use client";
 
 /**
- * Editor state of one open part (selection, zoom, panel, clipboard, save state, conflicts, the
- * measured note layout). Server data stays in TanStack Query; this store never holds markings.
+ * Editor state of one open part (selection, zoom, panel, clipboard, the measured note layout,
+ * pending reveals). Server state — markings, versions, conflicts, save state — stays in TanStack
+ * Query (the cache and the write queue's mutations, see api/write-state.ts); this store holds none.
  */
 import { createContext, createElement, useContext, useState, type ReactNode } from "react";
 import { createStore, useStore, type StoreApi } from "zustand";
-import type { MarkingDto, MarkingValues } from "@/lib/markings/schema";
+import type { MarkingValues } from "@/lib/markings/schema";
 import type { NoteBox } from "@/lib/markings/glyph-geometry";
 import {
   EMPTY_SELECTION, extendTo, moveSelection, pruneSelection, selectOnly, toggleKey,
   type Move, type NavNote, type Selection,
 } from "@/lib/markings/selection";
-
-export type SaveState = "saved" | "saving" | "offline" | "retrying" | "conflict";
-
-/** A write the server refused because someone changed the note first. */
-export interface Conflict {
-  noteKey: string;
-  /** What I meant to write; null when I meant to clear the marking. */
-  mine: MarkingValues | null;
-  /** The marking on the server now; null when it was cleared there. */
-  current: MarkingDto | null;
-}
 
 export type SideView = "marking" | "suggestions" | "discussion";
 export type SelectMode = "only" | "toggle" | "extend";
@@ -43,17 +33,8 @@ export interface EditorState {
   sideView: SideView;
   legendOpen: boolean;
   clipboard: MarkingValues | null;
-  saveState: SaveState;
-  saveError: string | null;
-  conflicts: Conflict[];
   /** A request to scroll a note into view ("show me", the phrase map). */
   reveal: { key: string; nonce: number } | null;
-  /**
-   * The version the server last confirmed for each note written in this session (null: deleted
-   * there). Not reactive: the write queue reads it when a request leaves, because the optimistic
-   * cache may no longer hold the note (cleared) while an earlier write for it is still in flight.
-   */
-  serverVersions: Map<string, number | null>;
   actions: EditorActions;
 }
 
@@ -69,11 +50,6 @@ export interface EditorActions {
   setSideView(view: SideView): void;
   setLegendOpen(open: boolean): void;
   copy(values: MarkingValues): void;
-  setSaveState(state: SaveState, error?: string | null): void;
-  setSaveError(error: string | null): void;
-  addConflict(conflict: Conflict): void;
-  updateConflictMine(noteKey: string, mine: MarkingValues | null): void;
-  resolveConflict(noteKey: string): void;
   reveal(key: string): void;
 }
 
@@ -92,11 +68,7 @@ export function createEditorStore(init: { partId: string; zoom?: number }): Stor
     sideView: "marking",
     legendOpen: false,
     clipboard: null,
-    saveState: "saved",
-    saveError: null,
-    conflicts: [],
     reveal: null,
-    serverVersions: new Map(),
     actions: {
       setLayout(boxes) {
         const order = boxes.map((b) => ({ key: b.key, measureIndex: b.measureIndex }));
@@ -143,21 +115,6 @@ export function createEditorStore(init: { partId: string; zoom?: number }): Stor
       copy(values) {
         set({ clipboard: { ...values } });
       },
-      setSaveState(saveState, error) {
-        set(error === undefined ? { saveState } : { saveState, saveError: error });
-      },
-      setSaveError(error) {
-        set({ saveError: error });
-      },
-      addConflict(conflict) {
-        set((s) => ({ conflicts: [...s.conflicts.filter((c) => c.noteKey !== conflict.noteKey), conflict] }));
-      },
-      updateConflictMine(noteKey, mine) {
-        set((s) => ({ conflicts: s.conflicts.map((c) => (c.noteKey === noteKey ? { ...c, mine } : c)) }));
-      },
-      resolveConflict(noteKey) {
-        set((s) => ({ conflicts: s.conflicts.filter((c) => c.noteKey !== noteKey) }));
-      },
       reveal(key) {
         set((s) => ({ reveal: { key, nonce: (s.reveal?.nonce ?? 0) + 1 } }));
       },
@@ -185,7 +142,3 @@ export function useEditorStore<T>(selector: (state: EditorState) => T): T {
 
 export const useSelection = () => useEditorStore((s) => s.selection);
 export const useEditorActions = () => useEditorStore((s) => s.actions);
-export const useZoom = () => useEditorStore((s) => s.zoom);
-export const useSaveState = () => useEditorStore((s) => s.saveState);
-export const useConflicts = () => useEditorStore((s) => s.conflicts);
-export const useBoxes = () => useEditorStore((s) => s.boxes);

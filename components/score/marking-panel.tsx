@@ -3,7 +3,8 @@
 import { VALUE_WORDS } from "@/lib/markings/labels";
 import { useId, useState, type KeyboardEvent, type ReactNode } from "react";
 import type { Role } from "@/lib/analysis/types";
-import { formatNumber, pulsesPerBeat, speedFromPulsesPerBeat } from "@/lib/markings/pulses";
+import { pulsesPerBeat, speedHz as speedFromPulsesPerBeat } from "@/lib/analysis/vibrato";
+import { formatNumber } from "@/lib/markings/pulses";
 import { ROLE_INFO, ROLE_ORDER } from "@/lib/markings/roles";
 import {
   DEFAULT_MARKING, ONSETS, PLACEMENTS, SHAPES, markingValuesSchema, type MarkingValues,

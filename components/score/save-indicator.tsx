@@ -1,6 +1,6 @@
 "use client";
 
-import type { SaveState } from "./editor-store";
+import type { SaveState } from "./api/save-state";
 
 const TEXT: Record<SaveState, string> = {
   saved: "All changes saved",

@@ -1,5 +1,6 @@
 "use client";
 
+import { useQueryClient } from "@tanstack/react-query";
 import Link from "next/link";
 import { useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent } from "react";
 import type { PhraseResult, Role } from "@/lib/analysis/types";
@@ -19,7 +20,8 @@ import { useMarkings } from "@/components/score/api/get-markings";
 import { useMusicXml } from "@/components/score/api/get-musicxml";
 import { usePart } from "@/components/score/api/get-part";
 import { useCommitMarkings } from "@/components/score/api/save-marking";
-import { useSaveStateSync } from "@/components/score/api/save-state";
+import { useSaveState } from "@/components/score/api/save-state";
+import { resolveConflict, useConflicts, useSaveError, type Conflict } from "@/components/score/api/write-state";
 import { useDecide, useDecisions } from "@/components/score/api/suggestion-decisions";
 import { useHistoryStep } from "@/components/score/api/undo-redo";
 import { AuditionControl } from "@/components/score/audition-control";
@@ -27,7 +29,7 @@ import { ConflictPrompt } from "@/components/score/conflict-prompt";
 import { ExportMenu } from "@/components/score/export-menu";
 import { WorkspaceHint } from "@/components/score/workspace-hint";
 import { WorkingTempo } from "@/components/score/working-tempo";
-import { EditorStoreProvider, useEditorActions, useEditorStore, useEditorStoreApi, type Conflict } from "@/components/score/editor-store";
+import { EditorStoreProvider, useEditorActions, useEditorStore, useEditorStoreApi } from "@/components/score/editor-store";
 import { Legend } from "@/components/score/legend";
 import { MarkingOverlay } from "@/components/score/marking-overlay";
 import { MarkingPanel } from "@/components/score/marking-panel";
@@ -89,7 +91,10 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   const markingsQuery = useMarkings(partId);
   const decisionsQuery = useDecisions(partId);
   const history = useHistory(partId, afterScore);
-  useSaveStateSync(partId);
+  const queryClient = useQueryClient();
+  const saveState = useSaveState(partId);
+  const saveError = useSaveError(queryClient, partId);
+  const conflicts = useConflicts(queryClient, partId);
   const commit = useCommitMarkings(partId);
   const undo = useHistoryStep(partId, "undo");
   const redo = useHistoryStep(partId, "redo");
@@ -104,9 +109,6 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   const sideView = useEditorStore((s) => s.sideView);
   const legendOpen = useEditorStore((s) => s.legendOpen);
   const clipboard = useEditorStore((s) => s.clipboard);
-  const saveState = useEditorStore((s) => s.saveState);
-  const saveError = useEditorStore((s) => s.saveError);
-  const conflicts = useEditorStore((s) => s.conflicts);
   const reveal = useEditorStore((s) => s.reveal);
 
   const scrollerRef = useRef<HTMLDivElement>(null);
@@ -205,14 +207,14 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   );
   const keepMine = useCallback(
     (c: Conflict) => {
-      actions.resolveConflict(c.noteKey);
+      resolveConflict(queryClient, partId, c.noteKey);
       // The cache now holds the current marking (and its version): writing mine over it is a
       // deliberate choice, sent with that version.
       commit(c.mine ? setSelection([c.noteKey], c.mine) : [{ type: "remove", noteKey: c.noteKey }]);
     },
-    [actions, commit],
+    [queryClient, partId, commit],
   );
-  const takeTheirs = useCallback((c: Conflict) => actions.resolveConflict(c.noteKey), [actions]);
+  const takeTheirs = useCallback((c: Conflict) => resolveConflict(queryClient, partId, c.noteKey), [queryClient, partId]);
 
   const canUndo = history.data?.canUndo ?? false;
   const canRedo = history.data?.canRedo ?? false;

@@ -104,15 +104,6 @@ export function meanCorrelation(
   return sum / profiles.length;
 }
 
-/** All 24 keys by mean correlation over the decision profiles, best first. */
-export function findKeyMean(histogram: readonly number[], profiles: readonly KeyProfile[] = DECISION_PROFILES): KeyCandidate[] {
-  const out: KeyCandidate[] = [];
-  for (const mode of ["major", "minor"] as const) {
-    for (let pc = 0; pc < 12; pc++) out.push({ tonicPc: pc, mode, r: meanCorrelation(histogram, pc, mode, profiles) });
-  }
-  return out.sort((a, b) => b.r - a.r);
-}
-
 const combinedCache = new WeakMap<readonly KeyProfile[], Float64Array[]>();
 
 /**

@@ -2,7 +2,8 @@
  * The melodic line the analysis works on: one voice of the part (chords reduced to their top
  * note), with absolute positions so that notes of different measures and parts can be compared.
  */
-import type { Fraction, Measure, Note, PartModel, ScoreModel } from "@/lib/musicxml/model";
+import type { Measure, Note, PartModel, ScoreModel } from "@/lib/musicxml/model";
+import { toNumber as frac } from "@/lib/musicxml/fraction";
 import { lofOf, type Step } from "./spelling";
 
 export interface MelodyNote {
@@ -32,13 +33,6 @@ export interface Timeline {
   measureLength: number[];
 }
 
-export function frac(f: Fraction): number {
-  return f.num / f.den;
-}
-
-export function fracString(f: Fraction): string {
-  return `${f.num}/${f.den}`;
-}
 
 /**
  * Measure lengths as sounded: the latest note or rest end in that measure across every part,

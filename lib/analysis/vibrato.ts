@@ -35,13 +35,15 @@ export function quartersPerBeat(unit: BeatUnit): number {
  * a tempo in quarter notes can convert it: beats per minute = quarters per minute / quarters per beat.
  */
 export function pulsesPerBeat(speedHz: number, beatsPerMinute: number): number {
-  if (!(beatsPerMinute > 0)) throw new RangeError("tempo must be positive");
+  // A missing or broken tempo is refused, never turned into Infinity or NaN: callers without a
+  // tempo (a part with no metronome marking) show no pulse count at all.
+  if (!(beatsPerMinute > 0) || !Number.isFinite(beatsPerMinute)) throw new RangeError("tempo must be a positive number");
   return (speedHz * 60) / beatsPerMinute;
 }
 
 /** Speed in Hz of a number of pulses per beat at a tempo in that beat unit (4 at ♩ = 96 → 6.4 Hz). */
 export function speedHz(pulses: number, beatsPerMinute: number): number {
-  if (!(beatsPerMinute > 0)) throw new RangeError("tempo must be positive");
+  if (!(beatsPerMinute > 0) || !Number.isFinite(beatsPerMinute)) throw new RangeError("tempo must be a positive number");
   return (pulses * beatsPerMinute) / 60;
 }
 

@@ -1,17 +1,15 @@
 import { z } from "zod";
+import { PRACTICE_KIND_LABELS, PRACTICE_KINDS, type PracticeKind } from "@/lib/practice/schema";
 
 /** What practice assignments send and receive over the wire (shared by the server and the browser). */
 
-/** The drills a teacher can set; the first three are the practice page's own sections. */
-export const ASSIGNMENT_DRILLS = ["pulse-trainer", "hold-ladder", "take", "free"] as const;
-export type AssignmentDrill = (typeof ASSIGNMENT_DRILLS)[number];
-
-export const DRILL_LABELS: Record<AssignmentDrill, string> = {
-  "pulse-trainer": "Pulse trainer",
-  "hold-ladder": "Hold ladder",
-  take: "Take",
-  free: "Free practice",
-};
+/**
+ * The drills a teacher can set are the kinds of practice the log records (the first three are the
+ * practice page's own sections), named once in lib/practice/schema.ts.
+ */
+export const ASSIGNMENT_DRILLS = PRACTICE_KINDS;
+export type AssignmentDrill = PracticeKind;
+export const DRILL_LABELS = PRACTICE_KIND_LABELS;
 
 export const INSTRUCTIONS_MAX_LENGTH = 2000;
 /** Two hours a day on one assignment is already far past a usual practice plan (common practice). */

@@ -3,7 +3,8 @@ import { describe, expect, it } from "vitest";
 import { DEFAULT_MARKING, type MarkingValues } from "@/lib/markings/schema";
 import type { Measure, Note, PartModel } from "@/lib/musicxml/model";
 import { BEND_POINTS_PER_CYCLE, renderMidi } from "./midi";
-import { bend14ToCents, centsToBend14, centsToSignedBend, readBendToCents } from "./pitch-bend";
+import { bendToCents as bend14ToCents, centsToBend as centsToBend14 } from "@/lib/analysis/vibrato";
+import { centsToSignedBend, readBendToCents } from "./pitch-bend";
 import { DELAYED_ONSET_FRACTION, ENVELOPE_RAMP } from "./vibrato-curve";
 
 const base: MarkingValues = DEFAULT_MARKING;

@@ -1,26 +1,15 @@
 /**
- * MIDI 1.0 pitch bend: 14 bits, 0…16383, centre 8192; the sensitivity (RPN 0) is the full-scale
- * bend in semitones (check values §7.1). @tonejs/midi writes the signed value −8192…8191 as given
- * and reads it back divided by 8192 (check values §7.3).
+ * Pitch bend as @tonejs/midi writes and reads it. The 14-bit arithmetic of MIDI 1.0 (0…16383,
+ * centre 8192, the sensitivity being the full-scale bend in semitones, check values §7.1) lives
+ * once, in lib/analysis/vibrato.ts; @tonejs/midi writes the signed value −8192…8191 as given and
+ * reads it back divided by 8192 (check values §7.3).
  */
 
-export const BEND_CENTRE = 8192;
-export const BEND_MAX = 16383;
-
-/** 14-bit bend value for a deviation in cents at a range of `semitones`, clamped to 0…16383. */
-export function centsToBend14(cents: number, semitones: number): number {
-  const value = BEND_CENTRE + Math.round((cents / (100 * semitones)) * BEND_CENTRE);
-  return Math.min(BEND_MAX, Math.max(0, value));
-}
+import { BEND_CENTRE, centsToBend } from "@/lib/analysis/vibrato";
 
 /** The signed value @tonejs/midi's writer expects (−8192…8191). */
 export function centsToSignedBend(cents: number, semitones: number): number {
-  return centsToBend14(cents, semitones) - BEND_CENTRE;
-}
-
-/** Cents of a 14-bit bend value. */
-export function bend14ToCents(value: number, semitones: number): number {
-  return ((value - BEND_CENTRE) / BEND_CENTRE) * 100 * semitones;
+  return centsToBend(cents, semitones) - BEND_CENTRE;
 }
 
 /** Cents of a bend as @tonejs/midi reads it (a fraction of the full range, −1…+0.99988). */

@@ -3,6 +3,7 @@
  * note, timed from their bar and onset at the part's tempo.
  */
 import type { AnalyzedNote, PhraseResult } from "@/lib/analysis/types";
+import { valueOfText } from "@/lib/musicxml/fraction";
 import { parseNoteKey } from "@/lib/musicxml/note-key";
 import type { MarkingValues } from "./schema";
 
@@ -17,10 +18,7 @@ export interface PlannedAuditionNote {
   marking?: MarkingValues;
 }
 
-const frac = (s: string) => {
-  const [n, d] = s.split("/").map(Number);
-  return d > 0 ? n / d : 0;
-};
+const frac = (s: string) => valueOfText(s) || 0;
 
 /** The analysis phrase holding `key`, as the keys from its start to its end; null when none does. */
 export function phraseAround(key: string, notes: readonly Pick<AnalyzedNote, "key">[], phrases: readonly PhraseResult[]): string[] | null {

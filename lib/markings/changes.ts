@@ -19,8 +19,6 @@ export interface MarkingDiff {
   removed: MarkingDto[];
 }
 
-export const EMPTY_DIFF: MarkingDiff = { added: [], updated: [], removed: [] };
-
 const VALUE_FIELDS = ["depthCents", "speedHz", "placement", "onset", "shape", "role", "comment"] as const;
 
 export function valuesOf(marking: MarkingValues): MarkingValues {

@@ -1,4 +1,5 @@
 import type { AnalyzedNote } from "@/lib/analysis/types";
+import { valueOfText } from "@/lib/musicxml/fraction";
 
 /**
  * Each note's sounding duration in seconds at the part's tempo (quarter notes per minute):
@@ -8,8 +9,8 @@ export function noteDurations(notes: readonly Pick<AnalyzedNote, "key" | "durati
   const out: Record<string, number> = {};
   if (!tempo || !(tempo > 0)) return out;
   for (const n of notes) {
-    const [num, den] = n.duration.split("/").map(Number);
-    if (den > 0 && num >= 0) out[n.key] = ((num / den) * 4 * 60) / tempo;
+    const wholes = valueOfText(n.duration);
+    if (wholes >= 0) out[n.key] = (wholes * 4 * 60) / tempo;
   }
   return out;
 }

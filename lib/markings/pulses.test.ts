@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { formatNumber, pulsesPerBeat, speedFromPulsesPerBeat } from "./pulses";
+import { pulsesPerBeat, speedHz as speedFromPulsesPerBeat } from "@/lib/analysis/vibrato";
+import { formatNumber } from "./pulses";
 
 describe("pulses per beat", () => {
   it("turns 6 Hz at 120 beats per minute into 3 pulses per beat", () => {
@@ -19,9 +20,14 @@ describe("pulses per beat", () => {
     }
   });
 
-  it("gives no number for a missing tempo rather than a division by zero", () => {
-    expect(pulsesPerBeat(6, 0)).toBeNaN();
-    expect(formatNumber(pulsesPerBeat(6, 0))).toBe("–");
+  // One rule for bad input, decided once: a missing or broken tempo is refused with a RangeError
+  // (never Infinity or NaN passed on); the stand copy and the panel, having no tempo, show "–".
+  it("refuses a missing or broken tempo rather than dividing by zero", () => {
+    for (const bpm of [0, -60, Number.NaN, Number.POSITIVE_INFINITY]) {
+      expect(() => pulsesPerBeat(6, bpm)).toThrow(RangeError);
+      expect(() => speedFromPulsesPerBeat(3, bpm)).toThrow(RangeError);
+    }
+    expect(formatNumber(Number.NaN)).toBe("–");
   });
 
   it("formats without float noise", () => {

@@ -4,7 +4,8 @@ import type { Fraction } from "./model";
 
 export const ZERO: Fraction = Object.freeze({ num: 0, den: 1 }) as Fraction;
 
-function gcd(a: number, b: number): number {
+/** Greatest common divisor of two integers (0 when both are 0). */
+export function gcd(a: number, b: number): number {
   a = Math.abs(a);
   b = Math.abs(b);
   while (b) {
@@ -65,6 +66,12 @@ export function cmp(a: Fraction, b: Fraction): number {
 
 export function toNumber(a: Fraction): number {
   return a.num / a.den;
+}
+
+/** The value of a fraction written "num/den" (as the analysis sends onsets and durations); NaN when it is not one. */
+export function valueOfText(text: string): number {
+  const [num, den] = text.split("/").map(Number);
+  return den > 0 && Number.isFinite(num) ? num / den : Number.NaN;
 }
 
 export function toString(a: Fraction): string {

@@ -21,6 +21,7 @@
  * Part ids are NMTOKENs (letters, digits, `.`, `-`, `_`, `:`), so keys are URL-safe once passed
  * through `encodeURIComponent`. Keep this module dependency-free: browser code imports it.
  */
+import { gcd } from "./fraction";
 export interface NoteKeyParts {
   partId: string;
   measureIndex: number;
@@ -30,13 +31,6 @@ export interface NoteKeyParts {
   midi: number;
   /** 0 for ordinary notes, 1… for grace notes. */
   graceIndex: number;
-}
-
-function gcd(a: number, b: number): number {
-  a = Math.abs(a);
-  b = Math.abs(b);
-  while (b) [a, b] = [b, a % b];
-  return a;
 }
 
 /** Builds the key of a note; the onset is reduced here so both sides agree however they hold it. */

@@ -1,7 +1,8 @@
 import { VALUE_WORDS, onsetAndShape } from "@/lib/markings/labels";
 import type { AnalyzedNote } from "@/lib/analysis/types";
 import { noteLabel } from "@/lib/markings/note-labels";
-import { formatNumber, pulsesPerBeat } from "@/lib/markings/pulses";
+import { pulsesPerBeat } from "@/lib/analysis/vibrato";
+import { formatNumber } from "@/lib/markings/pulses";
 import { ROLE_INFO } from "@/lib/markings/roles";
 import type { MarkingValues } from "@/lib/markings/schema";
 

@@ -8,9 +8,6 @@ import { verifyPassword } from "@/lib/auth/password";
 import { pruneAttempts, recordAttempt, signInChecks } from "./rate-limit";
 import { linkUseChecks, signInWithLink } from "./sign-in-link";
 
-/** The one message for an unknown account, a wrong password and a disabled account alike. */
-export const SIGN_IN_FAILED = "E-mail or password is wrong.";
-
 /** A bcrypt hash of a random string: comparing against it keeps timing equal for unknown accounts. */
 const DUMMY_HASH = "$2b$10$Qd90rXyM/0bQOk9wvpgzt.AsnvksRY3dP3zG9YvwIsySjiCPH5cZu";
 

@@ -7,13 +7,13 @@ import {
   type MarkingChange, type MarkingDiff,
 } from "@/lib/markings/changes";
 import type { MarkingDto, MarkingValues } from "@/lib/markings/schema";
-import { useEditorStoreApi } from "../editor-store";
 import { deleteMarking } from "./delete-marking";
 import { ApiError, retryDelay, retryTransient } from "@/components/client/fetch-json";
 import { historyKeys, markingKeys } from "@/components/client/keys";
 import { cachedMarking, cachedMarkings, writeCachedMarking } from "./marking-cache";
 import { putMarking } from "./put-marking";
 import { newGroupId } from "./uuid";
+import { addConflict, conflictsOf, saveErrorOf, serverVersions, setSaveError, updateConflictMine } from "./write-state";
 
 /** One note's write: its new values, or null to clear it. */
 export interface MarkingWrite {
@@ -35,7 +35,6 @@ type WriteResult = { noteKey: string; marking: MarkingDto | null };
  */
 export function useSaveMarking(partId: string) {
   const client = useQueryClient();
-  const store = useEditorStoreApi();
 
   return useMutation<WriteResult, Error, MarkingWrite, { previous: MarkingDto | undefined }>({
     mutationKey: markingKeys.write(partId),
@@ -43,12 +42,11 @@ export function useSaveMarking(partId: string) {
     retry: retryTransient,
     retryDelay,
     mutationFn: async ({ noteKey, values, group }) => {
-      const state = store.getState();
-      if (state.conflicts.some((c) => c.noteKey === noteKey)) {
-        state.actions.updateConflictMine(noteKey, values);
+      if (conflictsOf(client, partId).some((c) => c.noteKey === noteKey)) {
+        updateConflictMine(client, partId, noteKey, values);
         throw new HeldByConflict();
       }
-      const book = state.serverVersions;
+      const book = serverVersions(client, partId);
       const known = book.has(noteKey) ? book.get(noteKey) : cachedMarking(client, partId, noteKey)?.version;
       const version = known && known > 0 ? known : undefined;
       if (values) {
@@ -74,8 +72,7 @@ export function useSaveMarking(partId: string) {
       return { previous };
     },
     onSuccess: ({ noteKey, marking }) => {
-      const state = store.getState();
-      state.serverVersions.set(noteKey, marking?.version ?? null);
+      serverVersions(client, partId).set(noteKey, marking?.version ?? null);
       const shown = cachedMarking(client, partId, noteKey);
       if (!marking) return;
       // A later edit of this note may already be showing: keep its values, take the new version.
@@ -84,31 +81,30 @@ export function useSaveMarking(partId: string) {
       } else {
         writeCachedMarking(client, partId, noteKey, { ...shown, version: marking.version, authorId: marking.authorId, updatedAt: marking.updatedAt });
       }
-      if (state.saveError) state.actions.setSaveError(null);
+      if (saveErrorOf(client, partId)) setSaveError(client, partId, null);
     },
     onError: (error, { noteKey, values }, context) => {
-      const state = store.getState();
       if (error instanceof HeldByConflict) {
-        const conflict = state.conflicts.find((c) => c.noteKey === noteKey);
+        const conflict = conflictsOf(client, partId).find((c) => c.noteKey === noteKey);
         writeCachedMarking(client, partId, noteKey, conflict?.current ?? null);
         return;
       }
       if (error instanceof ApiError && error.isConflict) {
-        const current = ((error.body as { current?: MarkingDto | null } | undefined)?.current ?? null) as MarkingDto | null;
-        state.serverVersions.set(noteKey, current?.version ?? null);
+        const current = (error.current ?? null) as MarkingDto | null;
+        serverVersions(client, partId).set(noteKey, current?.version ?? null);
         writeCachedMarking(client, partId, noteKey, current);
-        state.actions.addConflict({ noteKey, mine: values, current });
+        addConflict(client, partId, { noteKey, mine: values, current });
         return;
       }
       // Refused or never delivered: show what the server has, and say why.
       writeCachedMarking(client, partId, noteKey, context?.previous ?? null);
-      state.actions.setSaveError(error.message);
+      setSaveError(client, partId, error.message);
     },
     onSettled: async () => {
       // Refetch only when the last write of the queue settles, so a refetch never paints over
       // writes still in flight (TanStack Query docs, "Optimistic Updates", concurrent mutations).
       if (client.isMutating({ mutationKey: markingKeys.write(partId) }) === 1) {
-        store.getState().serverVersions.clear();
+        serverVersions(client, partId).clear();
         await Promise.all([
           client.invalidateQueries({ queryKey: markingKeys.list(partId) }),
           client.invalidateQueries({ queryKey: historyKeys.list(partId) }),

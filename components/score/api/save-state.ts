@@ -1,9 +1,11 @@
 "use client";
 
-import { onlineManager, useMutationState } from "@tanstack/react-query";
-import { useEffect, useSyncExternalStore } from "react";
-import { useEditorStore, type SaveState } from "../editor-store";
+import { onlineManager, useMutationState, useQueryClient } from "@tanstack/react-query";
+import { useSyncExternalStore } from "react";
 import { markingKeys } from "@/components/client/keys";
+import { useConflicts } from "./write-state";
+
+export type SaveState = "saved" | "saving" | "offline" | "retrying" | "conflict";
 
 /** Derives the save state from the part's pending writes and the connection. */
 export function deriveSaveState(input: { pending: number; failing: number; online: boolean; conflicts: number }): SaveState {
@@ -16,20 +18,18 @@ export function deriveSaveState(input: { pending: number; failing: number; onlin
 
 const subscribeOnline = (cb: () => void) => onlineManager.subscribe(cb);
 
-/** Keeps the editor store's save state in step with the write queue. */
-export function useSaveStateSync(partId: string): void {
+/** The part's save state, derived from its write queue, the connection and its open conflicts. */
+export function useSaveState(partId: string): SaveState {
   const writes = useMutationState({
     filters: { mutationKey: markingKeys.write(partId), status: "pending" },
     select: (m) => m.state.failureCount,
   });
   const online = useSyncExternalStore(subscribeOnline, () => onlineManager.isOnline(), () => true);
-  const conflicts = useEditorStore((s) => s.conflicts.length);
-  const setSaveState = useEditorStore((s) => s.actions.setSaveState);
-  const state = deriveSaveState({
+  const conflicts = useConflicts(useQueryClient(), partId).length;
+  return deriveSaveState({
     pending: writes.length,
     failing: writes.filter((n) => n > 0).length,
     online,
     conflicts,
   });
-  useEffect(() => setSaveState(state), [state, setSaveState]);
 }

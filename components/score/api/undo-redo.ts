@@ -4,6 +4,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { applyServerChanges, toState } from "@/lib/markings/changes";
 import type { MarkingDto } from "@/lib/markings/schema";
 import { useEditorStoreApi } from "../editor-store";
+import { serverVersions, setSaveError } from "./write-state";
 import { fetchJson, partUrl, retryDelay, retryTransient } from "@/components/client/fetch-json";
 import type { HistoryState } from "./get-history";
 import { historyKeys, markingKeys } from "@/components/client/keys";
@@ -35,7 +36,7 @@ export function useHistoryStep(partId: string, step: "undo" | "redo") {
       await client.cancelQueries({ queryKey: markingKeys.list(partId) });
       const next = applyServerChanges(toState(cachedMarkings(client, partId)), result.changes);
       writeCachedMarkings(client, partId, Object.values(next));
-      const versions = store.getState().serverVersions;
+      const versions = serverVersions(client, partId);
       for (const change of result.changes) versions.set(change.noteKey, change.marking?.version ?? null);
       client.setQueryData<HistoryState>(historyKeys.list(partId), (old) => ({
         entries: old?.entries ?? [],
@@ -45,7 +46,7 @@ export function useHistoryStep(partId: string, step: "undo" | "redo") {
       const first = result.changes[0]?.noteKey;
       if (first) store.getState().actions.reveal(first);
     },
-    onError: (error: Error) => store.getState().actions.setSaveError(error.message),
+    onError: (error: Error) => setSaveError(client, partId, error.message),
     onSettled: () => client.invalidateQueries({ queryKey: historyKeys.list(partId) }),
   });
 }
