@@ -7,7 +7,8 @@
  * notes, bucketed by bar: linear in their number.
  */
 import type { PartModel, ScoreModel } from "@/lib/musicxml/model";
-import { frac, type MelodyNote, type Timeline } from "./melody";
+import { toNumber as frac } from "@/lib/musicxml/fraction";
+import type { MelodyNote, Timeline } from "./melody";
 import { lofOf, mod } from "./spelling";
 
 /** One beat of a bar (the beat of its time signature: a dotted quarter in 6/8). */
