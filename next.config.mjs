@@ -1,3 +1,16 @@
+/**
+ * Sent on every response (pages, API, static files); the Content-Security-Policy is set per
+ * request in proxy.ts (pages need a fresh nonce). microphone=(self): the practice page records
+ * takes; nothing else of the browser's powerful features is used.
+ */
+const securityHeaders = [
+  { key: "X-Content-Type-Options", value: "nosniff" },
+  { key: "Referrer-Policy", value: "strict-origin-when-cross-origin" },
+  { key: "X-Frame-Options", value: "DENY" },
+  { key: "Cross-Origin-Opener-Policy", value: "same-origin" },
+  { key: "Permissions-Policy", value: "microphone=(self), camera=(), geolocation=(), payment=(), usb=(), serial=(), bluetooth=()" },
+];
+
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   reactStrictMode: true,
@@ -6,5 +19,8 @@ const nextConfig = {
   serverExternalPackages: ["pg", "smtp-server", "mailparser", "formidable"],
   outputFileTracingRoot: import.meta.dirname,
   turbopack: { root: import.meta.dirname },
+  async headers() {
+    return [{ source: "/:path*", headers: securityHeaders }];
+  },
 };
 export default nextConfig;

@@ -43,6 +43,11 @@ export async function setUserPassword({ userId, passwordHash }: { userId: string
     .where(eq(users.id, userId));
 }
 
+/** Ends every session the account has (sign-out): their JWTs carry the old epoch. */
+export async function bumpSessionEpoch({ userId }: { userId: string }) {
+  await db().update(users).set({ sessionEpoch: sql`${users.sessionEpoch} + 1` }).where(eq(users.id, userId));
+}
+
 export async function markEmailVerified({ userId }: { userId: string }) {
   await db()
     .update(users)

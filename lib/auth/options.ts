@@ -4,6 +4,8 @@ import CredentialsProvider from "next-auth/providers/credentials";
 import { getUserByEmail } from "@/db/users";
 import { config, isProduction } from "@/lib/config";
 import { clientAddress } from "@/lib/http/client-address";
+import { safeCallbackPath } from "@/lib/http/safe-redirect";
+import { bumpSessionEpoch } from "@/db/users";
 import { verifyPassword } from "./password";
 import { pruneAttempts, recordAttempt, signInChecks } from "./rate-limit";
 import { linkUseChecks, signInWithLink } from "./sign-in-link";
@@ -71,6 +73,14 @@ export function authOptions(): NextAuthOptions {
         },
       }),
     ],
+    events: {
+      // Signing out ends the session on the server too: a copied cookie stops working, and so
+      // do the account's sessions on other devices (one epoch per account).
+      async signOut({ token }) {
+        const userId = (token as { sub?: string } | null)?.sub;
+        if (userId && /^[0-9a-f-]{36}$/i.test(userId)) await bumpSessionEpoch({ userId });
+      },
+    },
     callbacks: {
       async jwt({ token, user }) {
         if (user) {
@@ -83,14 +93,9 @@ export function authOptions(): NextAuthOptions {
         return { ...session, userId: token.sub, epoch: token.epoch } as typeof session;
       },
       async redirect({ url, baseUrl }) {
-        // Only same-origin destinations after sign-in and sign-out.
-        if (url.startsWith("/") && !url.startsWith("//")) return `${baseUrl}${url}`;
-        try {
-          if (new URL(url).origin === baseUrl) return url;
-        } catch {
-          /* not a URL: fall through */
-        }
-        return baseUrl;
+        // Only same-origin destinations after sign-in and sign-out, resolved as a browser would.
+        const path = safeCallbackPath(url.startsWith(baseUrl) ? url.slice(baseUrl.length) || "/" : url, "/", baseUrl);
+        return `${baseUrl}${path}`;
       },
     },
   };
