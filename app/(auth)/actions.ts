@@ -7,6 +7,7 @@ import {
 } from "@/lib/accounts/registration";
 import { newPasswordSchema } from "@/lib/auth/password-rules";
 import { admitSignInLinkRequest, sendSignInLink, SIGN_IN_LINK_SENT } from "@/lib/auth/sign-in-link";
+import { admitVerificationResend } from "@/lib/auth/mail-limits";
 import { AppError } from "@/lib/errors";
 import { defineAction } from "@/lib/http/action";
 import { clientAddress } from "@/lib/http/client-address";
@@ -26,7 +27,9 @@ export const signUpAction = defineAction({
     callbackUrl: z.string().optional(),
   }),
   run: async ({ input }) => {
+    // The same answer whether or not the address already has an account; the mail goes after it.
     const user = await signUp(input);
+    after(() => user.mail().catch((error) => console.error("[signUp] mail failed:", error)));
     const next = new URLSearchParams({ registered: "1", email: user.email, callbackUrl: safeCallbackPath(input.callbackUrl) });
     return { redirectTo: `/sign-in?${next}` };
   },
@@ -49,6 +52,7 @@ export const resendVerificationAction = defineAction({
   schema: z.object({}),
   run: async ({ user }) => {
     if (user.emailVerified) return { message: "Your e-mail address is already confirmed." };
+    await admitVerificationResend(user);
     await sendVerification({ userId: user.id, email: user.email, name: user.name });
     return { message: `We sent a new link to ${user.email}.` };
   },
@@ -60,7 +64,8 @@ export const forgotPasswordAction = defineAction({
   keep: ["email"],
   schema: z.object({ email }),
   run: async ({ input, headers }) => {
-    await requestPasswordReset({ email: input.email, address: clientAddress(headers) });
+    const request = await requestPasswordReset({ email: input.email, address: clientAddress(headers) });
+    after(() => request.mail().catch((error) => console.error("[forgotPassword] mail failed:", error)));
     return { message: "If an account uses this address, we sent it a link to choose a new password. The link works for 1 hour." };
   },
 });

@@ -7,17 +7,28 @@ import type { CurrentUser } from "@/lib/auth/types";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { sendMail } from "@/lib/mail/send";
-import { appLink, resetPasswordMail, verifyEmailMail } from "@/lib/mail/templates";
+import { accountExistsMail, appLink, resetPasswordMail, verifyEmailMail } from "@/lib/mail/templates";
 
-export async function signUp(input: { name: string; email: string; password: string; role: "player" | "teacher" }) {
+/**
+ * Creates the account, or — when the address already has one — changes nothing. The caller
+ * answers the same either way (so sign-up cannot tell who has an account) and runs `mail` after
+ * answering: the confirmation link to a new account, a notice to the existing one's owner.
+ */
+export async function signUp(input: { name: string; email: string; password: string; role: "player" | "teacher" }): Promise<{ email: string; mail: () => Promise<void> }> {
   const user = await createUser({
     name: input.name, email: input.email, role: input.role, passwordHash: await hashPassword(input.password),
   });
   if (!user) {
-    throw new AppError("conflict:email", "An account with this e-mail address already exists. Sign in, or reset its password.", { field: "email" });
+    return {
+      email: input.email,
+      mail: async () => {
+        const existing = await getUserByEmail({ email: input.email });
+        if (!existing || existing.status !== "active") return;
+        await sendMail(existing.email, accountExistsMail({ name: existing.name, url: appLink(config().APP_URL, "/sign-in", { email: existing.email }) }));
+      },
+    };
   }
-  await sendVerification({ userId: user.id, email: user.email, name: user.name });
-  return user;
+  return { email: user.email, mail: () => sendVerification({ userId: user.id, email: user.email, name: user.name }) };
 }
 
 export async function sendVerification({ userId, email, name }: { userId: string; email: string; name: string }) {
@@ -45,6 +56,11 @@ export async function requestPasswordReset({ email, address }: { email: string; 
   const limited = await checkLimits(checks, "reset requests");
   if (limited) throw rateLimitError(limited, "rate_limited:reset");
   await recordAttempt(checks, false);
+  return { mail: () => sendResetLink({ email }) };
+}
+
+/** The account lookup and the mail, run after the answer so its timing tells nothing. */
+async function sendResetLink({ email }: { email: string }) {
   const user = await getUserByEmail({ email });
   if (!user || user.status !== "active") return;
   const token = await issueToken({ purpose: "reset_password", userId: user.id, email: user.email });

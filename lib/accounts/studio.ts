@@ -1,4 +1,5 @@
 import "server-only";
+import { admitMailOnBehalf } from "@/lib/auth/mail-limits";
 import {
   acceptInvitation, createInvitation, ensureStudioForTeacher, getInvitationByToken, getStudioById, isStudioMember,
   removeStudioMember,
@@ -27,6 +28,7 @@ export async function inviteToStudio(user: CurrentUser, { email }: { email: stri
   if (existing && (await isStudioMember({ studioId: studio.id, playerId: existing.id }))) {
     throw new AppError("conflict:member", "This person is already in your studio.", { field: "email" });
   }
+  await admitMailOnBehalf(user, email);
   const token = await createInvitation({ studioId: studio.id, email });
   await sendMail(email, studioInviteMail({
     teacherName: user.name, studioName: studio.name, url: appLink(config().APP_URL, "/studio/join", { token }),

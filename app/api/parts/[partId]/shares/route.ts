@@ -1,3 +1,4 @@
+import { admitMailOnBehalf } from "@/lib/auth/mail-limits";
 import { handle, parseJson, parseParams } from "@/lib/http/handler";
 import { requireUser } from "@/lib/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
@@ -20,6 +21,7 @@ export const POST = handle(async (request, { params }) => {
   const user = await requireUser();
   const body = await parseJson(request, inviteBody);
   const { part } = await loadPart(user, partId, "part:share");
+  await admitMailOnBehalf(user, body.email);
   const share = await inviteToPart(user, part, body.email, body.permission);
   return Response.json(await getShareDtoById({ partId, shareId: share.id }), { status: 201 });
 });

@@ -1,3 +1,4 @@
+import { admitMailOnBehalf } from "@/lib/auth/mail-limits";
 import { handle, parseParams } from "@/lib/http/handler";
 import { requireUser } from "@/lib/auth/session";
 import { AppError } from "@/lib/errors";
@@ -14,6 +15,7 @@ export const POST = handle(async (_request, { params }) => {
   const { part } = await loadPart(user, partId, "part:share");
   const share = await getShareById({ partId, shareId });
   if (!share) throw new AppError("not_found:share", "This invitation does not exist or has been withdrawn. Reload the list.");
+  await admitMailOnBehalf(user, share.email);
   await resendInvitation(user, part, share);
   return Response.json(await getShareDtoById({ partId, shareId }));
 });

@@ -1,0 +1,32 @@
+import "server-only";
+import type { CurrentUser } from "@/lib/auth/types";
+import { AppError } from "@/lib/errors";
+import { checkLimits, rateLimitError, recordAttempt } from "./rate-limit";
+import { LIMITS, type LimitRule } from "./rate-limit-rules";
+
+/**
+ * Admits one mail that Ondula sends to someone else on `user`'s behalf (an invitation or its
+ * resend), or throws. The sender must have proved their own address, so an unconfirmed account
+ * cannot use Ondula to mail strangers; each sender and each recipient has a limit per hour, so
+ * invite/withdraw loops cannot flood a mailbox. Every admitted mail counts.
+ */
+export async function admitMailOnBehalf(user: CurrentUser, recipient: string): Promise<void> {
+  if (!user.emailVerified) {
+    throw new AppError("forbidden:unconfirmed", "Confirm your e-mail address first (see Settings): then Ondula can send invitations for you.");
+  }
+  const checks: Array<[LimitRule, string]> = [
+    [LIMITS.mailSender, user.id],
+    [LIMITS.mailRecipient, recipient],
+  ];
+  const limited = await checkLimits(checks, "invitations");
+  if (limited) throw rateLimitError(limited, "rate_limited:mail");
+  await recordAttempt(checks, true);
+}
+
+/** Admits sending an account's own confirmation link again (a few an hour). */
+export async function admitVerificationResend(user: CurrentUser): Promise<void> {
+  const checks: Array<[LimitRule, string]> = [[LIMITS.verifyResend, user.id]];
+  const limited = await checkLimits(checks, "confirmation e-mails");
+  if (limited) throw rateLimitError(limited, "rate_limited:mail");
+  await recordAttempt(checks, true);
+}
