@@ -7,7 +7,7 @@ import { clientAddress } from "@/lib/http/client-address";
 import { safeCallbackPath } from "@/lib/http/safe-redirect";
 import { bumpSessionEpoch } from "@/db/users";
 import { verifyPassword } from "./password";
-import { pruneAttempts, recordAttempt, signInChecks } from "./rate-limit";
+import { pruneAttempts, recordAttempt } from "./rate-limit";
 import { linkUseChecks, signInWithLink } from "./sign-in-link";
 
 /** The one message for an unknown account, a wrong password and a disabled account alike. */
@@ -25,7 +25,7 @@ let cached: NextAuthOptions | undefined;
  * Sessions are JWTs carrying only the user id and the account's session epoch; everything else
  * (role, status, name) is re-read from the database on each request by `getCurrentUser`.
  * Unconfirmed e-mail addresses may sign in (they see a banner and cannot send invitations);
- * disabled accounts may not. The rate limit is checked before next-auth runs, in the route.
+ * disabled accounts may not. The attempt is counted (and the limit checked) before next-auth runs, in the route.
  */
 export function authOptions(): NextAuthOptions {
   if (cached) return cached;
@@ -44,15 +44,14 @@ export function authOptions(): NextAuthOptions {
           email: { label: "E-mail", type: "email" },
           password: { label: "Password", type: "password" },
         },
-        async authorize(credentials, req) {
+        async authorize(credentials) {
           const email = String(credentials?.email ?? "").trim().toLowerCase();
           const password = String(credentials?.password ?? "");
           if (!email || !password || email.length > 320 || password.length > 200) return null;
-          const address = clientAddress((req?.headers ?? {}) as Record<string, string>);
           const user = await getUserByEmail({ email });
           const passwordOk = await verifyPassword(password, user?.passwordHash ?? DUMMY_HASH);
           const ok = !!user && passwordOk && user.status === "active";
-          await recordAttempt(signInChecks(email, address), ok);
+          // The attempt was counted before this comparison, by the route (consumeAttempt).
           // Old attempts serve no limit; about one sign-in in a hundred clears them out.
           if (Math.random() < 0.01) void pruneAttempts().catch(() => undefined);
           if (!ok) return null;

@@ -56,7 +56,7 @@ describe("cross-site requests (ASVS 4.2.2, 13.2.3)", () => {
 
   it("refuses JSON from a foreign or opaque Origin, and cross-site Fetch Metadata (ASVS 4.2.2)", async () => {
     const before = await commentCount();
-    for (const headers of [{ origin: EVIL_ORIGIN }, { origin: "null" }, { "sec-fetch-site": "cross-site" }, { "sec-fetch-site": "same-site" }, { origin: `${APP_ORIGIN}.evil.example` }]) {
+    for (const headers of <Record<string, string>[]>[{ origin: EVIL_ORIGIN }, { origin: "null" }, { "sec-fetch-site": "cross-site" }, { "sec-fetch-site": "same-site" }, { origin: `${APP_ORIGIN}.evil.example` }]) {
       const res = await hostile(`/api/parts/${partId}/comments`, json({ body: "planted", noteKey: null }, headers), owner);
       expect(res.status).toBe(403); // ASVS 4.2.2
     }

@@ -1,7 +1,7 @@
 import NextAuth from "next-auth";
 import { NextRequest } from "next/server";
 import { authOptions } from "@/lib/auth/options";
-import { checkLimits, rateLimitError, signInChecks } from "@/lib/auth/rate-limit";
+import { checkLimits, consumeAttempt, markAttemptSucceeded, rateLimitError, signInChecks } from "@/lib/auth/rate-limit";
 import { linkUseChecks } from "@/lib/auth/sign-in-link";
 import { AppError } from "@/lib/errors";
 import { clientAddress } from "@/lib/http/client-address";
@@ -35,16 +35,23 @@ export async function POST(request: Request, context: Context) {
   const { nextauth } = await context.params;
   if (nextauth?.[0] === "callback" && nextauth[1] === "credentials") {
     const email = readEmail(text, request.headers.get("content-type") ?? "");
-    const limited = await checkLimits(signInChecks(email, clientAddress(request.headers)), "sign-in attempts");
-    if (limited) return rateLimitError(limited).toResponse();
+    const attempt = await consumeAttempt(signInChecks(email, clientAddress(request.headers)), "sign-in attempts");
+    if ("limited" in attempt) return rateLimitError(attempt.limited).toResponse();
+    const response: Response = await NextAuth(authOptions())(replayOf(request, text), context);
+    if (response.headers.getSetCookie().some((c) => /next-auth\.session-token=[^;]/.test(c))) await markAttemptSucceeded(attempt.ids);
+    return response;
   }
   if (nextauth?.[0] === "callback" && nextauth[1] === "sign-in-link") {
     // Links are unguessable; the per-address limit still stops a client trying tokens in bulk.
     const limited = await checkLimits(linkUseChecks(clientAddress(request.headers)), "sign-in attempts");
     if (limited) return rateLimitError(limited).toResponse();
   }
-  const replay = new NextRequest(request.url, { method: "POST", headers: request.headers, body: text });
-  return NextAuth(authOptions())(replay, context);
+  return NextAuth(authOptions())(replayOf(request, text), context);
+}
+
+/** next-auth reads the body itself; it gets the capped text that was already read. */
+function replayOf(request: Request, text: string): NextRequest {
+  return new NextRequest(request.url, { method: "POST", headers: request.headers, body: text });
 }
 
 function readEmail(text: string, type: string): string {
