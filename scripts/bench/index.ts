@@ -14,6 +14,7 @@ const sections: Array<() => Promise<{ default: BenchSection }>> = [
   () => import("./analysis"),
   () => import("./library"),
   () => import("./workspace"),
+  () => import("./load"),
 ];
 
 async function main() {
