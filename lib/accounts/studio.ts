@@ -28,11 +28,12 @@ export async function inviteToStudio(user: CurrentUser, { email }: { email: stri
   if (existing && (await isStudioMember({ studioId: studio.id, playerId: existing.id }))) {
     throw new AppError("conflict:member", "This person is already in your studio.", { field: "email" });
   }
-  await admitMailOnBehalf(user, email);
+  const sent = await admitMailOnBehalf(user, email, `studio:${studio.id}`);
   const token = await createInvitation({ studioId: studio.id, email });
   await sendMail(email, studioInviteMail({
     teacherName: user.name, studioName: studio.name, url: appLink(config().APP_URL, "/studio/join", { token }),
   }));
+  await sent();
 }
 
 export async function removeMember(user: CurrentUser, { playerId }: { playerId: string }) {

@@ -8,19 +8,22 @@ import { LIMITS, type LimitRule } from "./rate-limit-rules";
  * Admits one mail that Ondula sends to someone else on `user`'s behalf (an invitation or its
  * resend), or throws. The sender must have proved their own address, so an unconfirmed account
  * cannot use Ondula to mail strangers; each sender and each recipient has a limit per hour, so
- * invite/withdraw loops cannot flood a mailbox. Every admitted mail counts.
+ * invite/withdraw loops cannot flood a mailbox (`about` names the part or studio). Every admitted
+ * mail counts: call the function it returns once the mail is sent.
  */
-export async function admitMailOnBehalf(user: CurrentUser, recipient: string): Promise<void> {
+export async function admitMailOnBehalf(user: CurrentUser, recipient: string, about: string): Promise<() => Promise<void>> {
   if (!user.emailVerified) {
     throw new AppError("forbidden:unconfirmed", "Confirm your e-mail address first (see Settings): then Ondula can send invitations for you.");
   }
   const checks: Array<[LimitRule, string]> = [
     [LIMITS.mailSender, user.id],
     [LIMITS.mailRecipient, recipient],
+    [LIMITS.mailRecipientAbout, `${recipient.trim().toLowerCase()}|${about}`],
   ];
   const limited = await checkLimits(checks, "invitations");
   if (limited) throw rateLimitError(limited, "rate_limited:mail");
-  await recordAttempt(checks, true);
+  // Counted once the mail went out, so a refused invitation (a duplicate, oneself) costs nothing.
+  return () => recordAttempt(checks, true);
 }
 
 /** Admits sending an account's own confirmation link again (a few an hour). */

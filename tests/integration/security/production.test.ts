@@ -16,16 +16,17 @@ const base = `http://127.0.0.1:${port}`;
 const next = path.resolve("node_modules/next/dist/bin/next");
 
 function startProduction(secret: string): { child: ChildProcess; output: () => string; exited: Promise<number | null> } {
+  const env: NodeJS.ProcessEnv = { ...process.env };
+  delete env.NOTIFY_FLUSH_SECRET;
   const child = spawn(process.execPath, [next, "start", "-H", "127.0.0.1", "-p", String(port)], {
     env: {
-      ...process.env,
+      ...env,
       NODE_ENV: "production",
       APP_ENV: "production",
       AUTH_SECRET: secret,
       NEXTAUTH_SECRET: secret,
       APP_URL: base,
       NEXTAUTH_URL: base,
-      NOTIFY_FLUSH_SECRET: "",
       SEED_DEMO: "no",
     },
     stdio: ["ignore", "pipe", "pipe"],

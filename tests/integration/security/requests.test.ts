@@ -35,7 +35,7 @@ beforeAll(async () => {
 describe("cross-site requests (ASVS 4.2.2, 13.2.3)", () => {
   it("refuses a cross-site text/plain POST carrying the session cookie, and creates nothing", async () => {
     const before = await commentCount();
-    const res = await hostile(`/api/parts/${partId}/comments`, {
+    const res = await hostile(`/api/parts/${partId}/comments?thread=part`, {
       method: "POST",
       headers: { "content-type": "text/plain", origin: EVIL_ORIGIN, "sec-fetch-site": "cross-site" },
       body: JSON.stringify({ body: "planted", noteKey: null }),
@@ -48,7 +48,7 @@ describe("cross-site requests (ASVS 4.2.2, 13.2.3)", () => {
   it("refuses text/plain and form bodies even without an Origin (ASVS 13.2.3)", async () => {
     const before = await commentCount();
     for (const type of ["text/plain", "application/x-www-form-urlencoded", "text/xml"]) {
-      const res = await hostile(`/api/parts/${partId}/comments`, { method: "POST", headers: { "content-type": type }, body: `{"body":"planted"}` }, owner);
+      const res = await hostile(`/api/parts/${partId}/comments?thread=part`, { method: "POST", headers: { "content-type": type }, body: `{"body":"planted"}` }, owner);
       expect(res.status).toBe(415); // ASVS 13.2.3 (content type checked)
     }
     expect(await commentCount()).toBe(before);
@@ -57,7 +57,7 @@ describe("cross-site requests (ASVS 4.2.2, 13.2.3)", () => {
   it("refuses JSON from a foreign or opaque Origin, and cross-site Fetch Metadata (ASVS 4.2.2)", async () => {
     const before = await commentCount();
     for (const headers of <Record<string, string>[]>[{ origin: EVIL_ORIGIN }, { origin: "null" }, { "sec-fetch-site": "cross-site" }, { "sec-fetch-site": "same-site" }, { origin: `${APP_ORIGIN}.evil.example` }]) {
-      const res = await hostile(`/api/parts/${partId}/comments`, json({ body: "planted", noteKey: null }, headers), owner);
+      const res = await hostile(`/api/parts/${partId}/comments?thread=part`, json({ body: "planted", noteKey: null }, headers), owner);
       expect(res.status).toBe(403); // ASVS 4.2.2
     }
     expect(await commentCount()).toBe(before);
@@ -77,7 +77,7 @@ describe("cross-site requests (ASVS 4.2.2, 13.2.3)", () => {
 
   it("accepts the same request from our own origin (the control)", async () => {
     const before = await commentCount();
-    const res = await owner.fetch(`/api/parts/${partId}/comments`, json({ body: "from our own page", noteKey: null }, { origin: APP_ORIGIN, "sec-fetch-site": "same-origin" }));
+    const res = await owner.fetch(`/api/parts/${partId}/comments?thread=part`, json({ body: "from our own page", noteKey: null }, { origin: APP_ORIGIN, "sec-fetch-site": "same-origin" }));
     expect(res.status).toBe(201);
     expect(await commentCount()).toBe(before + 1);
   });
@@ -88,7 +88,7 @@ describe("body size (ASVS 12.1.1, 13.1.3)", () => {
 
   it("refuses a 5 MB JSON body with 413 and a message a person can act on", async () => {
     const started = Date.now();
-    const res = await hostile(`/api/parts/${partId}/comments`, json({ body: big, noteKey: null }), owner);
+    const res = await hostile(`/api/parts/${partId}/comments?thread=part`, json({ body: big, noteKey: null }), owner);
     expect(res.status).toBe(413); // ASVS 12.1.1
     const body = await res.json();
     expect(body.code).toBe("too_large:body");
@@ -105,7 +105,7 @@ describe("body size (ASVS 12.1.1, 13.1.3)", () => {
         else controller.enqueue(chunk);
       },
     });
-    const res = await hostile(`/api/parts/${partId}/comments`, {
+    const res = await hostile(`/api/parts/${partId}/comments?thread=part`, {
       method: "POST", headers: { "content-type": "application/json" }, body: stream, duplex: "half",
     } as RequestInit, owner);
     expect(res.status).toBe(413);
@@ -119,7 +119,7 @@ describe("body size (ASVS 12.1.1, 13.1.3)", () => {
   });
 
   it("answers malformed JSON with 400 (ASVS 5.1.4)", async () => {
-    const res = await hostile(`/api/parts/${partId}/comments`, { method: "POST", headers: { "content-type": "application/json" }, body: "{\"body\": " }, owner);
+    const res = await hostile(`/api/parts/${partId}/comments?thread=part`, { method: "POST", headers: { "content-type": "application/json" }, body: "{\"body\": " }, owner);
     expect(res.status).toBe(400);
   });
 });
@@ -132,14 +132,14 @@ describe("control characters in text (ASVS 5.1.3, 5.1.4)", () => {
   });
 
   it("answers 400 for control characters in a comment and in a part's title", async () => {
-    const comment = await hostile(`/api/parts/${partId}/comments`, json({ body: "bell\u0007", noteKey: null }), owner);
+    const comment = await hostile(`/api/parts/${partId}/comments?thread=part`, json({ body: "bell\u0007", noteKey: null }), owner);
     expect(comment.status).toBe(400);
     const title = await hostile(`/api/parts/${partId}`, json({ title: "Etude\u001b[31m" }, {}, "PATCH"), owner);
     expect(title.status).toBe(400);
   });
 
   it("keeps line breaks and tabs, which are text", async () => {
-    const res = await owner.fetch(`/api/parts/${partId}/comments`, json({ body: "first line\n\tsecond line", noteKey: null }));
+    const res = await owner.fetch(`/api/parts/${partId}/comments?thread=part`, json({ body: "first line\n\tsecond line", noteKey: null }));
     expect(res.status).toBe(201);
   });
 });

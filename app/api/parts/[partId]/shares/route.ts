@@ -21,7 +21,8 @@ export const POST = handle(async (request, { params }) => {
   const user = await requireUser();
   const body = await parseJson(request, inviteBody);
   const { part } = await loadPart(user, partId, "part:share");
-  await admitMailOnBehalf(user, body.email);
+  const sent = await admitMailOnBehalf(user, body.email, `part:${partId}`);
   const share = await inviteToPart(user, part, body.email, body.permission);
+  await sent();
   return Response.json(await getShareDtoById({ partId, shareId: share.id }), { status: 201 });
 });

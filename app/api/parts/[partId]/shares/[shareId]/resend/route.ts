@@ -15,7 +15,8 @@ export const POST = handle(async (_request, { params }) => {
   const { part } = await loadPart(user, partId, "part:share");
   const share = await getShareById({ partId, shareId });
   if (!share) throw new AppError("not_found:share", "This invitation does not exist or has been withdrawn. Reload the list.");
-  await admitMailOnBehalf(user, share.email);
+  const sent = await admitMailOnBehalf(user, share.email, `part:${partId}`);
   await resendInvitation(user, part, share);
+  await sent();
   return Response.json(await getShareDtoById({ partId, shareId }));
 });
