@@ -1,4 +1,5 @@
 import type { Metadata, Viewport } from "next";
+import { connection } from "next/server";
 import "./globals.css";
 import { sans, serif } from "./fonts";
 import { SignOutButton } from "@/components/auth/sign-out-button";
@@ -22,6 +23,9 @@ export const metadata: Metadata = {
 export const viewport: Viewport = { themeColor: "#FBF8F1" };
 
 export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // Every page is rendered per request: its scripts carry the nonce of that request's
+  // Content-Security-Policy (proxy.ts), which a page prerendered at build time could not.
+  await connection();
   // The header must never take a page down: without the database it shows the signed-out links.
   const user = await getCurrentUser().catch(() => null);
   return (

@@ -119,7 +119,8 @@ export async function listPartsForViewer({
   pageSize: number;
 }): Promise<{ items: ListedPart[]; total: number }> {
   const markingCount = sql<number>`(select count(*)::int from ${markings} where ${markings.partId} = ${parts.id})`;
-  const sharedWith = sql<string[]>`coalesce((select array_agg(${shares.email} order by ${shares.email}) from ${shares} where ${shares.partId} = ${parts.id} and ${shares.revokedAt} is null), '{}')`;
+  // Who a part is shared with (pending invitations included) is the owner's to see, not the invitees'.
+  const sharedWith = sql<string[]>`case when ${parts.ownerId} = ${viewerId} then coalesce((select array_agg(${shares.email} order by ${shares.email}) from ${shares} where ${shares.partId} = ${parts.id} and ${shares.revokedAt} is null), '{}') else '{}' end`;
   const viewerShare = sql<string | null>`(select ${shares.permission}::text from ${shares} where ${shares.partId} = ${parts.id} and ${shares.userId} = ${viewerId} and ${shares.acceptedAt} is not null and ${shares.revokedAt} is null limit 1)`;
 
   const visible = or(eq(parts.ownerId, viewerId), sql`${viewerShare} is not null`);

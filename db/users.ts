@@ -44,6 +44,24 @@ export async function setUserPassword({ userId, passwordHash }: { userId: string
     .where(eq(users.id, userId));
 }
 
+/** Ends every session the account has (sign-out): their JWTs carry the old epoch. */
+export async function bumpSessionEpoch({ userId }: { userId: string }) {
+  await db().update(users).set({ sessionEpoch: sql`${users.sessionEpoch} + 1` }).where(eq(users.id, userId));
+}
+
+/**
+ * Marks the address proved by someone who did not need the password: the password set before
+ * (unknown to them) is replaced and every session ends. Returns the new session epoch.
+ */
+export async function claimAddress({ userId, passwordHash }: { userId: string; passwordHash: string }): Promise<number> {
+  const [row] = await db()
+    .update(users)
+    .set({ passwordHash, emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, now())`, sessionEpoch: sql`${users.sessionEpoch} + 1`, updatedAt: new Date() })
+    .where(eq(users.id, userId))
+    .returning({ sessionEpoch: users.sessionEpoch });
+  return row.sessionEpoch;
+}
+
 export async function markEmailVerified({ userId }: { userId: string }) {
   await db()
     .update(users)

@@ -29,3 +29,13 @@ describe("parseConfig", () => {
     expect(() => parseConfig({ APP_ENV: "test", UPLOAD_MAX_BYTES: "-1" })).toThrow(/UPLOAD_MAX_BYTES/);
   });
 });
+
+describe("a development secret in production", () => {
+  const prod = { APP_ENV: "production", DATABASE_URL: "postgres://a@b/c", SMTP_URL: "smtp://a:25", APP_URL: "https://a.example" };
+  it("stops the configuration (ASVS 2.10.4, 6.4.1: no default secrets)", () => {
+    for (const secret of ["local-production-secret-not-for-production-0123456789", "development-only-secret-change-me-0123456789"]) {
+      expect(() => parseConfig({ ...prod, AUTH_SECRET: secret })).toThrow(/development secret/);
+    }
+    expect(parseConfig({ ...prod, AUTH_SECRET: "Zq8v3N1kP0s7W2e9R4t6Y5u1I3o8P7a6S5d4F3g2" }).APP_ENV).toBe("production");
+  });
+});

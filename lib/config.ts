@@ -42,6 +42,9 @@ const DEV_DEFAULTS = {
   APP_URL: "http://127.0.0.1:3000",
 } as const;
 
+/** The secrets the scripts and defaults use outside production; never valid in production. */
+const DEV_SECRET = /not-for-production|development-only|change-me|^local-/i;
+
 export class ConfigError extends Error {}
 
 export function parseConfig(env: Record<string, string | undefined>): AppConfig {
@@ -52,6 +55,11 @@ export function parseConfig(env: Record<string, string | undefined>): AppConfig 
     for (const [k, v] of Object.entries(DEV_DEFAULTS)) input[k] ??= v;
   }
   const parsed = schema.safeParse(input);
+  if (parsed.success && resolvedEnv === "production" && DEV_SECRET.test(parsed.data.AUTH_SECRET)) {
+    throw new ConfigError(
+      `Ondula configuration is invalid (APP_ENV=production):\n  AUTH_SECRET: is a development secret; generate one (e.g. openssl rand -base64 48)`,
+    );
+  }
   if (!parsed.success) {
     const lines = parsed.error.issues.map(
       (i) => `  ${i.path.join(".")}: ${input[String(i.path[0])] === undefined ? "missing" : i.message}`,

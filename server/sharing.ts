@@ -14,6 +14,7 @@ import {
 import { groupByStudent } from "@/lib/sharing/attention";
 import type { Part, Share } from "@/db/schema";
 import { markEmailVerified } from "@/db/users";
+import { admitMailOnBehalf } from "./auth/mail-limits";
 import { notifyParticipants } from "./notify";
 import { loadPart } from "./parts";
 
@@ -165,7 +166,10 @@ export async function listShares(user: CurrentUser, partId: string) {
 
 export async function sharePart(user: CurrentUser, o: { partId: string; email: string; permission: "comment" | "propose" }) {
   const { part } = await loadPart(user, o.partId, "part:share");
+  // Mail on the owner's behalf: a confirmed address and the per-sender/recipient limits first.
+  const sent = await admitMailOnBehalf(user, o.email, `part:${o.partId}`);
   const share = await inviteToPart(user, part, o.email, o.permission);
+  await sent();
   return getShareDtoById({ partId: o.partId, shareId: share.id });
 }
 
@@ -191,6 +195,8 @@ export async function revokeShare(user: CurrentUser, o: { partId: string; shareI
 
 export async function resendShare(user: CurrentUser, o: { partId: string; shareId: string }) {
   const { part, share } = await loadShare(user, o.partId, o.shareId);
+  const sent = await admitMailOnBehalf(user, share.email, `part:${o.partId}`);
   await resendInvitation(user, part, share);
+  await sent();
   return getShareDtoById({ partId: o.partId, shareId: o.shareId });
 }

@@ -8,6 +8,7 @@ import {
 import { newPasswordSchema } from "@/lib/auth/password-rules";
 import { admitSignInLinkRequest, sendSignInLink, SIGN_IN_LINK_SENT } from "@/server/auth/sign-in-link";
 import { startSession } from "@/server/auth/start-session";
+import { admitVerificationResend } from "@/server/auth/mail-limits";
 import { AppError } from "@/lib/errors";
 import { defineAction } from "@/server/http/action";
 import { clientAddress } from "@/lib/http/client-address";
@@ -27,11 +28,18 @@ export const signUpAction = defineAction({
     callbackUrl: z.string().optional(),
   }),
   run: async ({ input }) => {
+    // The same answer whether or not the address already has an account; the mail goes after it.
     const user = await signUp(input);
-    // A new account is signed in at once: the player lands where they were going (the library).
-    await startSession(user);
-    const target = safeCallbackPath(input.callbackUrl);
-    return { redirectTo: `${target}${target.includes("?") ? "&" : "?"}welcome=1` };
+    after(() => user.mail().catch((error) => console.error("[signUp] mail failed:", error)));
+    if (user.created) {
+      // A new account is signed in at once: the player lands where they were going (the library).
+      await startSession(user.created);
+      const target = safeCallbackPath(input.callbackUrl);
+      return { redirectTo: `${target}${target.includes("?") ? "&" : "?"}welcome=1` };
+    }
+    // A taken address changes nothing; its owner is told by mail, and this visitor is sent to sign in.
+    const next = new URLSearchParams({ registered: "1", email: user.email, callbackUrl: safeCallbackPath(input.callbackUrl) });
+    return { redirectTo: `/sign-in?${next}` };
   },
 });
 
@@ -52,6 +60,7 @@ export const resendVerificationAction = defineAction({
   schema: z.object({}),
   run: async ({ user }) => {
     if (user.emailVerified) return { message: "Your e-mail address is already confirmed." };
+    await admitVerificationResend(user);
     await sendVerification({ userId: user.id, email: user.email, name: user.name });
     return { message: `We sent a new link to ${user.email}.` };
   },
@@ -63,7 +72,8 @@ export const forgotPasswordAction = defineAction({
   keep: ["email"],
   schema: z.object({ email }),
   run: async ({ input, headers }) => {
-    await requestPasswordReset({ email: input.email, address: clientAddress(headers) });
+    const request = await requestPasswordReset({ email: input.email, address: clientAddress(headers) });
+    after(() => request.mail().catch((error) => console.error("[forgotPassword] mail failed:", error)));
     return { message: "If an account uses this address, we sent it a link to choose a new password. The link works for 1 hour." };
   },
 });

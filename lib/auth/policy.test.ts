@@ -202,3 +202,13 @@ describe("policy: accounts and studios", () => {
     }
   });
 });
+
+describe("practice log and takes (docs/accounts.md: a teacher the part is shared with may read them, nobody else)", () => {
+  it("lets a player the part is shared with see the part but not the owner's practice", () => {
+    const shared: Resource = { type: "part", part, share: { permission: "comment" } };
+    expect(can(otherPlayer, "part:view", shared)).toBe(true);
+    expect(can(otherPlayer, "practice:view", shared)).toBe(false);
+    expect(() => assertCan(otherPlayer, "practice:view", shared)).toThrow(/teachers it is shared with/);
+    expect(can(teacherComment, "practice:view", shared)).toBe(true);
+  });
+});

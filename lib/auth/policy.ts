@@ -15,7 +15,8 @@ import type { CurrentUser } from "./types";
  * - Admins do not join studios (an invitation to an admin's address cannot be accepted).
  * - Admins cannot change their own role or disable themselves (no lock-out by accident).
  * - A part's practice log and takes are the owner's: only the owner writes them; a teacher the
- *   part is shared with may read them (following progress is part of teaching), nobody else.
+ *   part is shared with may read them (following progress is part of teaching), nobody else —
+ *   not a fellow player it is shared with.
  * - A proposal is withdrawn only by its author, and only while they still see the part (a
  *   downgraded share may still take back what it proposed). Whether it is still open is a
  *   question of state, answered 409 by the route, not of rights.
@@ -173,8 +174,11 @@ function allowed(user: CurrentUser, action: Action, resource: Resource): boolean
       return !isAdmin(user);
     case "part:view":
     case "part:comment":
-    case "practice:view":
       return resource.type === "part" && (resource.part.ownerId === user.id || !!resource.share);
+    case "practice:view":
+      // Following progress is a teacher's; a fellow player the part is shared with sees the
+      // music and the discussion, not the owner's practice log or recordings.
+      return resource.type === "part" && (resource.part.ownerId === user.id || (!!resource.share && user.role === "teacher"));
     case "part:edit":
     case "part:delete":
     case "part:share":
@@ -210,6 +214,7 @@ const FORBIDDEN_MESSAGES: Partial<Record<Action, string>> = {
   "invitation:accept": "This invitation was sent to a different e-mail address.",
   "part:propose": "Proposals need a share with the propose permission.",
   "practice:write": "Only the part's owner keeps its practice log and takes.",
+  "practice:view": "Only the part's owner and the teachers it is shared with see its practice log and takes.",
   "proposal:withdraw": "Only the person who made this proposal can withdraw it; the part's owner accepts or declines it.",
   "assignment:create": "Only a teacher this part is shared with can assign practice on it.",
   "assignment:edit": "Only the teacher who set this practice can change it; its player can mark it done.",

@@ -19,6 +19,14 @@ export const LIMITS = {
   resetAddress: { prefix: "reset:address", max: 10, windowMs: 15 * MIN, counts: "all" },
   signInLinkAccount: { prefix: "link:account", max: 5, windowMs: 15 * MIN, counts: "all" },
   signInLinkAddress: { prefix: "link:address", max: 10, windowMs: 15 * MIN, counts: "all" },
+  /** Mail Ondula sends to someone else on a person's behalf (part and studio invitations, resends). */
+  mailSender: { prefix: "mail:sender", max: 50, windowMs: 60 * MIN, counts: "all" },
+  /** One recipient, from anyone. */
+  mailRecipient: { prefix: "mail:recipient", max: 20, windowMs: 60 * MIN, counts: "all" },
+  /** One recipient about one thing (a part, a studio): stops invite/withdraw loops. */
+  mailRecipientAbout: { prefix: "mail:recipient-about", max: 3, windowMs: 60 * MIN, counts: "all" },
+  /** Confirmation links an account asks to have sent again. */
+  verifyResend: { prefix: "mail:verify", max: 3, windowMs: 60 * MIN, counts: "all" },
 } satisfies Record<string, LimitRule>;
 
 export const limitKey = (rule: LimitRule, subject: string) => `${rule.prefix}:${subject.trim().toLowerCase()}`;

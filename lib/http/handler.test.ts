@@ -6,7 +6,7 @@ import { handle, parseJson, parseParams } from "./handler";
 import { safeCallbackPath } from "./safe-redirect";
 
 const ctx = { params: Promise.resolve({}) };
-const req = (body?: string) => new Request("http://app.test/api/x", { method: "POST", body });
+const req = (body?: string) => new Request("http://app.test/api/x", { method: "POST", body, headers: body === undefined ? {} : { "content-type": "application/json" } });
 
 describe("handle()", () => {
   it("turns an AppError into its status and { code, message, field }", async () => {

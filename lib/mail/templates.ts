@@ -36,6 +36,16 @@ export function verifyEmailMail({ name, url }: { name: string; url: string }): M
   });
 }
 
+export function accountExistsMail({ name, url }: { name: string; url: string }): MailContent {
+  return compose({
+    subject: "Someone tried to create an Ondula account with your address",
+    greeting: `Hello ${name},`,
+    lines: ["Someone tried to create a new Ondula account with this address, which already has one. Nothing was changed."],
+    action: { label: "Sign in or reset your password", url },
+    after: "If it was you, sign in with your account instead. If it was not, you can ignore this message.",
+  });
+}
+
 export function resetPasswordMail({ name, url }: { name: string; url: string }): MailContent {
   return compose({
     subject: "Reset your Ondula password",

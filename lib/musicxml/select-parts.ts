@@ -24,6 +24,13 @@ export function selectPartsXml(partwiseXml: string, partIds: string[]): string {
     depth++;
     const attrs = tag.attributes as Record<string, string>;
     if (skipDepth) return;
+    // MusicXML has no namespaced elements and no scripts: markup of another vocabulary that an
+    // upload carried (SVG, XHTML, <script>) is dropped with everything inside it.
+    if (isForeign(tag.name)) {
+      skipDepth = depth;
+      pending = "";
+      return;
+    }
     if ((tag.name === "score-part" && depth === 3) || (tag.name === "part" && depth === 2)) {
       if (tag.name === "part") seen.add(attrs.id);
       if (!keep.has(attrs.id)) {
@@ -36,7 +43,7 @@ export function selectPartsXml(partwiseXml: string, partIds: string[]): string {
     out += escText(pending);
     pending = "";
     out += `<${tag.name}`;
-    for (const k in attrs) out += ` ${k}="${esc(attrs[k])}"`;
+    for (const k in attrs) if (keepAttribute(k)) out += ` ${k}="${esc(attrs[k])}"`;
     tagOpen = true;
   });
   parser.on("text", (t) => {
@@ -58,4 +65,17 @@ export function selectPartsXml(partwiseXml: string, partIds: string[]): string {
   const missing = partIds.filter((id) => !seen.has(id));
   if (missing.length) throw fail.unknownPart(missing);
   return `<?xml version="1.0" encoding="UTF-8"?>\n${out}\n`;
+}
+
+/** An element no MusicXML document has: a prefixed (foreign-namespace) name or a script. */
+export function isForeign(name: string): boolean {
+  return name.includes(":") || name.toLowerCase() === "script";
+}
+
+/** MusicXML's own attributes plus xlink:/xml: ones; event handlers and other namespaces go. */
+function keepAttribute(name: string): boolean {
+  // No MusicXML 4.0 attribute starts with "on" (musicxml.xsd); HTML event handlers all do.
+  if (/^on/i.test(name)) return false;
+  if (!name.includes(":")) return true;
+  return name.startsWith("xlink:") || name.startsWith("xml:") || name === "xmlns:xlink";
 }

@@ -15,6 +15,7 @@ const sections: Array<() => Promise<{ default: BenchSection }>> = [
   () => import("./library"),
   () => import("./workspace"),
   () => import("./stand"),
+  () => import("./load"),
 ];
 
 async function main() {

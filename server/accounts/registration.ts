@@ -1,5 +1,6 @@
 import "server-only";
 import { consumeToken, issueToken, peekToken } from "@/db/tokens";
+import type { User } from "@/db/schema";
 import { createUser, getUserByEmail, getUserById, markEmailVerified, setUserPassword } from "@/db/users";
 import { hashPassword, verifyPassword } from "@/lib/auth/password";
 import { checkLimits, rateLimitError, recordAttempt, resetChecks } from "@/server/auth/rate-limit";
@@ -7,17 +8,33 @@ import type { CurrentUser } from "@/lib/auth/types";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { sendMail } from "@/lib/mail/send";
-import { appLink, resetPasswordMail, verifyEmailMail } from "@/lib/mail/templates";
+import { accountExistsMail, appLink, resetPasswordMail, verifyEmailMail } from "@/lib/mail/templates";
 
-export async function signUp(input: { name: string; email: string; password: string; role: "player" | "teacher" }) {
+/**
+ * Creates the account, or — when the address already has one — changes nothing. The caller
+ * answers the same either way (so sign-up cannot tell who has an account) and runs `mail` after
+ * answering: the confirmation link to a new account, a notice to the existing one's owner.
+ */
+/**
+ * Creates the account, or — when the address already has one — changes nothing and mails its owner
+ * a notice. `created` is the new account, which the sign-up signs in; the mail goes after the answer.
+ */
+export async function signUp(input: { name: string; email: string; password: string; role: "player" | "teacher" }): Promise<{ email: string; mail: () => Promise<void>; created: User | null }> {
   const user = await createUser({
     name: input.name, email: input.email, role: input.role, passwordHash: await hashPassword(input.password),
   });
   if (!user) {
-    throw new AppError("conflict:email", "An account with this e-mail address already exists. Sign in, or reset its password.", { field: "email" });
+    return {
+      email: input.email,
+      created: null,
+      mail: async () => {
+        const existing = await getUserByEmail({ email: input.email });
+        if (!existing || existing.status !== "active") return;
+        await sendMail(existing.email, accountExistsMail({ name: existing.name, url: appLink(config().APP_URL, "/sign-in", { email: existing.email }) }));
+      },
+    };
   }
-  await sendVerification({ userId: user.id, email: user.email, name: user.name });
-  return user;
+  return { email: user.email, created: user, mail: () => sendVerification({ userId: user.id, email: user.email, name: user.name }) };
 }
 
 export async function sendVerification({ userId, email, name }: { userId: string; email: string; name: string }) {
@@ -45,6 +62,11 @@ export async function requestPasswordReset({ email, address }: { email: string; 
   const limited = await checkLimits(checks, "reset requests");
   if (limited) throw rateLimitError(limited, "rate_limited:reset");
   await recordAttempt(checks, false);
+  return { mail: () => sendResetLink({ email }) };
+}
+
+/** The account lookup and the mail, run after the answer so its timing tells nothing. */
+async function sendResetLink({ email }: { email: string }) {
   const user = await getUserByEmail({ email });
   if (!user || user.status !== "active") return;
   const token = await issueToken({ purpose: "reset_password", userId: user.id, email: user.email });

@@ -1,4 +1,5 @@
 import "server-only";
+import { admitMailOnBehalf } from "@/server/auth/mail-limits";
 import {
   acceptInvitation, createInvitation, ensureStudioForTeacher, getInvitationByToken, getStudioById, isStudioMember,
   listOpenInvitations, listStudioMembers, listStudiosByPlayerId, removeStudioMember,
@@ -30,10 +31,12 @@ export async function inviteToStudio(user: CurrentUser, { email }: { email: stri
   if (existing && (await isStudioMember({ studioId: studio.id, playerId: existing.id }))) {
     throw new AppError("conflict:member", "This person is already in your studio.", { field: "email" });
   }
+  const sent = await admitMailOnBehalf(user, email, `studio:${studio.id}`);
   const token = await createInvitation({ studioId: studio.id, email });
   await sendMail(email, studioInviteMail({
     teacherName: user.name, studioName: studio.name, url: appLink(config().APP_URL, "/studio/join", { token }),
   }));
+  await sent();
 }
 
 export async function removeMember(user: CurrentUser, { playerId }: { playerId: string }) {

@@ -4,8 +4,10 @@ import CredentialsProvider from "next-auth/providers/credentials";
 import { getUserByEmail } from "@/db/users";
 import { config, isProduction } from "@/lib/config";
 import { clientAddress } from "@/lib/http/client-address";
+import { safeCallbackPath } from "@/lib/http/safe-redirect";
+import { bumpSessionEpoch } from "@/db/users";
 import { verifyPassword } from "@/lib/auth/password";
-import { pruneAttempts, recordAttempt, signInChecks } from "./rate-limit";
+import { pruneAttempts, recordAttempt } from "./rate-limit";
 import { linkUseChecks, signInWithLink } from "./sign-in-link";
 
 /** A bcrypt hash of a random string: comparing against it keeps timing equal for unknown accounts. */
@@ -20,7 +22,7 @@ let cached: NextAuthOptions | undefined;
  * Sessions are JWTs carrying only the user id and the account's session epoch; everything else
  * (role, status, name) is re-read from the database on each request by `getCurrentUser`.
  * Unconfirmed e-mail addresses may sign in (they see a banner and cannot send invitations);
- * disabled accounts may not. The rate limit is checked before next-auth runs, in the route.
+ * disabled accounts may not. The attempt is counted (and the limit checked) before next-auth runs, in the route.
  */
 export function authOptions(): NextAuthOptions {
   if (cached) return cached;
@@ -39,15 +41,14 @@ export function authOptions(): NextAuthOptions {
           email: { label: "E-mail", type: "email" },
           password: { label: "Password", type: "password" },
         },
-        async authorize(credentials, req) {
+        async authorize(credentials) {
           const email = String(credentials?.email ?? "").trim().toLowerCase();
           const password = String(credentials?.password ?? "");
           if (!email || !password || email.length > 320 || password.length > 200) return null;
-          const address = clientAddress((req?.headers ?? {}) as Record<string, string>);
           const user = await getUserByEmail({ email });
           const passwordOk = await verifyPassword(password, user?.passwordHash ?? DUMMY_HASH);
           const ok = !!user && passwordOk && user.status === "active";
-          await recordAttempt(signInChecks(email, address), ok);
+          // The attempt was counted before this comparison, by the route (consumeAttempt).
           // Old attempts serve no limit; about one sign-in in a hundred clears them out.
           if (Math.random() < 0.01) void pruneAttempts().catch(() => undefined);
           if (!ok) return null;
@@ -68,6 +69,14 @@ export function authOptions(): NextAuthOptions {
         },
       }),
     ],
+    events: {
+      // Signing out ends the session on the server too: a copied cookie stops working, and so
+      // do the account's sessions on other devices (one epoch per account).
+      async signOut({ token }) {
+        const userId = (token as { sub?: string } | null)?.sub;
+        if (userId && /^[0-9a-f-]{36}$/i.test(userId)) await bumpSessionEpoch({ userId });
+      },
+    },
     callbacks: {
       async jwt({ token, user }) {
         if (user) {
@@ -80,14 +89,9 @@ export function authOptions(): NextAuthOptions {
         return { ...session, userId: token.sub, epoch: token.epoch } as typeof session;
       },
       async redirect({ url, baseUrl }) {
-        // Only same-origin destinations after sign-in and sign-out.
-        if (url.startsWith("/") && !url.startsWith("//")) return `${baseUrl}${url}`;
-        try {
-          if (new URL(url).origin === baseUrl) return url;
-        } catch {
-          /* not a URL: fall through */
-        }
-        return baseUrl;
+        // Only same-origin destinations after sign-in and sign-out, resolved as a browser would.
+        const path = safeCallbackPath(url.startsWith(baseUrl) ? url.slice(baseUrl.length) || "/" : url, "/", baseUrl);
+        return `${baseUrl}${path}`;
       },
     },
   };

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, desc, eq, gt, lt, sql } from "drizzle-orm";
+import { and, desc, eq, gt, inArray, lt } from "drizzle-orm";
 import { db } from "@/db/client";
 import { authAttempts } from "@/db/schema";
 import { AppError } from "@/lib/errors";
@@ -18,13 +18,9 @@ export interface Limited {
 async function countedAttempts(rule: LimitRule, key: string, now: Date): Promise<Date[]> {
   const since = new Date(now.getTime() - rule.windowMs);
   const conditions = [eq(authAttempts.key, key), gt(authAttempts.createdAt, since)];
-  if (rule.counts === "failures") {
-    conditions.push(eq(authAttempts.succeeded, false));
-    // Failures before the key's latest success no longer count.
-    conditions.push(
-      sql`${authAttempts.createdAt} > coalesce((select max(a2.created_at) from auth_attempts a2 where a2.key = ${key} and a2.succeeded), '-infinity')`,
-    );
-  }
+  // A success does not clear earlier failures: an attacker who also knows one account's password
+  // (their own) must not be able to reset the per-address count with it.
+  if (rule.counts === "failures") conditions.push(eq(authAttempts.succeeded, false));
   const rows = await db()
     .select({ createdAt: authAttempts.createdAt })
     .from(authAttempts)
@@ -47,6 +43,34 @@ export async function checkLimits(checks: Array<[LimitRule, string]>, what: stri
     retryAt: worst,
     message: `Too many ${what}. Try again ${describeWait(worst, now)} (after ${worst.toISOString().slice(11, 16)} UTC).`,
   };
+}
+
+/**
+ * Counts an attempt before it is made (before the slow password comparison), so parallel
+ * attempts cannot all pass one check: the rows are written first as failures, then counted with
+ * everything written before them. Blocked, the rows are taken back and the wait returned; let
+ * through, the ids come back for `markAttemptSucceeded` once the outcome is known.
+ */
+export async function consumeAttempt(checks: Array<[LimitRule, string]>, what: string): Promise<{ limited: Limited } | { ids: string[] }> {
+  const rows = await db()
+    .insert(authAttempts)
+    .values(checks.map(([rule, subject]) => ({ key: limitKey(rule, subject), succeeded: false })))
+    .returning({ id: authAttempts.id });
+  const ids = rows.map((r) => r.id);
+  const now = new Date();
+  let over = false;
+  for (const [rule, subject] of checks) {
+    const counted = await countedAttempts({ ...rule, max: rule.max + 1 }, limitKey(rule, subject), now);
+    if (counted.length > rule.max) over = true;
+  }
+  if (!over) return { ids };
+  await db().delete(authAttempts).where(inArray(authAttempts.id, ids));
+  const limited = await checkLimits(checks, what);
+  return { limited: limited ?? { retryAt: new Date(now.getTime() + 60_000), message: `Too many ${what}. Try again in 1 minute.` } };
+}
+
+export async function markAttemptSucceeded(ids: string[]): Promise<void> {
+  if (ids.length) await db().update(authAttempts).set({ succeeded: true }).where(inArray(authAttempts.id, ids));
 }
 
 export async function recordAttempt(checks: Array<[LimitRule, string]>, succeeded: boolean): Promise<void> {

@@ -1,11 +1,13 @@
 import "server-only";
+import { randomBytes } from "node:crypto";
 import { z } from "zod";
 import { consumeSignInLink, issueToken, peekToken } from "@/db/tokens";
-import { getUserByEmail, getUserById, markEmailVerified } from "@/db/users";
+import { claimAddress, getUserByEmail, getUserById } from "@/db/users";
 import { config } from "@/lib/config";
 import { safeCallbackPath } from "@/lib/http/safe-redirect";
 import { sendMail } from "@/lib/mail/send";
 import { appLink, signInLinkMail } from "@/lib/mail/templates";
+import { hashPassword } from "./password";
 import { checkLimits, rateLimitError, recordAttempt } from "./rate-limit";
 import { LIMITS, type LimitRule } from "@/lib/auth/rate-limit-rules";
 import type { Role } from "@/lib/auth/types";
@@ -73,7 +75,13 @@ export async function signInWithLink({ token }: { token: string }): Promise<Sign
   const user = await getUserById({ userId: row.userId });
   // Disabled between the two statements: refuse (its session would not pass getCurrentUser anyway).
   if (!user || user.status !== "active") return null;
-  if (!user.emailVerifiedAt) await markEmailVerified({ userId: user.id });
+  if (!user.emailVerifiedAt) {
+    // The address was never proved: whoever set the password may not own it (someone can sign
+    // up with another person's address first). The mailbox's owner, proving it now, takes the
+    // account over: the earlier password and every earlier session end.
+    const epoch = await claimAddress({ userId: user.id, passwordHash: await hashPassword(randomBytes(32).toString("base64url")) });
+    return { id: user.id, email: user.email, name: user.name, epoch };
+  }
   return { id: user.id, email: user.email, name: user.name, epoch: user.sessionEpoch };
 }
 

@@ -71,6 +71,8 @@ describe("sharing a part with a teacher", () => {
     await t.waitForURL(/\/sign-in\?/);
     expect(await t.getByLabel("E-mail").inputValue()).toBe(teacher.email);
     await signInThroughForm(t, teacher);
+    // Back on the invitation page: opening it accepted nothing; the button does (a POST).
+    await t.getByRole("button", { name: "Accept and open the part" }).click();
     await t.waitForURL(new RegExp(`/parts/${partId}`), { timeout: 30_000 });
     await waitForScore(t);
 

@@ -1,3 +1,4 @@
+import { waitForMail } from "./mailbox";
 import type { Page } from "playwright-core";
 import { APP_URL } from "./env";
 
@@ -12,6 +13,8 @@ export async function signInThroughForm(page: Page, email: string, password: str
 }
 
 export async function openMailLink(page: Page, to: string, subject: RegExp, path: string) {
+  // Account mail is sent after the action has answered: wait for it before opening the mailbox.
+  await waitForMail(to, subject);
   await page.goto(`${APP_URL}/dev/mail`);
   const message = page.locator("article").filter({ hasText: to }).filter({ has: page.getByRole("heading", { name: subject }) }).first();
   await message.getByRole("link", { name: new RegExp(`${path}\\?token=`) }).click();

@@ -45,16 +45,22 @@ describe("accounts", () => {
     expect(again.status).toBe(400);
   });
 
-  it("refuses a short or common password and a taken address at sign-up, naming the field", async () => {
+  it("refuses a short or common password at sign-up, naming the field, and answers a taken address like a new one", async () => {
     const anon = new ApiClient();
     const short = await callAction(anon, AUTH, "signUpAction", { name: "A", email: uniqueEmail(), password: "short", role: "player" });
     expect(short.status).toBe(400);
     expect(short.state?.fieldErrors?.password).toMatch(/at least 10/);
     const common = await callAction(anon, AUTH, "signUpAction", { name: "A", email: uniqueEmail(), password: "password123", role: "player" });
     expect(common.state?.fieldErrors?.password).toMatch(/common passwords/);
-    const taken = await callAction(anon, AUTH, "signUpAction", { name: "A", email: "PLAYER@demo.ondula.test", password: "wave-and-breath-2026", role: "player" });
-    expect(taken.status).toBe(409);
-    expect(taken.state?.fieldErrors?.email).toMatch(/already exists/);
+    // A taken address gets the same answer as a new one (ASVS 2.2.1 / 3.x: no account enumeration);
+    // its owner is told by mail instead, and nothing about the account changes.
+    const existing = await createUser();
+    const taken = await callAction(anon, AUTH, "signUpAction", { name: "A", email: existing.email.toUpperCase(), password: "wave-and-breath-2026", role: "player" });
+    expect(taken.status).toBe(303);
+    expect(taken.redirect).toContain("/sign-in?registered=1");
+    const notice = await waitForMail(existing.email, /tried to create an Ondula account/);
+    expect(notice.text).toContain("Nothing was changed");
+    await signIn(existing.email, existing.password);
     const admin = await callAction(anon, AUTH, "signUpAction", { name: "A", email: uniqueEmail(), password: "wave-and-breath-2026", role: "admin" });
     expect(admin.state?.fieldErrors?.role).toBeDefined();
   });

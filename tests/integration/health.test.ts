@@ -1,9 +1,17 @@
 import { describe, expect, it } from "vitest";
 import { APP_URL } from "../helpers/env";
+import { createSignedInUser } from "../helpers/session";
 
 describe("GET /api/health", () => {
-  it("reports the database reachable and migrated, and the mail server up", async () => {
+  it("tells an anonymous caller the status only", async () => {
     const res = await fetch(`${APP_URL}/api/health`);
+    expect(res.status).toBe(200);
+    expect(await res.json()).toEqual({ status: "ok" });
+  });
+
+  it("reports the database reachable and migrated, and the mail server up, to an administrator", async () => {
+    const { client } = await createSignedInUser({ role: "admin" });
+    const res = await client.fetch("/api/health");
     expect(res.status).toBe(200);
     const body = await res.json();
     expect(body.status).toBe("ok");

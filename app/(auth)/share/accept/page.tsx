@@ -1,11 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { SignOutButton } from "@/components/auth/sign-out-button";
+import { AcceptInvitationButton } from "@/components/sharing/accept-invitation-button";
 import { Notice, PageShell, Panel } from "@/components/ui/page-shell";
 import { getCurrentUser } from "@/server/auth/session";
-import { AppError } from "@/lib/errors";
-import { acceptInvitation, acceptPath, lookUpInvitation } from "@/server/sharing";
+import { acceptPath, lookUpInvitation } from "@/server/sharing";
 
 export const metadata: Metadata = { title: "Shared part" };
 export const dynamic = "force-dynamic";
@@ -15,10 +14,9 @@ type Search = Promise<Record<string, string | string[] | undefined>>;
 const linkClass = "text-accent-strong underline";
 
 /**
- * Opening an invitation link. Signed in with the invited address, the invitation is accepted and
- * the part opens; otherwise the page explains what to do and the link stays unused. Accepting
- * needs both the token (proof of the mailbox) and the session of that address, so a link
- * scanner that merely fetches the page cannot use it.
+ * Opening an invitation link. Signed in with the invited address, the page offers a button that
+ * accepts (a POST); otherwise it explains what to do. Opening the link (a GET) changes nothing,
+ * and accepting needs both the token (proof of the mailbox) and the session of that address.
  */
 export default async function AcceptSharePage({ searchParams }: { searchParams: Search }) {
   const sp = await searchParams;
@@ -76,14 +74,14 @@ export default async function AcceptSharePage({ searchParams }: { searchParams: 
     );
   }
 
-  let partId: string;
-  try {
-    ({ partId } = await acceptInvitation(token, user));
-  } catch (err) {
-    if (err instanceof AppError) return <Message title="Invitation not accepted">{err.message}</Message>;
-    throw err;
-  }
-  redirect(`/parts/${partId}?shared=1`);
+  return (
+    <PageShell title={`${who} shares ${title} with you`} lead={`The invitation is for ${email}.`}>
+      <Panel>
+        <p className="mb-4">Accept to open the part and see it in your library.</p>
+        <AcceptInvitationButton token={token} label="Accept and open the part" />
+      </Panel>
+    </PageShell>
+  );
 }
 
 function Message({ title, children }: { title: string; children: React.ReactNode }) {

@@ -12,6 +12,11 @@ export const GET = handle(async (_request, { params }) => {
   const user = await requireUser();
   const { part } = await loadPart(user, partId, "part:view");
   return new Response(selectPartsXml(part.musicxml, [part.chosenPartId]), {
-    headers: { "content-type": "application/vnd.recordare.musicxml+xml; charset=utf-8", "cache-control": "private, no-store" },
+    headers: {
+      "content-type": "application/vnd.recordare.musicxml+xml; charset=utf-8",
+      "cache-control": "private, no-store",
+      // Opened directly, it downloads instead of rendering as a document of our origin.
+      "content-disposition": `attachment; filename="part.musicxml"`,
+    },
   });
 });

@@ -1,0 +1,17 @@
+/**
+ * Runs once when the server starts: the configuration is checked at once, so a production server
+ * with a missing or development secret stops instead of serving.
+ */
+export async function register() {
+  if (process.env.NEXT_RUNTIME !== "nodejs") return;
+  const { config, ConfigError } = await import("@/lib/config");
+  try {
+    config();
+  } catch (error) {
+    if (error instanceof ConfigError) {
+      console.error(error.message);
+      process.exit(1);
+    }
+    throw error;
+  }
+}
