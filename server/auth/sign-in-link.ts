@@ -7,7 +7,7 @@ import { config } from "@/lib/config";
 import { safeCallbackPath } from "@/lib/http/safe-redirect";
 import { sendMail } from "@/lib/mail/send";
 import { appLink, signInLinkMail } from "@/lib/mail/templates";
-import { hashPassword } from "./password";
+import { hashPassword } from "@/lib/auth/password";
 import { checkLimits, rateLimitError, recordAttempt } from "./rate-limit";
 import { LIMITS, type LimitRule } from "@/lib/auth/rate-limit-rules";
 import type { Role } from "@/lib/auth/types";
