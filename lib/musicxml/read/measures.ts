@@ -1,0 +1,177 @@
+import { fail } from "../errors";
+import { add, cmp, frac, mul, parseDecimal, toString as fracString, ZERO } from "../fraction";
+import type { Fraction, KeySignature, Measure, Note } from "../model";
+import { TieChains } from "./notes";
+import { VoiceClock } from "./voices";
+
+/**
+ * Step 2 of the reader: measures and attributes. A part's measures in written order, each with
+ * the divisions, key and time signature in force (MusicXML 4.0, `attributes`), and its content
+ * length checked against its time signature when it closes.
+ */
+
+/** A measure may hold up to this multiple of its time signature before its durations count as damaged. */
+const OVERFLOW_FACTOR = 2;
+/** Largest `divisions` accepted: far above real files (which stay under ~100 000), far below overflow. */
+const MAX_DIVISIONS = 1_000_000;
+export const DEFAULT_TEMPO = 120;
+
+export interface PartState {
+  id: string;
+  measures: Measure[];
+  notes: Note[];
+  /** Content length actually reached, per measure index (max position over all voices). */
+  reached: Fraction[];
+  key: KeySignature;
+  time: { beats: number; beatType: number } | null;
+  timeLength: Fraction | null;
+  measure: Measure | null;
+  clock: VoiceClock;
+  ties: TieChains;
+  pendingDynamics: string | null;
+  /** Source slices of this part's measures, for the normalized text. */
+  out: string[];
+}
+
+export function newPartState(id: string): PartState {
+  return {
+    id,
+    measures: [],
+    notes: [],
+    reached: [],
+    key: { fifths: 0, mode: null },
+    time: null,
+    timeLength: null,
+    measure: null,
+    clock: new VoiceClock(),
+    ties: new TieChains(),
+    pendingDynamics: null,
+    out: [],
+  };
+}
+
+export function startMeasure(p: PartState, attrs: Record<string, string>): void {
+  const d = p.clock.divisions;
+  const m: Measure = {
+    index: p.measures.length,
+    number: attrs.number ?? String(p.measures.length + 1),
+    divisions: d.num / d.den,
+    key: p.key,
+    keyChanged: false,
+    time: p.time,
+    timeChanged: false,
+    tempo: DEFAULT_TEMPO,
+    length: p.timeLength ?? ZERO,
+    barlineRight: "regular",
+    barlineLeft: "regular",
+    startSeconds: 0,
+  };
+  p.measures.push(m);
+  p.measure = m;
+  p.clock.startMeasure();
+}
+
+export function endMeasure(p: PartState): void {
+  const m = p.measure;
+  if (!m) return;
+  const reached = p.clock.maxPos;
+  if (p.timeLength && p.timeLength.num > 0 && cmp(reached, mul(p.timeLength, { num: OVERFLOW_FACTOR, den: 1 })) > 0) {
+    throw fail.measureOverflow(m.number, fracString(reached), `${m.time?.beats}/${m.time?.beatType}`);
+  }
+  if (!p.timeLength) m.length = reached;
+  p.reached[m.index] = reached;
+  p.measure = null;
+}
+
+/**
+ * The `attributes` children of one measure: divisions, key (the first key of a part; `number`
+ * picks a staff's own key) and time (summed for additive signatures, absent for senza misura).
+ */
+export class AttributesReader {
+  private keyApplies = true;
+  private keyFifths: number | null = null;
+  private keyMode: string | null = null;
+  private timeBeats = 0;
+  private timeBeatType = 0;
+  private timeLen: Fraction = ZERO;
+  private timeSenza = false;
+
+  constructor(private readonly remarks: Set<string>) {}
+
+  open(name: string, attrs: Record<string, string>): void {
+    if (name === "key") {
+      this.keyApplies = !attrs.number || attrs.number === "1";
+      this.keyFifths = null;
+      this.keyMode = null;
+    } else if (name === "time" && (!attrs.number || attrs.number === "1")) {
+      this.timeBeats = 0;
+      this.timeBeatType = 0;
+      this.timeLen = ZERO;
+      this.timeSenza = false;
+    }
+  }
+
+  close(p: PartState | null, name: string, text: string, parent: string): void {
+    switch (name) {
+      case "divisions": {
+        if (!p || parent !== "attributes") return;
+        const d = parseDecimal(text);
+        if (!d || d.num <= 0 || d.num / d.den > MAX_DIVISIONS) throw fail.divisions(p.measure?.number ?? "?", text.trim());
+        p.clock.divisions = d;
+        if (p.measure && p.clock.pos.num === 0) p.measure.divisions = d.num / d.den;
+        return;
+      }
+      case "fifths":
+        if (parent === "key") this.keyFifths = parseInt(text, 10);
+        return;
+      case "mode":
+        if (parent === "key") this.keyMode = text.trim() || null;
+        return;
+      case "key":
+        if (p?.measure && this.keyApplies && this.keyFifths !== null && Number.isFinite(this.keyFifths)) {
+          p.key = { fifths: this.keyFifths, mode: this.keyMode === "none" ? null : this.keyMode };
+          p.measure.key = p.key;
+          p.measure.keyChanged = true;
+        }
+        return;
+      case "beats":
+        // Composite beats like "3+2" add up.
+        if (parent === "time") this.timeBeats = text.split("+").reduce((s, x) => s + (parseInt(x, 10) || 0), 0);
+        return;
+      case "beat-type":
+        if (parent === "time") {
+          this.timeBeatType = parseInt(text, 10) || 0;
+          if (this.timeBeats > 0 && this.timeBeatType > 0) this.timeLen = add(this.timeLen, frac(this.timeBeats, this.timeBeatType));
+        }
+        return;
+      case "senza-misura":
+        this.timeSenza = true;
+        return;
+      case "time":
+        if (p?.measure && parent === "attributes") {
+          if (this.timeSenza || this.timeLen.num === 0) {
+            p.time = null;
+            p.timeLength = null;
+          } else {
+            // Additive signatures (2/4 + 3/8) keep the last pair's beat type with the summed length.
+            p.time = { beats: (this.timeLen.num * this.timeBeatType) / this.timeLen.den, beatType: this.timeBeatType };
+            p.timeLength = this.timeLen;
+          }
+          p.measure.time = p.time;
+          p.measure.timeChanged = true;
+          p.measure.length = p.timeLength ?? ZERO;
+        }
+        return;
+      case "chromatic":
+        if (p && parent === "transpose") {
+          const c = Number(text);
+          if (c) {
+            this.remarks.add(
+              `Part ${p.id} is written for a transposing instrument (it sounds ${Math.abs(c)} semitone${Math.abs(c) === 1 ? "" : "s"} ${c < 0 ? "lower" : "higher"} than written); pitches and keys are reported as written.`,
+            );
+          }
+        }
+        return;
+    }
+  }
+}
