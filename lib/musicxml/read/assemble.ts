@@ -1,6 +1,7 @@
 import { cmp } from "../fraction";
 import type { Note, PartModel, ScoreModel } from "../model";
 import { buildTimeline, type TempoEvent } from "../timeline";
+import { barLengthNotices } from "./bar-lengths";
 import type { HeaderReader } from "./header";
 import { DEFAULT_TEMPO, type PartState } from "./measures";
 
@@ -51,7 +52,13 @@ export function buildModels(states: PartState[], header: HeaderReader, tempoEven
     }
     return { id: p.id, name: header.partNames.get(p.id) ?? p.id, measures: p.measures, notes: p.notes };
   });
-  return { title: header.title || header.movementTitle, composer: header.composer, parts, remarks: [...remarks] };
+  return {
+    title: header.title || header.movementTitle,
+    composer: header.composer,
+    parts,
+    remarks: [...remarks],
+    notices: barLengthNotices(states),
+  };
 }
 
 const ESC_ATTR = /[&<>"\n\r\t]/;

@@ -1,5 +1,5 @@
 import { fail } from "../errors";
-import { add, cmp, frac, mul, parseDecimal, toString as fracString, ZERO } from "../fraction";
+import { add, frac, parseDecimal, ZERO } from "../fraction";
 import type { Fraction, KeySignature, Measure, Note } from "../model";
 import { TieChains } from "./notes";
 import { VoiceClock } from "./voices";
@@ -7,11 +7,10 @@ import { VoiceClock } from "./voices";
 /**
  * Step 2 of the reader: measures and attributes. A part's measures in written order, each with
  * the divisions, key and time signature in force (MusicXML 4.0, `attributes`), and its content
- * length checked against its time signature when it closes.
+ * content length when it closes. A bar longer or shorter than its time signature (a cadenza, an
+ * unmeasured bar, a wrong signature) is read as written; the model step names it (bar-lengths.ts).
  */
 
-/** A measure may hold up to this multiple of its time signature before its durations count as damaged. */
-const OVERFLOW_FACTOR = 2;
 /** Largest `divisions` accepted: far above real files (which stay under ~100 000), far below overflow. */
 const MAX_DIVISIONS = 1_000_000;
 export const DEFAULT_TEMPO = 120;
@@ -26,6 +25,8 @@ export interface PartState {
   time: { beats: number; beatType: number } | null;
   timeLength: Fraction | null;
   measure: Measure | null;
+  /** Indices of measures marked `implicit="yes"` (a pickup, or a bar split by a repeat). */
+  implicit: Set<number>;
   clock: VoiceClock;
   ties: TieChains;
   pendingDynamics: string | null;
@@ -43,6 +44,7 @@ export function newPartState(id: string): PartState {
     time: null,
     timeLength: null,
     measure: null,
+    implicit: new Set(),
     clock: new VoiceClock(),
     ties: new TieChains(),
     pendingDynamics: null,
@@ -68,6 +70,7 @@ export function startMeasure(p: PartState, attrs: Record<string, string>): void 
   };
   p.measures.push(m);
   p.measure = m;
+  if (attrs.implicit === "yes") p.implicit.add(m.index);
   p.clock.startMeasure();
 }
 
@@ -75,9 +78,6 @@ export function endMeasure(p: PartState): void {
   const m = p.measure;
   if (!m) return;
   const reached = p.clock.maxPos;
-  if (p.timeLength && p.timeLength.num > 0 && cmp(reached, mul(p.timeLength, { num: OVERFLOW_FACTOR, den: 1 })) > 0) {
-    throw fail.measureOverflow(m.number, fracString(reached), `${m.time?.beats}/${m.time?.beatType}`);
-  }
   if (!p.timeLength) m.length = reached;
   p.reached[m.index] = reached;
   p.measure = null;
