@@ -64,6 +64,8 @@ const STEP: Record<string, Step> = Object.assign(Object.create(null), {
   "beat-type": Step.Attributes,
   "senza-misura": Step.Attributes,
   chromatic: Step.Attributes,
+  "octave-change": Step.Attributes,
+  transpose: Step.Attributes,
   direction: Step.Directions,
   metronome: Step.Directions,
   "beat-unit": Step.Directions,

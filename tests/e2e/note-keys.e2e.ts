@@ -148,7 +148,7 @@ describe("note keys on the real corpus: server and browser agree", () => {
     page = await context.newPage();
     const response = await page.goto(`${APP_URL}/dev/note-keys`);
     expect(response?.status()).toBe(200);
-    await page.waitForSelector('[data-ready="true"]', { timeout: 60_000 });
+    await page.waitForSelector('[data-ready="true"]', { state: "attached", timeout: 60_000 });
   });
   afterAll(async () => {
     const agree = [...results.values()].filter(Boolean).length;

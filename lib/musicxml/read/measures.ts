@@ -95,6 +95,8 @@ export class AttributesReader {
   private timeBeatType = 0;
   private timeLen: Fraction = ZERO;
   private timeSenza = false;
+  private chromatic = 0;
+  private octaveChange = 0;
 
   constructor(private readonly remarks: Set<string>) {}
 
@@ -103,6 +105,9 @@ export class AttributesReader {
       this.keyApplies = !attrs.number || attrs.number === "1";
       this.keyFifths = null;
       this.keyMode = null;
+    } else if (name === "transpose") {
+      this.chromatic = 0;
+      this.octaveChange = 0;
     } else if (name === "time" && (!attrs.number || attrs.number === "1")) {
       this.timeBeats = 0;
       this.timeBeatType = 0;
@@ -163,15 +168,23 @@ export class AttributesReader {
         }
         return;
       case "chromatic":
-        if (p && parent === "transpose") {
-          const c = Number(text);
-          if (c) {
-            this.remarks.add(
-              `Part ${p.id} is written for a transposing instrument (it sounds ${Math.abs(c)} semitone${Math.abs(c) === 1 ? "" : "s"} ${c < 0 ? "lower" : "higher"} than written); pitches and keys are reported as written.`,
-            );
-          }
-        }
+        if (parent === "transpose") this.chromatic = Number(text) || 0;
         return;
+      case "octave-change":
+        if (parent === "transpose") this.octaveChange = parseInt(text, 10) || 0;
+        return;
+      case "transpose": {
+        // Sounding = written + chromatic + 12 × octave-change (MusicXML 4.0, transpose).
+        const c = this.chromatic + 12 * this.octaveChange;
+        if (p && c) this.remarks.add(`Part ${p.id} is written for a transposing instrument (it sounds ${interval(c)} ${c < 0 ? "lower" : "higher"} than written); pitches and keys are reported as written.`);
+        return;
+      }
     }
   }
+}
+
+function interval(semitones: number): string {
+  const n = Math.abs(semitones);
+  if (n % 12 === 0) return n === 12 ? "an octave" : `${n / 12} octaves`;
+  return `${n} semitone${n === 1 ? "" : "s"}`;
 }
