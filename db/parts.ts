@@ -27,6 +27,7 @@ const partSummaryColumns = {
   noteCount: parts.noteCount,
   sourceFileName: parts.sourceFileName,
   sourceFormat: parts.sourceFormat,
+  readNotices: parts.readNotices,
   sizeBytes: parts.sizeBytes,
   partList: parts.partList,
   chosenPartId: parts.chosenPartId,
@@ -71,6 +72,7 @@ export function newPartValues(o: { ownerId: string; fileName: string; bytes: Uin
     chosenPartId: ingested.chosenPartId,
     analysis: ingested.analysis,
     analysisVersion: ingested.analysisVersion,
+    readNotices: ingested.notices,
     ...ingested.summary,
   };
 }
@@ -172,6 +174,7 @@ export async function listPartsForViewer({
       isOwner: r.ownerId === viewerId,
       permission: r.ownerId === viewerId ? "owner" : ((r.viewerShare as PartPermission | null) ?? "comment"),
       sourceFileName: r.sourceFileName,
+      notices: r.readNotices,
       updatedAt: r.updatedAt.toISOString(),
     })),
   };

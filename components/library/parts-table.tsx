@@ -1,6 +1,7 @@
 "use client";
 
 import Link from "next/link";
+import { describeNotices } from "@/lib/musicxml/read/bar-lengths";
 import { useEffect, useState } from "react";
 import { PartUnreadBadge } from "@/components/sharing/unread-badge";
 import { usePartList, useDeletePart, useRenamePart, type ListedPart } from "./api";
@@ -146,6 +147,11 @@ function PartRow({ part }: { part: ListedPart }) {
         )}
         <PartUnreadBadge partId={part.id} />
         {rename.isError && <p role="alert" className="text-xs text-danger">{rename.error.message}</p>}
+        {part.notices.length > 0 && (
+          <p className="max-w-md text-xs text-graphite" data-testid="read-notices">
+            {describeNotices(part.notices)}
+          </p>
+        )}
         {!part.isOwner && <p className="text-xs text-graphite">Shared by {part.ownerName} · you may {part.permission === "propose" ? "comment and propose" : "comment"}</p>}
       </td>
       <td className="px-3 py-2">{part.composer || <span className="text-graphite">—</span>}</td>

@@ -27,12 +27,15 @@ export function DevModelKeys() {
       if (cancelled || !el) return;
       const osmd = new OpenSheetMusicDisplay(el, { backend: "svg", autoResize: false, drawTitle: false });
       window.__ondulaModelKeys = async (xml: string) => {
+        const before = osmd.Sheet;
         try {
           await osmd.load(xml);
-          return { keys: sheetNoteKeys(osmd.Sheet) };
         } catch (err) {
-          return { error: err instanceof Error ? err.message : String(err) };
+          // The library reads the whole model before it prepares the drawing; a file it cannot
+          // draw still has its model read (drawing it is the engraving's concern, not the keys').
+          if (!osmd.Sheet || osmd.Sheet === before) return { error: err instanceof Error ? err.message : String(err) };
         }
+        return { keys: sheetNoteKeys(osmd.Sheet) };
       };
       setReady(true);
     })();

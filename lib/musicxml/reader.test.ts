@@ -158,6 +158,18 @@ describe("element semantics (MusicXML 4.0)", () => {
     expect(notes[1].isGrace && notes[1].duration.num === 0).toBe(true);
   });
 
+  it("grace notes after a bar's last note are keyed at that note, numbered on after its own grace notes", () => {
+    // One grace note leads into the half note at 1/2; two more follow it before the barline
+    // (a trill's closing notes). Convention: DEVELOPERS.md, "Note keys".
+    const m = attrs(1, 0, 4, 4) + note("C", 5, 2) + note("B", 4, 0, { grace: true }) + note("D", 5, 2) + note("C", 5, 0, { grace: true }) + note("D", 5, 0, { grace: true });
+    const notes = read(partwise([m, note("E", 5, 4)])).score.parts[0].notes;
+    expect(notes.filter((n) => n.isGrace).map((n) => [n.key, f(n)])).toEqual([
+      ["P1:m0:s1:v1:1/2:71:g1", "1/2"],
+      ["P1:m0:s1:v1:1/2:72:g2", "1/1"],
+      ["P1:m0:s1:v1:1/2:74:g3", "1/1"],
+    ]);
+  });
+
   it("keeps staves and voices apart in keys, and lists notes in time order", () => {
     const m =
       "<attributes><divisions>1</divisions><staves>2</staves><time><beats>2</beats><beat-type>4</beat-type></time></attributes>" +

@@ -7,6 +7,7 @@ import { DirectionsReader } from "./read/directions";
 import { HeaderReader } from "./read/header";
 import { AttributesReader, endMeasure, newPartState, startMeasure, type PartState } from "./read/measures";
 import { closeInNote, finishNote, newDraft, openInNote, type NoteDraft } from "./read/notes";
+import { SiteCollector, type SiteOptions, type SiteScan } from "./read/sites";
 import { Tokens, type TokenSink } from "./read/tokens";
 
 /**
@@ -90,6 +91,15 @@ const STEP: Record<string, Step> = Object.assign(Object.create(null), {
 export interface ReadResult {
   score: ScoreModel;
   partwiseXml: string;
+  /** Present when asked for with `sites`: where each note sits in the text read. */
+  sites?: SiteScan;
+}
+
+export interface ReadOptions {
+  /** Collect note sites and the elements an earlier export wrote (see read/sites.ts). */
+  sites?: SiteOptions;
+  /** Leave the elements an earlier export wrote out of the normalized text (needs `sites`). */
+  dropOwn?: boolean;
 }
 
 class ScoreReader implements TokenSink {
@@ -111,6 +121,8 @@ class ScoreReader implements TokenSink {
   constructor(
     private readonly tokens: Tokens,
     private readonly limits: ReadLimits,
+    readonly sites: SiteCollector | null,
+    private readonly dropOwn: boolean,
   ) {}
 
   private partState(id: string): PartState {
@@ -123,7 +135,13 @@ class ScoreReader implements TokenSink {
   }
 
   open(name: string, attrs: Record<string, string>, depth: number, parent: string, selfClosing: boolean): void {
-    const { tokens } = this;
+    const { tokens, sites } = this;
+    if (sites) {
+      const at = tokens.tagStart();
+      sites.open(attrs.id, depth, at);
+      if (name === "note" && depth === CONTENT_DEPTH) sites.noteOpen(at);
+      else if (depth === CONTENT_DEPTH + 1 && this.note && parent === "note") sites.noteChildOpen(name, at);
+    }
     if (depth === 1) {
       if (name === "score-partwise") this.layout = "partwise";
       else if (name === "score-timewise") this.layout = "timewise";
@@ -178,7 +196,16 @@ class ScoreReader implements TokenSink {
   }
 
   close(name: string, text: string, depth: number, parent: string): void {
-    const { tokens } = this;
+    const { tokens, sites } = this;
+    if (sites && depth > 3) {
+      if (name === "other-notation" && this.note) sites.carrier(text);
+      const own = sites.close(depth, tokens.position);
+      if (own && this.dropOwn && this.part && this.sliceStart >= 0) {
+        // Splice the element out of the normalized text: keep what came before, resume after it.
+        this.part.out.push(tokens.source.slice(this.sliceStart, own[0]));
+        this.sliceStart = own[1];
+      }
+    }
     if (depth === 2) {
       // A child of the root closes: a header element, a partwise part, or a timewise measure.
       if (this.layout === "partwise" && name === "part") this.part = null;
@@ -203,8 +230,11 @@ class ScoreReader implements TokenSink {
     if (name === "note") {
       if (depth !== CONTENT_DEPTH) return;
       if (this.note && p?.measure) {
-        const out = finishNote(p, p.measure, this.note);
+        const n = this.note;
+        const closeAt = sites ? tokens.tagStart() : 0;
+        const out = finishNote(p, p.measure, n);
         if (out) p.notes.push(out);
+        sites?.noteClose(closeAt, n.chord, n.grace, n.staff, n.voice, out, out ? null : p.ties.lastContinued);
       }
       this.note = null;
       return;
@@ -247,11 +277,12 @@ class ScoreReader implements TokenSink {
   }
 }
 
-export function readMusicXmlText(source: string, limits: ReadLimits): ReadResult {
+export function readMusicXmlText(source: string, limits: ReadLimits, options: ReadOptions = {}): ReadResult {
   checkLooksLikeXml(source);
   checkProlog(source);
   const tokens = new Tokens(source, limits.maxDepth);
-  const reader = new ScoreReader(tokens, limits);
+  const sites = options.sites ? new SiteCollector(options.sites) : null;
+  const reader = new ScoreReader(tokens, limits, sites, !!options.dropOwn);
   tokens.run(reader);
 
   const states = orderParts(reader.parts, reader.header.partListOrder);
@@ -259,5 +290,6 @@ export function readMusicXmlText(source: string, limits: ReadLimits): ReadResult
   return {
     score: buildModels(states, reader.header, reader.directions.tempoEvents, reader.remarks),
     partwiseXml: partwiseText(reader.rootAttrs, reader.head, states),
+    ...(sites ? { sites: sites.result() } : {}),
   };
 }

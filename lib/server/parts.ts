@@ -9,7 +9,6 @@ import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { readScoreFile } from "@/lib/musicxml";
 import { ingestScore, type IngestedScore } from "@/lib/parts/ingest";
-import { extractMarkingsWithReport, stripMarkings } from "@/lib/export/musicxml-markings";
 import { getPartAccessById, insertPart, newPartValues, storeAnalysisById, type PartAccess } from "@/db/parts";
 import { writeMarking } from "@/db/markings";
 import type { Part } from "@/db/schema";
@@ -81,12 +80,11 @@ const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
  * written by the uploader as one history step, so importing an export recovers every marking.
  */
 export async function createPartFromFile(user: CurrentUser, fileName: string, bytes: Uint8Array): Promise<CreatedPart> {
+  // One read: the model, the markings an Ondula export carried, and the stored text without the
+  // elements Ondula wrote (the uploaded bytes stay as they were).
   const ingested = ingestScore(bytes, fileName, readLimits());
-  const { markings, problems } = extractMarkingsWithReport(ingested.partwiseXml);
-  // The markings live in the database from now on; their printed copies would go stale on the
-  // engraving, so the stored text is the file without them (the uploaded bytes stay as they were).
-  const hasRecords = markings.size > 0 || problems.length > 0;
-  const part = await insertPartFrom(user, fileName, bytes, hasRecords ? { ...ingested, partwiseXml: stripMarkings(ingested.partwiseXml) } : ingested);
+  const { markings, problems } = ingested.ownMarkings;
+  const part = await insertPartFrom(user, fileName, bytes, ingested);
   const known = new Set(ingested.summary.noteKeys);
   const groupId = randomUUID();
   let importedMarkings = 0;

@@ -116,11 +116,13 @@ describe("our own files (tests/fixtures/real/ours)", () => {
     expect(new Set(notes.filter((n) => n.measureIndex === 2).map((n) => n.voice))).toEqual(new Set(["1"]));
   });
 
-  it("a trill's closing grace notes and grace notes at a bar's end are keyed by the position where they are written", () => {
-    const k = keys(ours("trill-closing-graces.musicxml").parts[0].notes);
-    expect(k).toEqual(
-      expect.arrayContaining(["P1:m1:s1:v1:1/2:72:g1", "P1:m1:s1:v1:1/2:74:g2", "P1:m1:s1:v1:1/2:76", "P1:m2:s1:v1:1/1:79:g1", "P1:m2:s1:v1:1/1:81:g2", "P1:m3:s1:v1:0/1:71:g1"]),
+  it("a trill's closing grace notes lead into the next note; grace notes at a bar's end are keyed at the note they follow", () => {
+    const notes = ours("trill-closing-graces.musicxml").parts[0].notes;
+    expect(keys(notes)).toEqual(
+      expect.arrayContaining(["P1:m1:s1:v1:1/2:72:g1", "P1:m1:s1:v1:1/2:74:g2", "P1:m1:s1:v1:1/2:76", "P1:m2:s1:v1:1/2:79:g1", "P1:m2:s1:v1:1/2:81:g2", "P1:m3:s1:v1:0/1:71:g1"]),
     );
+    // Their onset stays where they are written, at the barline: time order is unchanged.
+    expect(notes.find((n) => n.key === "P1:m2:s1:v1:1/2:79:g1")!.onset).toEqual({ num: 1, den: 1 });
   });
 
   it("cue notes are read and flagged as cues", () => {

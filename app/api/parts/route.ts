@@ -22,7 +22,7 @@ export const POST = handle(async (request) => {
   const { fileName, bytes } = await receiveFile(request, { field: "file", maxBytes: config().UPLOAD_MAX_BYTES });
   const { part, importedMarkings, unreadableMarkings } = await createPartFromFile(user, fileName, bytes);
   return Response.json(
-    { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId, importedMarkings, unreadableMarkings },
+    { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId, importedMarkings, unreadableMarkings, notices: part.readNotices },
     { status: 201 },
   );
 });

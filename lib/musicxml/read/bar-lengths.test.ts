@@ -31,7 +31,7 @@ describe("bar lengths", () => {
   });
 
   it("sums many notices up in one sentence, naming the first five", () => {
-    const many = Array.from({ length: 7 }, (_, i) => ({ message: `bar ${i + 1} lasts 5 beats in 4/4 — read as written` }));
+    const many = Array.from({ length: 7 }, (_, i) => `bar ${i + 1} lasts 5 beats in 4/4 — read as written`);
     expect(describeNotices(many)).toBe(
       "Bar 1 lasts 5 beats in 4/4 — read as written; bar 2 lasts 5 beats in 4/4 — read as written; bar 3 lasts 5 beats in 4/4 — read as written; bar 4 lasts 5 beats in 4/4 — read as written; bar 5 lasts 5 beats in 4/4 — read as written; and 2 more bars read as written.",
     );

@@ -64,10 +64,10 @@ export function barLengthNotices(parts: PartBars[]): ReadNotice[] {
 const NAMED = 5;
 
 /** The notices as one sentence for an upload answer or a library entry, or null when there are none. */
-export function describeNotices(notices: Array<Pick<ReadNotice, "message">>): string | null {
-  if (notices.length === 0) return null;
-  const named = notices.slice(0, NAMED).map((n) => n.message);
-  const more = notices.length - named.length;
+export function describeNotices(messages: readonly string[]): string | null {
+  if (messages.length === 0) return null;
+  const named = messages.slice(0, NAMED);
+  const more = messages.length - named.length;
   const text = named.join("; ") + (more > 0 ? `; and ${more} more bar${more === 1 ? "" : "s"} read as written` : "");
   return text.charAt(0).toUpperCase() + text.slice(1) + ".";
 }

@@ -1,7 +1,7 @@
 import { fail } from "../errors";
 import { add, frac, parseDecimal, ZERO } from "../fraction";
 import type { Fraction, KeySignature, Measure, Note } from "../model";
-import { TieChains } from "./notes";
+import { keyTrailingGraces, TieChains } from "./notes";
 import { VoiceClock } from "./voices";
 
 /**
@@ -78,6 +78,7 @@ export function endMeasure(p: PartState): void {
   const m = p.measure;
   if (!m) return;
   const reached = p.clock.maxPos;
+  keyTrailingGraces(p.id, m, p.clock);
   if (!p.timeLength) m.length = reached;
   p.reached[m.index] = reached;
   p.measure = null;

@@ -128,6 +128,8 @@ function mergeMarks(into: PhraseMarks, from: PhraseMarks) {
 export class TieChains {
   private open: Note[] = [];
   lastSounding: Note | null = null;
+  /** The chain the last tie continuation joined. */
+  lastContinued: Note | null = null;
 
   /** The open chain this continuation belongs to: same pitch, voice and staff, else same pitch. */
   find(midi: number, voice: string, staff: number): number {
@@ -171,6 +173,7 @@ export function finishNote(ctx: NotePart, m: Measure, n: NoteDraft): Note | null
   const pitch = !n.rest && isStep(n.step) && n.octave !== null ? makePitch(n.step, n.unpitched ? 0 : n.alter, n.octave) : null;
 
   if (pitch && n.tieStop && !n.grace) {
+    clock.mainNote(n.staff, n.voice, onset);
     // A tie continuation: the chain is one sounding note, keyed by its first note.
     const i = ties.find(pitch.midi, n.voice, n.staff);
     if (i >= 0) {
@@ -178,12 +181,14 @@ export function finishNote(ctx: NotePart, m: Measure, n: NoteDraft): Note | null
       head.duration = add(head.duration, dur);
       mergeMarks(head.marks, n.marks);
       head.tied = true;
+      ties.lastContinued = head;
       if (!n.tieStart) ties.close(i);
       if (!n.chord) ties.lastSounding = head;
       return null;
     }
   }
 
+  if (!n.grace) clock.mainNote(n.staff, n.voice, onset);
   const graceIndex = n.grace ? clock.graceIndex(n.staff, n.voice, onset, n.chord) : 0;
   if (pitch && !n.chord && ctx.pendingDynamics) {
     n.marks.dynamics ??= ctx.pendingDynamics;
@@ -209,9 +214,21 @@ export function finishNote(ctx: NotePart, m: Measure, n: NoteDraft): Note | null
     tied: false,
     marks: n.marks,
   };
+  if (n.grace && pitch) clock.graceNote(out);
   if (pitch) {
     if (n.tieStart && !n.grace) ties.start(out);
     if (!n.chord && !n.grace) ties.lastSounding = out;
   }
   return out;
+}
+
+/**
+ * Keys the measure's trailing grace notes (see VoiceClock.trailingGraces) at the note they
+ * follow. Their onset stays where they are written: time order and seconds are unchanged.
+ */
+export function keyTrailingGraces(partId: string, m: Measure, clock: VoiceClock): void {
+  for (const { note, after } of clock.trailingGraces()) {
+    note.graceIndex = clock.graceIndex(note.staff, note.voice, after, note.isChord);
+    note.key = noteKey({ partId, measureIndex: m.index, staff: note.staff, voice: note.voice, onset: after, midi: note.pitch!.midi, graceIndex: note.graceIndex });
+  }
 }

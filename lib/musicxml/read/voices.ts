@@ -1,5 +1,5 @@
 import { add, cmp, mul, ZERO } from "../fraction";
-import type { Fraction } from "../model";
+import type { Fraction, Note } from "../model";
 
 /**
  * Step 3 of the reader: voices and time. Where each note of a measure starts, as an exact
@@ -17,12 +17,45 @@ export class VoiceClock {
   divisions: Fraction = { num: 1, den: 1 };
   private graceCounts = new Map<string, number>();
   private lastGraceIndex = 0;
+  /** Per staff and voice: onset of the voice's last note (not grace) in the measure. */
+  private lastMain = new Map<string, Fraction>();
+  /** Per staff and voice: grace notes no note of the voice has followed yet in the measure. */
+  private trailing = new Map<string, Note[]>();
 
   startMeasure(): void {
     this.pos = ZERO;
     this.maxPos = ZERO;
     this.lastOnset = ZERO;
     this.graceCounts.clear();
+    this.lastMain.clear();
+    this.trailing.clear();
+  }
+
+  /** A note (rest, chord tone and tie continuation included) of a voice: its grace notes lead into it. */
+  mainNote(staff: number, voice: string, onset: Fraction): void {
+    const slot = `${staff}|${voice}`;
+    this.lastMain.set(slot, onset);
+    this.trailing.delete(slot);
+  }
+
+  graceNote(note: Note): void {
+    const slot = `${note.staff}|${note.voice}`;
+    const list = this.trailing.get(slot);
+    if (list) list.push(note);
+    else this.trailing.set(slot, [note]);
+  }
+
+  /**
+   * At the end of a measure, the grace notes that no note of their voice followed (a trill's
+   * closing notes before the barline, a grace note at the end of a bar) and the onset of the
+   * voice's note they follow. The convention: they are keyed at that note, numbered on after the
+   * grace notes leading into it (DEVELOPERS.md, "Note keys").
+   */
+  *trailingGraces(): Generator<{ note: Note; after: Fraction }> {
+    for (const [slot, notes] of this.trailing) {
+      const after = this.lastMain.get(slot);
+      if (after) for (const note of notes) yield { note, after };
+    }
   }
 
   /** A duration in divisions, in whole notes: duration / (4 × divisions). */
