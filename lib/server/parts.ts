@@ -10,7 +10,7 @@ import { AppError } from "@/lib/errors";
 import { readScoreFile } from "@/lib/musicxml";
 import { ingestScore, type IngestedScore } from "@/lib/parts/ingest";
 import { getPartAccessById, insertPart, newPartValues, storeAnalysisById, type PartAccess } from "@/db/parts";
-import { writeMarking } from "@/db/markings";
+import type { MarkingValues } from "@/lib/markings/schema";
 import type { Part } from "@/db/schema";
 import { randomUUID } from "node:crypto";
 
@@ -84,23 +84,26 @@ export async function createPartFromFile(user: CurrentUser, fileName: string, by
   // elements Ondula wrote (the uploaded bytes stay as they were).
   const ingested = ingestScore(bytes, fileName, readLimits());
   const { markings, problems } = ingested.ownMarkings;
-  const part = await insertPartFrom(user, fileName, bytes, ingested);
+  // Only markings on the chosen part's notes; they are written in the part's own transaction.
   const known = new Set(ingested.summary.noteKeys);
-  const groupId = randomUUID();
-  let importedMarkings = 0;
-  for (const [noteKey, values] of markings) {
-    if (!known.has(noteKey)) continue;
-    const result = await writeMarking({ partId: part.id, noteKey, values, expectedVersion: undefined, actorId: user.id, groupId });
-    if (result.ok) importedMarkings += 1;
-  }
+  const withMarkings = [...markings].filter(([noteKey]) => known.has(noteKey)).map(([noteKey, values]) => ({ noteKey, values }));
+  const { part, importedMarkings } = await insertPartFrom(user, fileName, bytes, ingested, withMarkings);
   return { part, importedMarkings, unreadableMarkings: problems };
 }
 
-function insertPartFrom(user: CurrentUser, fileName: string, bytes: Uint8Array, ingested: IngestedScore): Promise<Part> {
+function insertPartFrom(
+  user: CurrentUser,
+  fileName: string,
+  bytes: Uint8Array,
+  ingested: IngestedScore,
+  withMarkings: Array<{ noteKey: string; values: MarkingValues }>,
+) {
   const c = config();
   return insertPart({
     quota: { maxParts: c.QUOTA_PARTS, maxBytes: c.QUOTA_BYTES },
     values: newPartValues({ ownerId: user.id, fileName, bytes, ingested }),
+    withMarkings,
+    groupId: randomUUID(),
   });
 }
 
