@@ -137,6 +137,34 @@ export async function writeMarking(o: {
   });
 }
 
+/**
+ * The markings a new part brings with it (read back from an Ondula export), written inside the
+ * transaction that stores the part, as one history step of the uploader: the part never exists
+ * without them. Returns how many were written.
+ */
+export async function insertImportedMarkings(
+  tx: Tx,
+  o: { partId: string; actorId: string; groupId: string; markings: ReadonlyArray<{ noteKey: string; values: MarkingValues }> },
+): Promise<number> {
+  let written = 0;
+  for (const { noteKey, values } of o.markings) {
+    const next = await applyMarking(tx, { partId: o.partId, noteKey, values, actorId: o.actorId, current: undefined });
+    if (!next) continue;
+    await tx.insert(markingHistory).values({
+      partId: o.partId,
+      noteKey,
+      actorId: o.actorId,
+      action: "create",
+      before: null,
+      after: toMarkingDto(next),
+      groupId: o.groupId,
+      proposalId: null,
+    });
+    written += 1;
+  }
+  return written;
+}
+
 export interface HistoryChange {
   noteKey: string;
   marking: MarkingDto | null;

@@ -6,7 +6,9 @@ import type { IngestedScore } from "@/lib/parts/ingest";
 
 export type { PartPermission };
 import type { AnyPgColumn } from "drizzle-orm/pg-core";
+import type { MarkingValues } from "@/lib/markings/schema";
 import { db } from "./client";
+import { insertImportedMarkings } from "./markings";
 import { markings, parts, shares, users, type NewPart, type Part } from "./schema";
 
 
@@ -27,6 +29,7 @@ const partSummaryColumns = {
   noteCount: parts.noteCount,
   sourceFileName: parts.sourceFileName,
   sourceFormat: parts.sourceFormat,
+  readNotices: parts.readNotices,
   sizeBytes: parts.sizeBytes,
   partList: parts.partList,
   chosenPartId: parts.chosenPartId,
@@ -71,6 +74,7 @@ export function newPartValues(o: { ownerId: string; fileName: string; bytes: Uin
     chosenPartId: ingested.chosenPartId,
     analysis: ingested.analysis,
     analysisVersion: ingested.analysisVersion,
+    readNotices: ingested.notices,
     ...ingested.summary,
   };
 }
@@ -84,7 +88,19 @@ export interface Quota {
  * Stores a new part. The owner's row is locked for the transaction so two uploads at once
  * cannot both slip under the quota.
  */
-export async function insertPart({ values, quota }: { values: NewPart; quota: Quota }): Promise<Part> {
+export async function insertPart({
+  values,
+  quota,
+  withMarkings = [],
+  groupId,
+}: {
+  values: NewPart;
+  quota: Quota;
+  /** Markings the file brought (an Ondula export), written in the same transaction. */
+  withMarkings?: ReadonlyArray<{ noteKey: string; values: MarkingValues }>;
+  /** History group of those markings (one undo takes them all back). */
+  groupId?: string;
+}): Promise<{ part: Part; importedMarkings: number }> {
   return db().transaction(async (tx) => {
     await tx.execute(sql`select id from ${users} where ${users.id} = ${values.ownerId} for update`);
     const [usage] = await tx
@@ -99,7 +115,10 @@ export async function insertPart({ values, quota }: { values: NewPart; quota: Qu
       throw new AppError("quota:bytes", `This upload would take your files past the ${mb} MB you can store. Delete parts you no longer need to make room.`);
     }
     const [row] = await tx.insert(parts).values(values).returning();
-    return row;
+    const importedMarkings = withMarkings.length
+      ? await insertImportedMarkings(tx, { partId: row.id, actorId: values.ownerId, groupId: groupId ?? crypto.randomUUID(), markings: withMarkings })
+      : 0;
+    return { part: row, importedMarkings };
   });
 }
 
@@ -173,6 +192,7 @@ export async function listPartsForViewer({
       isOwner: r.ownerId === viewerId,
       permission: r.ownerId === viewerId ? "owner" : ((r.viewerShare as PartPermission | null) ?? "comment"),
       sourceFileName: r.sourceFileName,
+      notices: r.readNotices,
       updatedAt: r.updatedAt.toISOString(),
     })),
   };

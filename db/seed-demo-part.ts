@@ -24,7 +24,7 @@ export async function seedDemoPart({ player, teacher }: { player: User; teacher:
 
   const bytes = new Uint8Array(fs.readFileSync(file));
   const ingested = ingestScore(bytes, DEMO_SAMPLE, {});
-  const part = await insertPart({
+  const { part } = await insertPart({
     quota: { maxParts: Number.MAX_SAFE_INTEGER, maxBytes: Number.MAX_SAFE_INTEGER },
     values: newPartValues({ ownerId: player.id, fileName: DEMO_SAMPLE, bytes, ingested }),
   });

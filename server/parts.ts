@@ -16,7 +16,6 @@ import type { MarkingValues } from "@/lib/markings/schema";
 import { selectPartsXml } from "@/lib/musicxml";
 import type { listPartsQuery, patchPartBody } from "@/lib/parts/schemas";
 import type { z } from "zod";
-import { extractMarkingsWithReport, stripMarkings } from "@/lib/export/musicxml-markings";
 import { deletePartById, getPartAccessById, insertPart, listPartsForViewer, newPartValues, storeAnalysisById, updatePartById, type PartAccess } from "@/db/parts";
 import { listMarkingsByPartId, writeMarking } from "@/db/markings";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
@@ -97,28 +96,30 @@ const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
  * written by the uploader as one history step, so importing an export recovers every marking.
  */
 export async function createPartFromFile(user: CurrentUser, fileName: string, bytes: Uint8Array): Promise<CreatedPart> {
+  // One read: the model, the markings an Ondula export carried, and the stored text without the
+  // elements Ondula wrote (the uploaded bytes stay as they were).
   const ingested = ingestScore(bytes, fileName, readLimits());
-  const { markings, problems } = extractMarkingsWithReport(ingested.partwiseXml);
-  // The markings live in the database from now on; their printed copies would go stale on the
-  // engraving, so the stored text is the file without them (the uploaded bytes stay as they were).
-  const hasRecords = markings.size > 0 || problems.length > 0;
-  const part = await insertPartFrom(user, fileName, bytes, hasRecords ? { ...ingested, partwiseXml: stripMarkings(ingested.partwiseXml) } : ingested);
+  const { markings, problems } = ingested.ownMarkings;
+  // Only markings on the chosen part's notes; they are written in the part's own transaction.
   const known = new Set(ingested.summary.noteKeys);
-  const groupId = randomUUID();
-  let importedMarkings = 0;
-  for (const [noteKey, values] of markings) {
-    if (!known.has(noteKey)) continue;
-    const result = await writeMarking({ partId: part.id, noteKey, values, expectedVersion: undefined, actorId: user.id, groupId });
-    if (result.ok) importedMarkings += 1;
-  }
+  const withMarkings = [...markings].filter(([noteKey]) => known.has(noteKey)).map(([noteKey, values]) => ({ noteKey, values }));
+  const { part, importedMarkings } = await insertPartFrom(user, fileName, bytes, ingested, withMarkings);
   return { part, importedMarkings, unreadableMarkings: problems };
 }
 
-function insertPartFrom(user: CurrentUser, fileName: string, bytes: Uint8Array, ingested: IngestedScore): Promise<Part> {
+function insertPartFrom(
+  user: CurrentUser,
+  fileName: string,
+  bytes: Uint8Array,
+  ingested: IngestedScore,
+  withMarkings: Array<{ noteKey: string; values: MarkingValues }>,
+) {
   const c = config();
   return insertPart({
     quota: { maxParts: c.QUOTA_PARTS, maxBytes: c.QUOTA_BYTES },
     values: newPartValues({ ownerId: user.id, fileName, bytes, ingested }),
+    withMarkings,
+    groupId: randomUUID(),
   });
 }
 
@@ -183,7 +184,7 @@ export async function uploadPart(user: CurrentUser, receive: () => Promise<{ fil
   assertCan(user, "part:create", { type: "site" });
   const file = await receive();
   const { part, importedMarkings, unreadableMarkings } = await createPartFromFile(user, file.fileName, file.bytes);
-  return { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId, importedMarkings, unreadableMarkings };
+  return { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId, importedMarkings, unreadableMarkings, notices: part.readNotices };
 }
 
 /** Renames the part, or chooses another part of its score (summarised again from the stored text). */

@@ -76,6 +76,8 @@ export interface UploadResult extends MarkingImport {
   url: string;
   parts: { id: string; name: string }[];
   chosenPart: string;
+  /** Bars read as written although they disagree with their time signature, in player's words. */
+  notices: string[];
 }
 
 /** XHR rather than fetch: only XHR reports upload progress. */

@@ -1,6 +1,7 @@
 "use client";
 
 import Link from "next/link";
+import { describeNotices } from "@/lib/musicxml/read/bar-lengths";
 import { useEffect, useState } from "react";
 import { useUnreadByPart } from "@/components/client/notifications";
 import { MenuButton } from "@/components/ui/menu-button";
@@ -223,6 +224,11 @@ function PartRow({ part }: { part: ListedPart }) {
           <span className={foldedClass("updated")}>Changed {whenChanged}</span>
         </p>
         {rename.isError && <p role="alert" className="text-xs text-danger">{rename.error.message}</p>}
+        {part.notices.length > 0 && (
+          <p className="max-w-md text-xs text-graphite" data-testid="read-notices">
+            {describeNotices(part.notices)}
+          </p>
+        )}
         {!part.isOwner && <p className="text-xs text-graphite">Shared by {part.ownerName} · you may {part.permission === "propose" ? "comment and propose" : "comment"}</p>}
         {confirming && (
           <div role="alertdialog" aria-label={`Delete ${part.title}?`} className="mt-2 rounded border border-danger/40 bg-paper p-2 text-xs">

@@ -6,6 +6,7 @@ import { useQueryClient } from "@tanstack/react-query";
 import { describeMarkingImport } from "@/lib/parts/import-report";
 import { ApiError } from "@/components/client/fetch-json";
 import { partKeys } from "@/components/client/keys";
+import { describeNotices } from "@/lib/musicxml/read/bar-lengths";
 import { uploadPart, useChoosePart, useSamples, useTrySample, type UploadResult } from "./api";
 
 type UploadState =
@@ -35,7 +36,7 @@ export function UploadPanel() {
     if (result.parts.length > 1) setState({ phase: "choose", fileName, result });
     // Markings that came in with the file are worth a pause: the player reads what was imported
     // (and what could not be) before the part opens.
-    else if (describeMarkingImport(result)) setState({ phase: "imported", fileName, result });
+    else if (describeMarkingImport(result) || result.notices.length > 0) setState({ phase: "imported", fileName, result });
     else router.push(result.url);
   };
 
@@ -161,14 +162,24 @@ export function UploadPanel() {
 /** What came in with the file: the markings imported from an Ondula export, and any left out. */
 function ImportNotice({ fileName, result }: { fileName: string; result: UploadResult }) {
   const report = describeMarkingImport(result);
-  if (!report) return null;
+  const bars = describeNotices(result.notices);
+  if (!report && !bars) return null;
   return (
     <div role="status" className="mb-3 rounded-card border border-rule bg-paper p-3 text-sm" data-testid="import-notice">
-      <p className="font-semibold">{report.headline}</p>
-      <p className="mt-1 text-graphite">
-        {fileName} carried Ondula markings; they are now the part&rsquo;s markings, and one undo in the workspace takes them all back.
-      </p>
-      {report.details ? <p className="mt-1">{report.details}</p> : null}
+      {report && (
+        <>
+          <p className="font-semibold">{report.headline}</p>
+          <p className="mt-1 text-graphite">
+            {fileName} carried Ondula markings; they are now the part&rsquo;s markings, and one undo in the workspace takes them all back.
+          </p>
+          {report.details ? <p className="mt-1">{report.details}</p> : null}
+        </>
+      )}
+      {bars && (
+        <p className={report ? "mt-2" : ""} data-testid="read-notices">
+          {bars}
+        </p>
+      )}
     </div>
   );
 }

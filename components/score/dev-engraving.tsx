@@ -3,12 +3,14 @@
 import { useEffect, useRef, useState } from "react";
 import type { NoteBox } from "@/lib/markings/glyph-geometry";
 import { measureNoteBoxes, noteBoxesFromModel } from "./measure-note-boxes";
-import { collectOsmdNotes, osmdNoteKeys } from "./osmd-note-keys";
+import { collectOsmdNotes, osmdNoteKeys, sheetNoteKeys } from "./osmd-note-keys";
 
 declare global {
   interface Window {
     /** Set by the development engraving page for the end-to-end key comparison. */
     __ondulaKeys?: string[];
+    /** The same keys read from the loaded model alone, before any drawing. */
+    __ondulaSheetKeys?: string[];
     /** The notes' boxes as the workspace reads them from the model, and as measured from the drawing. */
     __ondulaNoteBoxes?: { model: NoteBox[] | null; drawn: NoteBox[] };
   }
@@ -37,6 +39,7 @@ export function DevEngraving({ xml }: { xml: string }) {
         const osmd = new OpenSheetMusicDisplay(el, { backend: "svg", autoResize: false, drawTitle: true });
         await osmd.load(xml);
         if (cancelled) return;
+        window.__ondulaSheetKeys = sheetNoteKeys(osmd.Sheet);
         osmd.render();
         window.__ondulaKeys = osmdNoteKeys(osmd);
         const refs = collectOsmdNotes(osmd);

@@ -4,7 +4,7 @@
  * from the same ingredients: part id, 0-based measure index, staff within the part, voice, onset as
  * an exact fraction, MIDI number and grace position. Browser code: never import server modules.
  */
-import type { GraphicalNote, Note, OpenSheetMusicDisplay, VexFlowGraphicalNote } from "opensheetmusicdisplay";
+import type { GraphicalNote, MusicSheet, Note, OpenSheetMusicDisplay, VexFlowGraphicalNote } from "opensheetmusicdisplay";
 import { sortNoteKeys } from "@/lib/musicxml/key-order";
 import { noteKey } from "@/lib/musicxml/note-key";
 
@@ -117,4 +117,39 @@ export function osmdNoteKeys(osmd: OpenSheetMusicDisplay): string[] {
     .map((ref) => ref.key);
   const partOrder = osmd.Sheet.Instruments.map((instrument) => instrument.IdString);
   return sortNoteKeys(keys, partOrder);
+}
+
+/**
+ * The same keys read from the loaded model alone (no drawing): every source measure's staff
+ * entries and their voice entries, grace notes numbered as in {@link collectOsmdNotes}. A file the
+ * engraver cannot draw still gets its keys compared.
+ */
+export function sheetNoteKeys(sheet: MusicSheet): string[] {
+  const keys: string[] = [];
+  for (const measure of sheet.SourceMeasures) {
+    for (const container of measure.VerticalSourceStaffEntryContainers) {
+      for (const staffEntry of container.StaffEntries) {
+        if (!staffEntry) continue;
+        const graceCount = new Map<number, number>();
+        for (const entry of staffEntry.VoiceEntries) {
+          let graceIndex = 0;
+          if (entry.IsGrace) {
+            const voiceId = entry.ParentVoice.VoiceId;
+            graceIndex = (graceCount.get(voiceId) ?? 0) + 1;
+            graceCount.set(voiceId, graceIndex);
+          }
+          for (const note of entry.Notes) {
+            if (note.isRest()) continue;
+            const first = note.NoteTie?.StartNote;
+            if (first && first !== note) continue;
+            keys.push(keyOf(note, graceIndex));
+          }
+        }
+      }
+    }
+  }
+  return sortNoteKeys(
+    keys,
+    sheet.Instruments.map((instrument) => instrument.IdString),
+  );
 }

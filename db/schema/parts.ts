@@ -41,6 +41,8 @@ export const parts = pgTable(
     /** The analysis result of every part of the score (command-line shape), with its version. */
     analysis: jsonb("analysis"),
     analysisVersion: integer("analysis_version").notNull().default(0),
+    /** What the reader read as written and the player should know (lib/musicxml ReadNotice messages). */
+    readNotices: jsonb("read_notices").$type<string[]>().notNull().default(sql`'[]'::jsonb`),
     version: integer("version").notNull().default(1),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),

@@ -172,5 +172,5 @@ export function buildPart(text: string, opts: BuildOptions = {}): PartModel {
 }
 
 export function buildScore(...parts: PartModel[]): ScoreModel {
-  return { title: "Test", composer: "", parts, remarks: [] };
+  return { title: "Test", composer: "", parts, remarks: [], notices: [] };
 }

@@ -128,7 +128,11 @@ export interface ExtractReport {
 
 /** Like {@link extractMarkings}, also naming the carriers it could not read. */
 export function extractMarkingsWithReport(partwiseXml: string): ExtractReport {
-  const { sites } = scanNoteSites(partwiseXml);
+  return markingsFromSites(scanNoteSites(partwiseXml).sites);
+}
+
+/** The markings carried by notes the reader already found (an upload reads its file once). */
+export function markingsFromSites(sites: readonly NoteSite[]): ExtractReport {
   const markings = new Map<string, MarkingValues>();
   const problems: ExtractReport["problems"] = [];
   for (const site of sites) {

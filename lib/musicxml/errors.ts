@@ -132,12 +132,6 @@ export const fail = {
       `Measure ${measure} has a duration "${value}" that is not a usable positive number. ${EXPORT_HINT}`,
       { measure, value },
     ),
-  measureOverflow: (measure: string, content: string, written: string) =>
-    new MusicXmlError(
-      "bad_request:measure_overflow",
-      `The notes of measure ${measure} last ${content} of a whole note, far beyond its time signature (${written}). The durations are damaged; ${EXPORT_HINT.charAt(0).toLowerCase()}${EXPORT_HINT.slice(1)}`,
-      { measure, content, written },
-    ),
   noParts: () =>
     new MusicXmlError("bad_request:no_parts", `This MusicXML score contains no parts with measures. ${EXPORT_HINT}`),
   unknownPart: (ids: string[]) =>

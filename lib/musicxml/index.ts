@@ -5,12 +5,14 @@
 import { DEFAULT_LIMITS, fail, type ReadLimits } from "./errors";
 import type { ScoreModel } from "./model";
 import { readMxl } from "./mxl";
-import { readMusicXmlText } from "./reader";
+import type { SiteScan } from "./read/sites";
+import { readMusicXmlText, type ReadOptions } from "./reader";
 import { decodeText, sniff } from "./sniff";
 
 export { DEFAULT_LIMITS, MusicXmlError, type ReadLimits } from "./errors";
 export { noteKey, parseNoteKey, type NoteKeyParts } from "./note-key";
 export { selectPartsXml } from "./select-parts";
+export { describeNotices } from "./read/bar-lengths";
 export type * from "./model";
 
 export interface ReadScoreResult {
@@ -18,6 +20,8 @@ export interface ReadScoreResult {
   /** Normalized `score-partwise` text: no DOCTYPE, no comments, no entities beyond XML's own. */
   partwiseXml: string;
   format: "musicxml" | "mxl";
+  /** With `options.sites`: where each note sits in the text read (see read/sites.ts). */
+  sites?: SiteScan;
 }
 
 /**
@@ -25,13 +29,13 @@ export interface ReadScoreResult {
  * decided from the bytes, not from `fileName` (which only serves messages). Throws
  * `MusicXmlError` with a code and a message a player can act on.
  */
-export function readScoreFile(bytes: Uint8Array, fileName: string, limits?: Partial<ReadLimits>): ReadScoreResult {
+export function readScoreFile(bytes: Uint8Array, fileName: string, limits?: Partial<ReadLimits>, options?: ReadOptions): ReadScoreResult {
   const l: ReadLimits = { ...DEFAULT_LIMITS, ...limits };
   void fileName;
   if (bytes.length > l.maxFileBytes) throw fail.fileTooLarge(bytes.length, l.maxFileBytes);
   if (bytes.length === 0) throw fail.empty();
   const kind = sniff(bytes);
   const text = kind === "zip" ? readMxl(bytes, l) : decodeText(bytes);
-  const { score, partwiseXml } = readMusicXmlText(text, l);
-  return { score, partwiseXml, format: kind === "zip" ? "mxl" : "musicxml" };
+  const { score, partwiseXml, sites } = readMusicXmlText(text, l, options);
+  return { score, partwiseXml, format: kind === "zip" ? "mxl" : "musicxml", ...(sites ? { sites } : {}) };
 }

@@ -97,10 +97,23 @@ export interface PartModel {
   notes: Note[];
 }
 
+/** Something read as written that a player should know about (never a refusal). */
+export interface ReadNotice {
+  /** `bar_longer` / `bar_shorter`: a bar's notes last more / less than its time signature. */
+  code: "bar_longer" | "bar_shorter";
+  measureIndex: number;
+  /** The bar's number as written (its `number` attribute). */
+  measureNumber: string;
+  /** In player's words, e.g. "bar 7 lasts 10 beats in 4/4 — read as written". */
+  message: string;
+}
+
 export interface ScoreModel {
   title: string;
   composer: string;
   parts: PartModel[];
   /** Notes about what was simplified (e.g. repeats kept in written order). */
   remarks: string[];
+  /** Bars read as written although they disagree with their time signature, in score order. */
+  notices: ReadNotice[];
 }

@@ -158,6 +158,18 @@ describe("element semantics (MusicXML 4.0)", () => {
     expect(notes[1].isGrace && notes[1].duration.num === 0).toBe(true);
   });
 
+  it("grace notes after a bar's last note are keyed at that note, numbered on after its own grace notes", () => {
+    // One grace note leads into the half note at 1/2; two more follow it before the barline
+    // (a trill's closing notes). Convention: DEVELOPERS.md, "Note keys".
+    const m = attrs(1, 0, 4, 4) + note("C", 5, 2) + note("B", 4, 0, { grace: true }) + note("D", 5, 2) + note("C", 5, 0, { grace: true }) + note("D", 5, 0, { grace: true });
+    const notes = read(partwise([m, note("E", 5, 4)])).score.parts[0].notes;
+    expect(notes.filter((n) => n.isGrace).map((n) => [n.key, f(n)])).toEqual([
+      ["P1:m0:s1:v1:1/2:71:g1", "1/2"],
+      ["P1:m0:s1:v1:1/2:72:g2", "1/1"],
+      ["P1:m0:s1:v1:1/2:74:g3", "1/1"],
+    ]);
+  });
+
   it("keeps staves and voices apart in keys, and lists notes in time order", () => {
     const m =
       "<attributes><divisions>1</divisions><staves>2</staves><time><beats>2</beats><beat-type>4</beat-type></time></attributes>" +
@@ -218,11 +230,18 @@ describe("element semantics (MusicXML 4.0)", () => {
     expect(score.remarks.join(" ")).toMatch(/2 semitones lower than written.*as written/);
   });
 
-  it("refuses durations far past the time signature, accepts a slightly long measure", () => {
+  it("reads a bar longer than its time signature as written and names it (a cadenza is one long bar)", () => {
     const long = attrs(1) + note("C", 5, 4) + note("D", 5, 1);
-    expect(read(partwise([long])).score.parts[0].notes).toHaveLength(2);
-    const bad = attrs(1) + note("C", 5, 4) + note("D", 5, 4) + note("E", 5, 4);
-    expect(() => read(partwise([bad]))).toThrow(expect.objectContaining({ code: "bad_request:measure_overflow" }));
+    const cadenza = note("C", 5, 4) + note("D", 5, 4) + note("E", 5, 2);
+    const { score } = read(partwise([long, cadenza, note("C", 5, 4)]));
+    const [part] = score.parts;
+    expect(part.notes.map((n) => n.measureIndex)).toEqual([0, 0, 1, 1, 1, 2]);
+    // The next bar starts where the long one ends: 5 + 10 quarters at the default 120 per minute.
+    expect(part.measures[2].startSeconds).toBeCloseTo(7.5, 9);
+    expect(score.notices).toEqual([
+      { code: "bar_longer", measureIndex: 0, measureNumber: "1", message: "bar 1 lasts 5 beats in 4/4 — read as written" },
+      { code: "bar_longer", measureIndex: 1, measureNumber: "2", message: "bar 2 lasts 10 beats in 4/4 — read as written" },
+    ]);
   });
 });
 

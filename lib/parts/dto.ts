@@ -19,5 +19,7 @@ export interface ListedPart {
   isOwner: boolean;
   permission: PartPermission;
   sourceFileName: string;
+  /** Bars read as written although they disagree with their time signature, in player's words. */
+  notices: string[];
   updatedAt: string;
 }

@@ -1,5 +1,7 @@
 import { analyzeScore, ANALYSIS_VERSION } from "@/lib/analysis";
 import type { PartAnalysis, ScoreAnalysis } from "@/lib/analysis/types";
+import { markingsFromSites, type ExtractReport } from "@/lib/export/musicxml-markings";
+import { OWN_SITES } from "@/lib/export/note-sites";
 import { readScoreFile, type ReadLimits } from "@/lib/musicxml";
 import type { PartModel, ScoreModel } from "@/lib/musicxml/model";
 
@@ -13,6 +15,14 @@ export interface IngestedScore {
   analysis: ScoreAnalysis;
   analysisVersion: number;
   summary: PartSummary;
+  /** Bars read as written although they disagree with their time signature, in player's words. */
+  notices: string[];
+  /**
+   * Markings an Ondula export carried in the file, read in the same pass; the stored text
+   * (`partwiseXml`) is the file without the elements Ondula wrote (their printed copies would go
+   * stale on the engraving once the markings live in the database).
+   */
+  ownMarkings: ExtractReport;
 }
 
 export interface PartSummary {
@@ -62,7 +72,7 @@ export function keyLabel(result: PartAnalysis): string {
 
 /** Reads and analyses an uploaded file; throws the reader's MusicXmlError on bad input. */
 export function ingestScore(bytes: Uint8Array, fileName: string, limits: Partial<ReadLimits>): IngestedScore {
-  const { score, partwiseXml, format } = readScoreFile(bytes, fileName, limits);
+  const { score, partwiseXml, format, sites } = readScoreFile(bytes, fileName, limits, { sites: OWN_SITES, dropOwn: true });
   const analysis = analyzeScore(score, fileName);
   const chosenPartId = chooseMelodyPart(score);
   const fallbackTitle = fileName.replace(/\.(musicxml|xml|mxl)$/i, "").replace(/[-_]+/g, " ").trim() || "Untitled part";
@@ -76,5 +86,7 @@ export function ingestScore(bytes: Uint8Array, fileName: string, limits: Partial
     analysis,
     analysisVersion: ANALYSIS_VERSION,
     summary: summarizePart(score, analysis, chosenPartId),
+    notices: score.notices.map((n) => n.message),
+    ownMarkings: markingsFromSites(sites!.sites),
   };
 }

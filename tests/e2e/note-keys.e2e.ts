@@ -1,7 +1,7 @@
 import fs from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { BrowserContext } from "playwright-core";
+import type { BrowserContext, Page } from "playwright-core";
 import { readScoreFile } from "@/lib/musicxml";
 import { scoreNoteKeys } from "@/lib/musicxml/key-order";
 import { launchContext, screenshotPath } from "../helpers/browser";
@@ -11,6 +11,7 @@ import { APP_URL } from "../helpers/env";
 // library's model) differed from the server's (from the MusicXML reader), markings would land on
 // the wrong notes. Every sample is engraved in Chromium and the two lists must be identical.
 const samplesDir = path.resolve(import.meta.dirname, "../../samples");
+const realDir = path.resolve(import.meta.dirname, "../fixtures/real");
 const files = fs.readdirSync(samplesDir).filter((f) => /\.(musicxml|mxl)$/.test(f)).sort();
 
 function serverKeys(file: string): string[] {
@@ -72,6 +73,8 @@ describe("note keys: server and browser agree", () => {
 
         const actual = await page.evaluate(() => window.__ondulaKeys ?? null);
         expect(actual).toEqual(expected);
+        // The model alone (what the corpus comparison below reads) gives the drawing's keys.
+        expect(await page.evaluate(() => window.__ondulaSheetKeys ?? null)).toEqual(actual);
 
         // The workspace places notes from the engraver's model without asking the browser for
         // layout; it must agree with what the browser actually drew, note for note.
@@ -120,4 +123,61 @@ describe("note keys: server and browser agree", () => {
       await page.close();
     }
   });
+});
+
+function musicFiles(dir: string): string[] {
+  return fs
+    .readdirSync(dir, { withFileTypes: true, recursive: true })
+    .filter((e) => e.isFile() && /\.(musicxml|xml|mxl)$/.test(e.name))
+    .map((e) => path.join(e.parentPath, e.name))
+    .sort();
+}
+
+/**
+ * Every file of the real corpus (tests/fixtures/real, ours/ included) and every sample: the
+ * server's keys (reader) against the browser's (the engraving library's model after loading, no
+ * drawing), in one page, one file after the other. Drawing is another test's concern.
+ */
+describe("note keys on the real corpus: server and browser agree", () => {
+  const corpus = [...musicFiles(realDir), ...files.map((f) => path.join(samplesDir, f))];
+  const results = new Map<string, boolean>();
+  let context: BrowserContext;
+  let page: Page;
+  beforeAll(async () => {
+    context = await launchContext({ width: 1200, height: 800 });
+    page = await context.newPage();
+    const response = await page.goto(`${APP_URL}/dev/note-keys`);
+    expect(response?.status()).toBe(200);
+    await page.waitForSelector('[data-ready="true"]', { state: "attached", timeout: 60_000 });
+  });
+  afterAll(async () => {
+    const agree = [...results.values()].filter(Boolean).length;
+    console.log(`note keys agree on ${agree} of ${results.size} files (corpus of ${corpus.length})`);
+    await context?.close();
+  });
+
+  it("holds the real corpus (at least 60 files besides ours) and the samples", () => {
+    expect(corpus.filter((f) => !f.includes(`${path.sep}ours${path.sep}`) && f.startsWith(realDir)).length).toBeGreaterThanOrEqual(60);
+  });
+
+  for (const file of corpus) {
+    const name = path.relative(path.resolve(import.meta.dirname, "../.."), file);
+    it(`${name}: same keys, note for note`, async () => {
+      results.set(name, false);
+      const { score, partwiseXml } = readScoreFile(new Uint8Array(fs.readFileSync(file)), path.basename(file));
+      const expected = scoreNoteKeys(score);
+      const answer = await page.evaluate((xml) => window.__ondulaModelKeys!(xml), partwiseXml);
+      expect(answer).not.toHaveProperty("error");
+      const actual = (answer as { keys: string[] }).keys;
+      if (actual.length === expected.length && actual.every((k, i) => k === expected[i])) results.set(name, true);
+      // On a difference, name the first keys each side has alone rather than two huge lists.
+      const server = new Set(expected);
+      const browser = new Set(actual);
+      expect({
+        onlyServer: expected.filter((k) => !browser.has(k)).slice(0, 8),
+        onlyBrowser: actual.filter((k) => !server.has(k)).slice(0, 8),
+      }).toEqual({ onlyServer: [], onlyBrowser: [] });
+      expect(actual).toEqual(expected);
+    }, 120_000);
+  }
 });

@@ -115,6 +115,17 @@ describe("upload and library", () => {
     }
   });
 
+  it("reads a cadenza written as one long bar and says so in the upload answer and the library", async () => {
+    const file = path.resolve("tests/fixtures/real/ours/cadenza-long-bar.musicxml");
+    const res = await owner.fetch("/api/parts", { method: "POST", body: multipartFile("cadenza-long-bar.musicxml", new Uint8Array(fs.readFileSync(file))) });
+    expect(res.status).toBe(201);
+    const created = await res.json();
+    // 40 sixteenths in bar 3 of a 4/4 part: 10 quarter-note beats (MusicXML 4.0, divisions).
+    expect(created.notices).toEqual(["bar 3 lasts 10 beats in 4/4 — read as written"]);
+    const listed = (await (await owner.fetch("/api/parts?sort=-updated")).json()).items.find((p: { id: string }) => p.id === created.id);
+    expect(listed.notices).toEqual(["bar 3 lasts 10 beats in 4/4 — read as written"]);
+  });
+
   it("refuses a body without a file, and a non-multipart body, with a message", async () => {
     const empty = await owner.fetch("/api/parts", { method: "POST", body: new FormData() });
     expect(empty.status).toBe(400);

@@ -31,7 +31,7 @@ export const POST = handle(async (request) => {
   const { part, importedMarkings, unreadableMarkings } = await createPartFromFile(user, name, bytes);
   // The same answer as an upload, so the library treats both alike.
   return Response.json(
-    { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId, importedMarkings, unreadableMarkings },
+    { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId, importedMarkings, unreadableMarkings, notices: part.readNotices },
     { status: 201 },
   );
 });

@@ -1,0 +1,1 @@
+ALTER TABLE "parts" ADD COLUMN "read_notices" jsonb DEFAULT '[]'::jsonb NOT NULL;
