@@ -17,7 +17,7 @@ import { selectPartsXml } from "@/lib/musicxml";
 import type { listPartsQuery, patchPartBody } from "@/lib/parts/schemas";
 import type { z } from "zod";
 import { deletePartById, getPartAccessById, insertPart, listPartsForViewer, newPartValues, storeAnalysisById, updatePartById, type PartAccess } from "@/db/parts";
-import { listMarkingsByPartId, writeMarking } from "@/db/markings";
+import { listMarkingsByPartId } from "@/db/markings";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import type { Part } from "@/db/schema";
 import { randomUUID } from "node:crypto";
