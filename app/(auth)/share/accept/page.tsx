@@ -77,7 +77,7 @@ export default async function AcceptSharePage({ searchParams }: { searchParams: 
   return (
     <PageShell title={`${who} shares ${title} with you`} lead={`The invitation is for ${email}.`}>
       <Panel>
-        <p className="mb-4">Accept to open the part and see it in your library.</p>
+        <p className="mb-4">Accept to open the part; it then stays in your Parts.</p>
         <AcceptInvitationButton token={token} label="Accept and open the part" />
       </Panel>
     </PageShell>
