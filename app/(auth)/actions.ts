@@ -31,15 +31,11 @@ export const signUpAction = defineAction({
     // The same answer whether or not the address already has an account; the mail goes after it.
     const user = await signUp(input);
     after(() => user.mail().catch((error) => console.error("[signUp] mail failed:", error)));
-    if (user.created) {
-      // A new account is signed in at once: the player lands where they were going (the library).
-      await startSession(user.created);
-      const target = safeCallbackPath(input.callbackUrl);
-      return { redirectTo: `${target}${target.includes("?") ? "&" : "?"}welcome=1` };
-    }
-    // A taken address changes nothing; its owner is told by mail, and this visitor is sent to sign in.
-    const next = new URLSearchParams({ registered: "1", email: user.email, callbackUrl: safeCallbackPath(input.callbackUrl) });
-    return { redirectTo: `/sign-in?${next}` };
+    // A new account is signed in at once. A taken address changes nothing and its owner is told by
+    // mail; the answer is the same redirect either way (without a session, the page asks to sign in).
+    if (user.created) await startSession(user.created);
+    const target = safeCallbackPath(input.callbackUrl);
+    return { redirectTo: `${target}${target.includes("?") ? "&" : "?"}welcome=1` };
   },
 });
 

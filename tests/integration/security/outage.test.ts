@@ -35,11 +35,14 @@ describe("an unreachable database (ASVS 7.4.1, 11.1.x availability)", () => {
   });
 
   it("answers 503 with Retry-After and a message, never 500, and recovers by itself", async () => {
-    const save = (depthCents: number) =>
+    const save = (depthCents: number, version?: number) =>
       client.fetch(`/api/parts/${partId}/markings/${encodeURIComponent(noteKey)}`, {
-        method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify({ ...DEFAULT_MARKING, depthCents }),
+        method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify({ ...DEFAULT_MARKING, depthCents, version }),
       });
-    expect([200, 201]).toContain((await save(20)).status);
+    const first = await save(20);
+    expect([200, 201]).toContain(first.status);
+    // A later save names the version it changes (an unversioned save of an existing marking is a 409).
+    const { version } = (await first.json()) as { version: number };
     stopCluster(dir);
     try {
       for (const request of [() => hostile(`/api/parts/${partId}/markings/${encodeURIComponent(noteKey)}`, {
@@ -63,7 +66,7 @@ describe("an unreachable database (ASVS 7.4.1, 11.1.x availability)", () => {
     const deadline = Date.now() + 20_000;
     let status = 0;
     while (Date.now() < deadline && status !== 200) {
-      status = (await save(30)).status;
+      status = (await save(30, version)).status;
       if (status !== 200) await new Promise((r) => setTimeout(r, 250));
     }
     expect(status).toBe(200);
