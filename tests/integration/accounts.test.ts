@@ -57,7 +57,8 @@ describe("accounts", () => {
     const existing = await createUser();
     const taken = await callAction(anon, AUTH, "signUpAction", { name: "A", email: existing.email.toUpperCase(), password: "wave-and-breath-2026", role: "player" });
     expect(taken.status).toBe(303);
-    expect(taken.redirect).toContain("/sign-in?registered=1");
+    // The same redirect a new account gets; only a new account is signed in.
+    expect(taken.redirect).toBe("/parts?welcome=1");
     const notice = await waitForMail(existing.email, /tried to create an Ondula account/);
     expect(notice.text).toContain("Nothing was changed");
     await signIn(existing.email, existing.password);

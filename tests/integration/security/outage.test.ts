@@ -42,7 +42,7 @@ describe("an unreachable database (ASVS 7.4.1, 11.1.x availability)", () => {
     const first = await save(20);
     expect([200, 201]).toContain(first.status);
     // A later save names the version it changes (an unversioned save of an existing marking is a 409).
-    const { version } = (await first.json()) as { version: number };
+    const { version } = ((await first.json()) as { marking: { version: number } }).marking;
     stopCluster(dir);
     try {
       for (const request of [() => hostile(`/api/parts/${partId}/markings/${encodeURIComponent(noteKey)}`, {
