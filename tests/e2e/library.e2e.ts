@@ -85,8 +85,8 @@ describe("the library in the browser", () => {
     await actions.focus();
     await page.keyboard.press("ArrowDown");
     const menu = page.getByRole("menu", { name: `Actions for ${target}` });
-    expect(await menu.getByRole("menuitem").allTextContents()).toEqual(["Download the original file", "Rename", "Delete"]);
-    expect(await menu.getByRole("menuitem", { name: "Download the original file" }).evaluate((el) => el === document.activeElement)).toBe(true);
+    expect(await menu.getByRole("menuitem").allTextContents()).toEqual(["Stand view", "Download the original file", "Rename", "Delete"]);
+    expect(await menu.getByRole("menuitem", { name: "Stand view" }).evaluate((el) => el === document.activeElement)).toBe(true);
     await page.keyboard.press("Escape");
     await menu.waitFor({ state: "detached" });
     expect(await actions.evaluate((el) => el === document.activeElement)).toBe(true);
