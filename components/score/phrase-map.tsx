@@ -154,12 +154,15 @@ export const PhraseMap = memo(function PhraseMap({ noteOrder, phrases, markings,
             const w = Math.max(2, xOf(k.to, count, width) - left);
             const name = keyName(k.tonic, k.mode);
             const label = `${name}, bars ${k.fromMeasure} to ${k.toMeasure}`;
+            const look = `absolute overflow-hidden whitespace-nowrap rounded-sm border px-1 text-left text-[11px] leading-[22px] ${k.mode === "minor" ? "border-graphite bg-paper-deep" : "border-rule bg-paper-card"}`;
+            // A span narrower than a finger is drawn but is no target (WCAG 2.2 SC 2.5.8); zoom in to reach it.
+            if (w < 24) return <span key={`${k.from}-${i}`} className={look} style={{ top: STRIP_H + 2, height: KEY_BAND_H, left, width: w }} title={label} aria-hidden="true" data-local-key={name} />;
             return (
               <button
                 key={`${k.from}-${i}`}
                 type="button"
                 onClick={() => onJump(noteOrder[k.from])}
-                className={`absolute overflow-hidden whitespace-nowrap rounded-sm border px-1 text-left text-[11px] leading-[22px] ${k.mode === "minor" ? "border-graphite bg-paper-deep" : "border-rule bg-paper-card"}`}
+                className={look}
                 style={{ top: STRIP_H + 2, height: KEY_BAND_H, left, width: w }}
                 aria-label={`Local key: ${label}`}
                 title={label}

@@ -54,7 +54,7 @@ export function WorkingTempo({
       <span className="inline-flex items-center gap-1" data-testid="working-tempo">
         {tempo ? `♩ = ${formatNumber(tempo, 1)}` : "no tempo"}
         {canEdit ? (
-          <button type="button" className="rounded px-1 text-accent-strong underline underline-offset-2" onClick={() => setEditing(true)} aria-label="Change the working tempo">
+          <button type="button" className="inline-flex h-6 min-w-6 items-center rounded px-1 text-accent-strong underline underline-offset-2" onClick={() => setEditing(true)} aria-label="change the working tempo">
             change
           </button>
         ) : null}
