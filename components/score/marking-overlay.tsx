@@ -198,6 +198,9 @@ const HitLayer = memo(function HitLayer({
           <rect
             key={box.key}
             data-note-key={box.key}
+            // Where in its target the note's own centre lies (0–1): a target reaching further
+            // towards a distant neighbour than a near one is not centred on its note.
+            data-centre-at={((box.x + box.width / 2 - span.left) / span.width).toFixed(4)}
             x={span.left}
             y={top}
             width={span.width}
