@@ -24,7 +24,8 @@ async function smallPlayingControls(page: Page, name: string): Promise<string[]>
       : name === "workspace"
         ? '[data-testid="audition"] button'
         : name === "stand-view"
-          ? "button"
+          ? // The view's own controls (page turns, legend); the site's header is not played from.
+            '[data-testid="stand-view"] button'
           : null;
   if (!selector) return [];
   return page.locator(selector).evaluateAll(
