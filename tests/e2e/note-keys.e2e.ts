@@ -6,12 +6,13 @@ import { readScoreFile } from "@/lib/musicxml";
 import { scoreNoteKeys } from "@/lib/musicxml/key-order";
 import { launchContext, screenshotPath } from "../helpers/browser";
 import { APP_URL } from "../helpers/env";
+import { musicFiles, REAL_DIR } from "../helpers/real-corpus";
 
 // A marking attaches to a note through its key; if the browser's key (from the engraving
 // library's model) differed from the server's (from the MusicXML reader), markings would land on
 // the wrong notes. Every sample is engraved in Chromium and the two lists must be identical.
 const samplesDir = path.resolve(import.meta.dirname, "../../samples");
-const realDir = path.resolve(import.meta.dirname, "../fixtures/real");
+const realDir = REAL_DIR;
 const files = fs.readdirSync(samplesDir).filter((f) => /\.(musicxml|mxl)$/.test(f)).sort();
 
 function serverKeys(file: string): string[] {
@@ -124,14 +125,6 @@ describe("note keys: server and browser agree", () => {
     }
   });
 });
-
-function musicFiles(dir: string): string[] {
-  return fs
-    .readdirSync(dir, { withFileTypes: true, recursive: true })
-    .filter((e) => e.isFile() && /\.(musicxml|xml|mxl)$/.test(e.name))
-    .map((e) => path.join(e.parentPath, e.name))
-    .sort();
-}
 
 /**
  * Every file of the real corpus (tests/fixtures/real, ours/ included) and every sample: the

@@ -7,15 +7,13 @@ import { scoreNoteKeys } from "@/lib/musicxml/key-order";
 import { chooseMelodyPart } from "@/lib/parts/ingest";
 import { launchContext, screenshotPath } from "../helpers/browser";
 import { APP_URL } from "../helpers/env";
+import { musicFiles, REAL_DIR } from "../helpers/real-corpus";
 
 // Every part of every file of the real corpus (tests/fixtures/real, sources in its SOURCES.md) is
 // engraved by the workspace's score view in Chromium: no error may reach the player, the whole part
 // must be drawn, and every note drawn must carry one of the server's note keys.
-const realDir = path.resolve(import.meta.dirname, "../fixtures/real");
-const allFiles = (fs.readdirSync(realDir, { recursive: true }) as string[])
-  .map((f) => f.split(path.sep).join("/"))
-  .filter((f) => /\.(mxl|xml|musicxml)$/.test(f))
-  .sort();
+const realDir = REAL_DIR;
+const allFiles = musicFiles(realDir).map((f) => path.relative(realDir, f).split(path.sep).join("/"));
 // The whole corpus takes a while (a minute a file on a busy machine): ONDULA_REAL_FILES (a regular
 // expression) narrows it while working; the full run leaves it unset.
 const only = process.env.ONDULA_REAL_FILES ? new RegExp(process.env.ONDULA_REAL_FILES) : null;

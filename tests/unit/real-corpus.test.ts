@@ -4,20 +4,13 @@ import { describe, expect, it } from "vitest";
 import { readScoreFile } from "@/lib/musicxml";
 import type { Note, ScoreModel } from "@/lib/musicxml/model";
 import { validateMusicXml } from "../helpers/musicxml-xsd";
+import { musicFiles, REAL_DIR } from "../helpers/real-corpus";
 
 // The real corpus (tests/fixtures/real, sources in its SOURCES.md) and our own files for what a
 // flutist meets and the corpora lack (tests/fixtures/real/ours, see its README): every file reads,
 // and ours say exactly what they were written to say.
-const realDir = path.resolve(import.meta.dirname, "../fixtures/real");
+const realDir = REAL_DIR;
 const oursDir = path.join(realDir, "ours");
-
-function musicFiles(dir: string): string[] {
-  return fs
-    .readdirSync(dir, { withFileTypes: true, recursive: true })
-    .filter((e) => e.isFile() && /\.(musicxml|xml|mxl)$/.test(e.name))
-    .map((e) => path.join(e.parentPath, e.name))
-    .sort();
-}
 
 const read = (file: string) => readScoreFile(new Uint8Array(fs.readFileSync(file)), path.basename(file));
 const ours = (name: string): ScoreModel => read(path.join(oursDir, name)).score;

@@ -29,7 +29,6 @@ export default async function SignInPage({ searchParams }: { searchParams: Searc
   })}`;
   return (
     <PageShell title="Sign in">
-      {sp.registered ? <Notice>Your account is ready. We sent a link to {email ?? "your address"} to confirm it; you can sign in now.</Notice> : null}
       {sp.reset ? <Notice>Your password is changed. Sign in with the new one.</Notice> : null}
       {sp.changed ? <Notice>Your password is changed and every session has ended. Sign in again.</Notice> : null}
       {sp.error ? <Notice tone="error">E-mail or password is wrong.</Notice> : null}
