@@ -22,14 +22,20 @@ const FLUTE_1 = ["1:F#5", "1:G5", "1:A5", "2:B5", "2:A5", "2:G5", "3:A5", "3:B5"
 describe("the upper and lower line of a staff with two players", () => {
   it("written as chords: the top and the bottom note of each chord; the a2 bar is both lines' (our sample)", () => {
     const part = ours("two-flutes-chords.musicxml");
-    expect(twoPlayersOf(part)).toEqual({ writtenAs: "chords", staff: 1, voices: null });
+    const players = twoPlayersOf(part)!;
+    expect(players).toMatchObject({ writtenAs: "chords", staff: 1, voices: null });
+    // Apart in bars 1, 2 and 4 (12 of the upper line's 16 beats).
+    expect(players.apart).toBeCloseTo(0.75, 9);
     expect(names(part, "upper")).toEqual(FLUTE_1);
     expect(names(part, "lower")).toEqual(["1:D5", "1:E5", "1:F#5", "2:G5", "2:F#5", "2:E5", "3:A5", "3:B5", "3:C#6", "3:D6", "4:A5"]);
   });
 
   it("written as two voices: voice 1 and voice 2; the bars written once are both lines' (our sample)", () => {
     const part = ours("two-flutes-voices.musicxml");
-    expect(twoPlayersOf(part)).toEqual({ writtenAs: "voices", staff: 1, voices: ["1", "2"] });
+    const players = twoPlayersOf(part)!;
+    expect(players).toMatchObject({ writtenAs: "voices", staff: 1, voices: ["1", "2"] });
+    // Apart in bars 1 and 2 (8 of 16 beats): bar 4 is written once.
+    expect(players.apart).toBeCloseTo(0.5, 9);
     expect(names(part, "upper")).toEqual(["1:F#5", "1:G5", "1:A5", "2:B5", "2:A5", "3:A5", "3:B5", "3:C#6", "3:D6", "4:D6"]);
     expect(names(part, "lower")).toEqual(["1:D5", "1:E5", "1:F#5", "2:G5", "2:F#5", "2:E5", "3:A5", "3:B5", "3:C#6", "3:D6", "4:D6"]);
   });
@@ -101,6 +107,28 @@ describe("the upper and lower line of a staff with two players", () => {
     expect(names(part, "lower")).toEqual(["1:F5", "2:G5", "2:A5"]);
   });
 
+  it("a tied note held in a chord while the other player moves stays in its line", () => {
+    // Chords: flute 1 holds D6 over the barline (tied), flute 2 moves B5 → G5 under it.
+    const xml = partwise([
+      attrs(1) + note("A", 5, 2) + note("F", 5, 2, { chord: true }) + note("D", 6, 2, { tie: ["start"] }) + note("B", 5, 2, { chord: true }),
+      note("D", 6, 2, { tie: ["stop"] }) + note("G", 5, 2, { chord: true }) + note("C", 6, 2) + note("A", 5, 2, { chord: true }),
+    ]);
+    const part = read(xml).score.parts[0];
+    expect(names(part, "upper")).toEqual(["1:A5", "1:D6", "2:C6"]);
+    expect(names(part, "lower")).toEqual(["1:F5", "1:B5", "2:G5", "2:A5"]);
+  });
+
+  it("a chord in one voice while the other voice rests is both players; while it plays, one", () => {
+    const xml = partwise([
+      attrs(1) + note("A", 5, 2) + note("F", 5, 2, { chord: true }) + note("G", 5, 2) + note("D", 5, 2, { chord: true }) +
+        "<backup><duration>4</duration></backup>" + rest(2, "2") + note("B", 4, 2, { voice: "2" }),
+    ]);
+    const part = read(xml).score.parts[0];
+    expect(names(part, "upper")).toEqual(["1:A5", "1:G5"]);
+    // Beat 3: voice 2 plays B4, so the chord's D5 has no player of its own.
+    expect(names(part, "lower")).toEqual(["1:F5", "1:rest", "1:B4"]);
+  });
+
   it("a part with one player is not offered two lines and reads as it is", () => {
     const single = read(partwise([attrs(1) + note("A", 5, 2) + note("G", 5, 2)])).score.parts[0];
     expect(twoPlayersOf(single)).toBeNull();
@@ -115,5 +143,8 @@ describe("the upper and lower line of a staff with two players", () => {
       ]),
     ).score.parts[0];
     expect(twoPlayersOf(keys)).toBeNull();
+    // A few double stops in a long line are one player (below MIN_APART).
+    const stops = read(partwise([attrs(1) + note("A", 5, 1) + note("D", 5, 1, { chord: true }) + note("G", 5, 1) + note("F", 5, 1) + note("E", 5, 1), ...Array.from({ length: 4 }, () => note("D", 5, 4))])).score.parts[0];
+    expect(twoPlayersOf(stops)).toBeNull();
   });
 });
