@@ -3,6 +3,7 @@
  * resolutions, phrases, and the suggestions built from them. Pure and deterministic.
  */
 import type { PartModel, ScoreModel } from "@/lib/musicxml/model";
+import { lineOf, twoPlayersOf, type Line } from "@/lib/musicxml/lines";
 import type { AnalyzedNote, LocalKey, PartAnalysis, ScoreAnalysis, Suggestion } from "./types";
 import { degreeOf } from "./degree";
 import { type Key, keyFromSignature, majorOf, toKeyResult } from "./key";
@@ -16,13 +17,22 @@ import { phraseSuggestions, rankByPhrase, tensionSuggestions } from "./suggestio
 import { findTensions } from "./tension";
 
 /** Bump whenever results change: stored analyses with another version are recomputed. */
-export const ANALYSIS_VERSION = 2;
+export const ANALYSIS_VERSION = 3;
+
+export interface AnalyzeOptions {
+  /** For a staff carrying two players: whose line is analysed (the upper by default). */
+  line?: Line;
+}
 
 const ROLE_ORDER: Record<Suggestion["role"], number> = { "phrase-start": 0, peak: 1, tension: 2, resolution: 3 };
 
-export function analyzePart(score: ScoreModel, part: PartModel): PartAnalysis {
+export function analyzePart(score: ScoreModel, part: PartModel, options: AnalyzeOptions = {}): PartAnalysis {
   const timeline = buildTimeline(score, part);
-  const melody = extractMelody(part, timeline);
+  // Two players on the staff: the chosen player's line is the melody, the other line sounds with
+  // it (the accompaniment below counts this part's notes outside the melody).
+  const players = twoPlayersOf(part);
+  const line = players ? (options.line ?? "upper") : null;
+  const melody = extractMelody(part, timeline, line ? lineOf(part, line, players) : undefined);
   const main = melody.filter((n) => !n.grace);
   const sections: KeySection[] = part.measures.length > 0 ? keySections(part.measures, melody) : [];
   const bars = barEvidence(score, part, timeline, melody);
@@ -101,6 +111,7 @@ export function analyzePart(score: ScoreModel, part: PartModel): PartAnalysis {
     notes,
     phrases: phrases.map((p) => ({ start: main[p.start].note.key, peak: main[p.peak].note.key, end: main[p.end].note.key })),
     suggestions,
+    ...(players && line ? { lines: { writtenAs: players.writtenAs, line } } : {}),
   };
 }
 

@@ -23,7 +23,8 @@ export interface MelodyNote {
   /** 3 = downbeat, 2 = other strong beat, 1 = beat, 0 = off the beat. */
   metric: number;
   grace: boolean;
-  /** True when the note is the top of a chord written in this voice. */
+  /** True when the note is the top of a chord written in this voice (for a staff's lower line,
+   * the bottom): its chord's other notes sound with it, so it is a chord tone. */
   chordTop: boolean;
 }
 
@@ -101,14 +102,23 @@ export function melodyVoice(part: PartModel): { staff: number; voice: string } |
   return { staff: topStaff, voice: best };
 }
 
-/** The melody of a part in time order: grace notes before their main note, chords → top note. */
-export function extractMelody(part: PartModel, timeline: Timeline): MelodyNote[] {
-  const mv = melodyVoice(part);
-  if (!mv) return [];
+/**
+ * The melody of a part in time order: grace notes before their main note, chords → top note.
+ * `line`, for a staff carrying two players, is the chosen player's line (lib/musicxml/lines.ts):
+ * its notes are the melody whatever voice each is written in.
+ */
+export function extractMelody(part: PartModel, timeline: Timeline, line?: PartModel): MelodyNote[] {
+  const mv = line ? null : melodyVoice(part);
+  if (!line && !mv) return [];
   const out: MelodyNote[] = [];
   let last: MelodyNote | null = null;
-  for (const n of part.notes) {
-    if (n.isRest || n.isCue || !n.pitch || n.staff !== mv.staff || n.voice !== mv.voice) continue;
+  // A line holds one note of each written chord; the chord's other notes still sound with it.
+  const slot = (n: Note) => `${n.measureIndex}|${n.staff}|${n.voice}|${n.onset.num}/${n.onset.den}|${n.isGrace ? n.graceIndex : 0}`;
+  const chordSize = new Map<string, number>();
+  if (line) for (const n of part.notes) if (!n.isRest && n.pitch) chordSize.set(slot(n), (chordSize.get(slot(n)) ?? 0) + 1);
+  for (const n of line ? line.notes : part.notes) {
+    if (n.isRest || n.isCue || !n.pitch) continue;
+    if (mv && (n.staff !== mv.staff || n.voice !== mv.voice)) continue;
     // Chord members share the measure, onset and grace slot of the note they sound with.
     if (
       last &&
@@ -140,7 +150,7 @@ export function extractMelody(part: PartModel, timeline: Timeline): MelodyNote[]
       onset,
       metric: n.isGrace ? 0 : metricStrength(onset, part.measures[n.measureIndex]),
       grace: n.isGrace,
-      chordTop: false,
+      chordTop: line !== undefined && (chordSize.get(slot(n)) ?? 0) > 1,
     };
     out.push(last);
   }

@@ -80,6 +80,11 @@ export interface PartAnalysis {
   notes: AnalyzedNote[];
   phrases: PhraseResult[];
   suggestions: Suggestion[];
+  /**
+   * Present when the staff carries two players (lib/musicxml/lines.ts): how they are written and
+   * whose line the notes, phrases and suggestions above follow.
+   */
+  lines?: { writtenAs: "chords" | "voices"; line: "upper" | "lower" };
 }
 
 export interface ScoreAnalysis {
