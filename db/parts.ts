@@ -205,7 +205,7 @@ export async function updatePartById({
   expectedVersion,
 }: {
   partId: string;
-  changes: Partial<Pick<Part, "title" | "composer" | "chosenPartId" | "noteKeys" | "keyLabel" | "tempo" | "workingTempo" | "measureCount" | "noteCount">>;
+  changes: Partial<Pick<Part, "title" | "composer" | "chosenPartId" | "noteKeys" | "keyLabel" | "tempo" | "workingTempo" | "measureCount" | "noteCount" | "line">>;
   expectedVersion?: number;
 }): Promise<Part> {
   const where = expectedVersion === undefined ? eq(parts.id, partId) : and(eq(parts.id, partId), eq(parts.version, expectedVersion));
@@ -222,6 +222,11 @@ export async function updatePartById({
 
 export async function storeAnalysisById({ partId, analysis, analysisVersion }: { partId: string; analysis: unknown; analysisVersion: number }) {
   await db().update(parts).set({ analysis, analysisVersion }).where(eq(parts.id, partId));
+}
+
+/** Keeps the chosen part's analysis on the lower line, under the key it was made for. */
+export async function storeLineAnalysisById({ partId, key, analysis }: { partId: string; key: string; analysis: unknown }) {
+  await db().update(parts).set({ lineAnalysis: { key, analysis } }).where(eq(parts.id, partId));
 }
 
 /** Deleting a part removes its markings, history, comments, proposals and invitations (cascade). */

@@ -1,6 +1,7 @@
 import "server-only";
 import { workingTempoOf } from "@/lib/parts/working-tempo";
-import { analyzeScore, ANALYSIS_VERSION } from "@/lib/analysis";
+import { analyzePart, analyzeScore, ANALYSIS_VERSION } from "@/lib/analysis";
+import type { Line } from "@/lib/musicxml/lines";
 import type { PartAnalysis, ScoreAnalysis } from "@/lib/analysis/types";
 import { assertCan, type Action } from "@/lib/auth/policy";
 import { notFound, redirect } from "next/navigation";
@@ -16,7 +17,7 @@ import type { MarkingValues } from "@/lib/markings/schema";
 import { selectPartsXml } from "@/lib/musicxml";
 import type { listPartsQuery, patchPartBody } from "@/lib/parts/schemas";
 import type { z } from "zod";
-import { deletePartById, getPartAccessById, insertPart, listPartsForViewer, newPartValues, storeAnalysisById, updatePartById, type PartAccess } from "@/db/parts";
+import { deletePartById, getPartAccessById, insertPart, listPartsForViewer, newPartValues, storeAnalysisById, storeLineAnalysisById, updatePartById, type PartAccess } from "@/db/parts";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import type { Part } from "@/db/schema";
@@ -132,11 +133,28 @@ export async function analysisOf(part: Part): Promise<ScoreAnalysis> {
   return analysis;
 }
 
-export async function chosenPartAnalysis(part: Part): Promise<PartAnalysis> {
+/**
+ * The chosen part's analysis on the player's line (or on `line`). The stored analysis holds every
+ * part on its upper line; the lower line of a staff carrying two players is analysed on first
+ * request and kept under a key of the analysis version, the part and the line.
+ */
+export async function chosenPartAnalysis(part: Part, line: Line = part.line): Promise<PartAnalysis> {
   const analysis = await analysisOf(part);
   const result = analysis.parts.find((p) => p.id === part.chosenPartId);
   if (!result) throw new AppError("not_found:analysis", "The analysis of this part is missing. Upload the file again.");
-  return result;
+  if (line === "upper" || !result.lines) return result;
+  const key = lineAnalysisKey(part.chosenPartId, line);
+  if (part.lineAnalysis?.key === key) return part.lineAnalysis.analysis as PartAnalysis;
+  const { score } = readScoreFile(new TextEncoder().encode(part.musicxml), "stored.musicxml", readLimits());
+  const chosen = score.parts.find((p) => p.id === part.chosenPartId);
+  if (!chosen) throw new AppError("not_found:analysis", "The analysis of this part is missing. Upload the file again.");
+  const onLine = analyzePart(score, chosen, { line });
+  await storeLineAnalysisById({ partId: part.id, key, analysis: onLine });
+  return onLine;
+}
+
+export function lineAnalysisKey(partId: string, line: Line): string {
+  return `${ANALYSIS_VERSION}:${partId}:${line}`;
 }
 
 export function partDto(access: PartAccess) {
@@ -151,6 +169,8 @@ export function partDto(access: PartAccess) {
     writtenTempo: p.tempo,
     workingTempo: p.workingTempo,
     chosenPartId: p.chosenPartId,
+    /** Whose line of a two-player staff the analysis, practice and playback follow. */
+    line: p.line,
     parts: p.partList,
     measureCount: p.measureCount,
     noteCount: p.noteCount,
@@ -194,6 +214,18 @@ export async function updatePart(user: CurrentUser, partId: string, body: z.infe
   if (body.title !== undefined) changes.title = body.title;
   if (body.composer !== undefined) changes.composer = body.composer;
   if (body.workingTempo !== undefined) changes.workingTempo = body.workingTempo;
+  const choosesPart = body.chosenPart !== undefined && body.chosenPart !== access.part.chosenPartId;
+  if (body.line !== undefined) {
+    // The lower line exists only where the staff carries two players (the analysis says).
+    const chosen = (await analysisOf(access.part)).parts.find((p) => p.id === (body.chosenPart ?? access.part.chosenPartId));
+    if (body.line === "lower" && !chosen?.lines) {
+      throw new AppError("bad_request:line", "This part has one player on its staff, so there is no lower line to choose.", { field: "line" });
+    }
+    changes.line = body.line;
+  } else if (choosesPart) {
+    // Another part of the score starts on its upper line.
+    changes.line = "upper";
+  }
   if (body.chosenPart !== undefined && body.chosenPart !== access.part.chosenPartId) {
     if (!access.part.partList.some((p) => p.id === body.chosenPart)) {
       throw new AppError("bad_request:chosen_part", `This score has no part "${body.chosenPart}". Choose one of: ${access.part.partList.map((p) => p.id).join(", ")}.`, { field: "chosenPart" });
@@ -212,10 +244,13 @@ export async function deletePart(user: CurrentUser, partId: string): Promise<{ i
   return { id: partId, deleted: true };
 }
 
-/** The chosen part's analysis, in the same shape as one part of the command line's output. */
-export async function getPartAnalysis(user: CurrentUser, partId: string): Promise<PartAnalysis> {
+/**
+ * The chosen part's analysis, in the same shape as one part of the command line's output, on the
+ * player's line or on the `line` asked for.
+ */
+export async function getPartAnalysis(user: CurrentUser, partId: string, line?: Line): Promise<PartAnalysis> {
   const { part } = await loadPart(user, partId, "part:view");
-  return chosenPartAnalysis(part);
+  return chosenPartAnalysis(part, line ?? part.line);
 }
 
 function fileStem(title: string): string {
@@ -241,7 +276,7 @@ export async function exportPart(user: CurrentUser, partId: string, format: "mus
   const { score } = readScoreFile(new TextEncoder().encode(part.musicxml), "stored.musicxml", readLimits());
   const chosen = score.parts.find((p) => p.id === part.chosenPartId);
   if (!chosen) throw new AppError("not_found:part", "The chosen part is missing from the score. Choose the part again.");
-  return { body: new Uint8Array(renderMidi(chosen, markings, { workingTempo: workingTempoOf(part) })), contentType: "audio/midi", fileName: `${stem}-vibrato.mid` };
+  return { body: new Uint8Array(renderMidi(chosen, markings, { workingTempo: workingTempoOf(part), line: part.line })), contentType: "audio/midi", fileName: `${stem}-vibrato.mid` };
 }
 
 /**

@@ -13,6 +13,8 @@ export const vibratoShape = pgEnum("marking_shape", ["steady", "growing", "fadin
 export const markingRole = pgEnum("marking_role", ["phrase-start", "peak", "tension", "resolution"]);
 export const historyAction = pgEnum("history_action", ["create", "update", "delete"]);
 export const suggestionDecision = pgEnum("suggestion_decision", ["accepted", "dismissed"]);
+/** Which player's line of a staff carrying two players (lib/musicxml/lines.ts). */
+export const partLine = pgEnum("part_line", ["upper", "lower"]);
 
 export const parts = pgTable(
   "parts",
@@ -41,6 +43,14 @@ export const parts = pgTable(
     /** The analysis result of every part of the score (command-line shape), with its version. */
     analysis: jsonb("analysis"),
     analysisVersion: integer("analysis_version").notNull().default(0),
+    /**
+     * The player's line when the chosen part's staff carries two players: analysis, practice and
+     * playback follow it. `analysis` holds every part on its upper line.
+     */
+    line: partLine("line").notNull().default("upper"),
+    /** The chosen part's analysis on the lower line, kept under the key it was made for
+     * (analysis version, part, line), so switching lines does not analyse again. */
+    lineAnalysis: jsonb("line_analysis").$type<{ key: string; analysis: unknown }>(),
     /** What the reader read as written and the player should know (lib/musicxml ReadNotice messages). */
     readNotices: jsonb("read_notices").$type<string[]>().notNull().default(sql`'[]'::jsonb`),
     version: integer("version").notNull().default(1),

@@ -297,3 +297,36 @@ describe("MIDI export", () => {
     expect(after).toContain(100);
   });
 });
+
+describe("a staff carrying two players (our two-flute sample, tests/fixtures/real/ours)", async () => {
+  const fs = await import("node:fs");
+  const path = await import("node:path");
+  const { readScoreFile } = await import("@/lib/musicxml");
+  const file = path.resolve(import.meta.dirname, "../../tests/fixtures/real/ours/two-flutes-chords.musicxml");
+  const part = readScoreFile(new Uint8Array(fs.readFileSync(file)), "two-flutes-chords.musicxml").score.parts[0];
+  const pitches = (t: Midi["tracks"][number]) => t.notes.map((n) => n.midi);
+
+  it("plays the chosen line with its vibrato, and the other player's own notes quieter on a second track", () => {
+    const marked = part.notes.find((n) => n.pitch?.name === "D5")!;
+    const lower = new Midi(renderMidi(part, new Map([[marked.key, { ...base, depthCents: 20, speedHz: 5 }]]), { line: "lower" }));
+    expect(lower.tracks).toHaveLength(2);
+    // Flute 2: D5 E5 F♯5 | G5 F♯5 E5 | a2 A5 B5 C♯6 D6 | A5.
+    expect(pitches(lower.tracks[0])).toEqual([74, 76, 78, 79, 78, 76, 81, 83, 85, 86, 81]);
+    expect(lower.tracks[0].pitchBends.length).toBeGreaterThan(0);
+    // Flute 1's own notes (the a2 bar sounds once, on the player's track).
+    expect(pitches(lower.tracks[1])).toEqual([78, 79, 81, 83, 81, 79, 86]);
+    expect(lower.tracks[1].channel).toBe(1);
+    expect(lower.tracks[1].pitchBends).toEqual([]);
+    for (const n of lower.tracks[1].notes) expect(n.velocity).toBeLessThan(lower.tracks[0].notes[0].velocity);
+
+    const upper = new Midi(renderMidi(part, new Map(), { line: "upper" }));
+    expect(pitches(upper.tracks[0])).toEqual([78, 79, 81, 83, 81, 79, 81, 83, 85, 86, 86]);
+    expect(pitches(upper.tracks[1])).toEqual([74, 76, 78, 79, 78, 76, 81]);
+  });
+
+  it("without a line, every note plays on one track as before", () => {
+    const all = new Midi(renderMidi(part, new Map()));
+    expect(all.tracks).toHaveLength(1);
+    expect(all.tracks[0].notes).toHaveLength(part.notes.filter((n) => !n.isRest).length);
+  });
+});

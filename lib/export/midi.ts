@@ -1,6 +1,7 @@
 import { Midi } from "@tonejs/midi";
 import type { MarkingValues } from "@/lib/markings/schema";
 import type { Measure, Note, PartModel } from "@/lib/musicxml/model";
+import { lineOf, otherLineOnly, twoPlayersOf, type Line } from "@/lib/musicxml/lines";
 import { centsToSignedBend } from "./pitch-bend";
 import { centsAt, EXPRESSION_STEADY, expressionAt, oscillates, vibratoStartSeconds, type NoteSpan } from "./vibrato-curve";
 
@@ -19,6 +20,13 @@ export interface MidiOptions {
    * scaled by the same factor. Without it, the written tempos (120 where the part has none).
    */
   workingTempo?: number | null;
+  /**
+   * For a staff carrying two players: the player's line plays on the first track with its
+   * vibrato; the other player's own notes (not the shared ones) play on a second track, quieter
+   * and plain, so the line is heard against its partner and can be muted. Without it, or on a
+   * staff with one player, every note plays on one track.
+   */
+  line?: Line;
 }
 
 /**
@@ -46,6 +54,8 @@ const CC_EXPRESSION = 11;
 const FIRST_BEND_TICK = 3;
 const EXPRESSION_POINTS = 16;
 const VELOCITY = 0.7;
+/** The other line's level: half the player's line, audible without covering it. */
+export const OTHER_LINE_VELOCITY = 0.35;
 const DEFAULT_TEMPO = 120;
 
 /** Controller value for @tonejs/midi, which writes floor(value · 127): aim at the middle of the step. */
@@ -114,6 +124,9 @@ export function renderMidi(
   options: MidiOptions = {},
 ): Uint8Array {
   part = atWorkingTempo(part, options.workingTempo);
+  const players = options.line ? twoPlayersOf(part) : null;
+  const mine = players ? lineOf(part, options.line!, players) : part;
+  const other = players ? otherLineOnly(part, options.line!, players) : [];
   const semitones = options.bendRangeSemitones ?? 2;
   const program = options.program ?? 73;
   if (!Number.isInteger(semitones) || semitones < 1 || semitones > 24) {
@@ -148,7 +161,7 @@ export function renderMidi(
 
   let bentUntil = -Infinity;
   let expression = EXPRESSION_STEADY;
-  for (const s of soundingNotes(part, markings)) {
+  for (const s of soundingNotes(mine, markings)) {
     const startTicks = map.toTicks(s.startSeconds);
     const endSeconds = s.startSeconds + s.durationSeconds;
     const endTicks = Math.max(startTicks + 1, map.toTicks(endSeconds));
@@ -189,6 +202,18 @@ export function renderMidi(
         track.addPitchBend({ ticks, value: centsToSignedBend(centsAt(m, s, t), semitones) });
       }
       track.addPitchBend({ ticks: Math.max(FIRST_BEND_TICK, endTicks), value: 0 });
+    }
+  }
+
+  if (other.length > 0) {
+    const partner = midi.addTrack();
+    partner.name = `${part.name} (other line)`;
+    partner.channel = 1;
+    partner.instrument.number = program;
+    for (const s of soundingNotes({ ...part, notes: other }, new Map())) {
+      const startTicks = map.toTicks(s.startSeconds);
+      const endTicks = Math.max(startTicks + 1, map.toTicks(s.startSeconds + s.durationSeconds));
+      partner.addNote({ midi: s.note.pitch!.midi, ticks: startTicks, durationTicks: endTicks - startTicks, velocity: OTHER_LINE_VELOCITY });
     }
   }
   return midi.toArray();

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { LINES } from "@/lib/musicxml/lines";
 
 export const partIdParams = z.object({ partId: z.string().uuid("That is not a part id.") });
 
@@ -23,10 +24,15 @@ export const patchPartBody = z
       .max(300, "A working tempo is at most ♩ = 300.")
       .nullable()
       .optional(),
+    /** Whose line of a staff carrying two players the analysis, practice and playback follow. */
+    line: z.enum(LINES, { error: 'The line is "upper" or "lower".' }).optional(),
     version: z.number().int().positive().optional(),
   })
-  .refine((b) => b.title !== undefined || b.composer !== undefined || b.chosenPart !== undefined || b.workingTempo !== undefined, {
-    message: "Send at least one of title, composer, chosenPart or workingTempo.",
+  .refine((b) => b.title !== undefined || b.composer !== undefined || b.chosenPart !== undefined || b.workingTempo !== undefined || b.line !== undefined, {
+    message: "Send at least one of title, composer, chosenPart, workingTempo or line.",
   });
+
+/** `?line=` on the analysis: the line to analyse instead of the one the player chose. */
+export const analysisQuery = z.object({ line: z.enum(LINES, { error: 'The line is "upper" or "lower".' }).optional() });
 
 export const sampleBody = z.object({ name: z.string().regex(/^[a-z0-9-]+\.(musicxml|mxl)$/, "Unknown sample.") });
