@@ -10,7 +10,8 @@ export const partKeys = {
   samples: () => ["parts", "samples"] as const,
   detail: (partId: string) => ["parts", partId] as const,
   musicxml: (partId: string) => ["parts", partId, "musicxml"] as const,
-  analysis: (partId: string) => ["parts", partId, "analysis"] as const,
+  /** The analysis on a line of a two-player staff; "chosen" = the player's line as stored. */
+  analysis: (partId: string, line: "upper" | "lower" | "chosen" = "chosen") => ["parts", partId, "analysis", line] as const,
 };
 
 export const markingKeys = {

@@ -39,6 +39,10 @@ class FakeServer {
     suggestions: [{ note: K[3], measure: "3", pitch: "B4", role: "tension", confidence: 0.9, resolvesTo: K[4], reason: "B is the leading tone of C major; it rises to C." }],
   };
 
+  /** The player's line; `lowerAnalysis` set = the staff carries two players. */
+  line: "upper" | "lower" = "upper";
+  lowerAnalysis: PartAnalysis | null = null;
+
   set(noteKey: string, values: Partial<MarkingDto>) {
     const before = this.markings.get(noteKey) ?? null;
     const after = { ...(before ?? {}), ...values, noteKey, version: (before?.version ?? 0) + 1, authorId: "u", updatedAt: new Date().toISOString() } as MarkingDto;
@@ -53,9 +57,14 @@ class FakeServer {
     this.requests.push({ method, url: url.pathname + url.search, body });
     const path = url.pathname.replace("/api/parts/part-1", "");
     const json = (data: unknown, status = 200) => new Response(JSON.stringify(data), { status, headers: { "content-type": "application/json" } });
-    if (path === "") return json({ id: "part-1", title: "Little Air", composer: "A. Maker", keyLabel: "C major", tempo: 60, chosenPartId: "P1", parts: [], measureCount: 3, noteCount: 5, version: 1, updatedAt: "", permission: "owner" });
+    if (path === "" && method === "PATCH" && body.line) this.line = body.line;
+    if (path === "") return json({ id: "part-1", title: "Little Air", composer: "A. Maker", keyLabel: "C major", tempo: 60, chosenPartId: "P1", ...(this.lowerAnalysis ? { line: this.line } : {}), parts: [], measureCount: 3, noteCount: 5, version: 1, updatedAt: "", permission: "owner" });
     if (path === "/musicxml") return new Response("<score-partwise/>", { status: 200 });
-    if (path === "/analysis") return json(this.analysis);
+    if (path === "/analysis") {
+      if (!this.lowerAnalysis) return json(this.analysis);
+      const line = url.searchParams.get("line") ?? this.line;
+      return json(line === "lower" ? this.lowerAnalysis : { ...this.analysis, lines: { writtenAs: "voices", line: "upper" } });
+    }
     if (path === "/markings") return json({ markings: [...this.markings.values()] });
     if (path === "/history") return json({ canUndo: this.history.some((h) => !h.undone), canRedo: this.history.some((h) => h.undone), entries: [] });
     if (path === "/suggestions/decisions") return json({ decisions: [] });
@@ -265,5 +274,29 @@ describe("Workspace", () => {
     expect(screen.getByRole("heading", { name: "2 notes, bars 1–2" })).toBeTruthy();
     fireEvent.keyDown(score, { key: "Escape" });
     expect(document.querySelector('[data-focus="true"]')).toBeNull();
+  });
+
+  it("offers Upper and Lower on a staff with two players, and the suggestions follow the line chosen", async () => {
+    server.lowerAnalysis = {
+      ...server.analysis,
+      lines: { writtenAs: "voices", line: "lower" },
+      suggestions: [{ note: K[1], measure: "1", pitch: "D5", role: "phrase-start", confidence: 0.8, resolvesTo: null, reason: "A phrase begins on D in bar 1." }],
+    };
+    open();
+    await screen.findByText("B is the leading tone of C major; it rises to C.");
+    const group = await screen.findByRole("radiogroup", { name: "Line:" });
+    expect((within(group).getByRole("radio", { name: "Upper" }) as HTMLInputElement).checked).toBe(true);
+    fireEvent.click(within(group).getByRole("radio", { name: "Lower" }));
+    await screen.findByText("A phrase begins on D in bar 1.");
+    expect(screen.queryByText("B is the leading tone of C major; it rises to C.")).toBeNull();
+    expect(server.requests).toEqual(expect.arrayContaining([{ method: "PATCH", url: "/api/parts/part-1", body: { line: "lower" } }]));
+    expect(server.requests.some((r) => r.url === "/api/parts/part-1/analysis?line=lower")).toBe(true);
+    expect((within(screen.getByRole("radiogroup", { name: "Line:" })).getByRole("radio", { name: "Lower" }) as HTMLInputElement).checked).toBe(true);
+  });
+
+  it("offers no line on a staff with one player", async () => {
+    open();
+    await screen.findByText("B is the leading tone of C major; it rises to C.");
+    expect(screen.queryByRole("radiogroup", { name: "Line:" })).toBeNull();
   });
 });

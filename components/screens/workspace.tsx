@@ -15,6 +15,8 @@ import type { MarkingValues } from "@/lib/markings/schema";
 import type { Move } from "@/lib/markings/selection";
 import { pendingSuggestions } from "@/lib/markings/suggestions";
 import { useAnalysis } from "@/components/score/api/get-analysis";
+import { useSetLine } from "@/components/score/api/set-line";
+import { LineChoice } from "@/components/score/line-choice";
 import { useHistory } from "@/components/score/api/get-history";
 import { useMarkings } from "@/components/score/api/get-markings";
 import { useMusicXml } from "@/components/score/api/get-musicxml";
@@ -87,7 +89,9 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   // compete with the engraving and delay its first paint.
   const [scoreSettled, setScoreSettled] = useState(false);
   const afterScore = { enabled: scoreSettled || xml.isError };
-  const analysis = useAnalysis(partId, afterScore);
+  // The player's line of a two-player staff is part of the analysis' key: a change asks again.
+  const analysis = useAnalysis(partId, { ...afterScore, line: part.data?.line });
+  const setLine = useSetLine(partId);
   const markingsQuery = useMarkings(partId);
   const decisionsQuery = useDecisions(partId);
   const history = useHistory(partId, afterScore);
@@ -404,6 +408,16 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
             <p className="text-sm text-graphite" data-testid="sounding-key">
               {sounding}
             </p>
+          ) : null}
+          {analysis.data?.lines && part.data ? (
+            <LineChoice
+              writtenAs={analysis.data.lines.writtenAs}
+              line={part.data.line}
+              canEdit={canEdit}
+              saving={setLine.isPending}
+              error={setLine.error?.message ?? null}
+              onChange={(line) => setLine.mutate(line)}
+            />
           ) : null}
         </div>
         <SaveIndicator state={saveState} error={saveError} />

@@ -14,6 +14,8 @@ export interface PartDetail {
   writtenTempo: number | null;
   workingTempo: number | null;
   chosenPartId: string;
+  /** Whose line of a two-player staff the analysis, practice and playback follow. */
+  line: "upper" | "lower";
   parts: { id: string; name: string }[];
   measureCount: number;
   noteCount: number;
