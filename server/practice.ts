@@ -79,7 +79,7 @@ export async function loadPracticeRoom({ partId, path }: { partId: string; path:
   const canWrite = canWritePractice(user, access);
   return {
     // The working tempo (null: the part gives none and the player has not said yet).
-    part: { title: part.title, tempo: workingTempoOf(part), noteKeys: part.noteKeys, isOwner: user.id === part.ownerId },
+    part: { title: part.title, tempo: workingTempoOf(part), noteKeys: part.noteKeys, isOwner: user.id === part.ownerId, line: analysis.lines?.line ?? null },
     notes,
     canWrite,
     log: { ...log, canWrite },

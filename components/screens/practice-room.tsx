@@ -34,6 +34,8 @@ interface Props {
   /** True when the part has no tempo marking and `tempo` is our assumption. */
   tempoAssumed: boolean;
   notes: PracticeNote[];
+  /** On a staff carrying two players: whose line `notes` are (chosen in the score). */
+  line?: "upper" | "lower" | null;
   canWrite: boolean;
   /** The note to open on (from `?note=`); otherwise the first marked note. */
   initialNoteKey?: string | null;
@@ -56,7 +58,7 @@ function markingSummary(m: MarkingValues | null): string {
 }
 
 /** The practice page of one part: choose a note, then drill it with the pulse trainer, the hold ladder and takes. */
-export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, canWrite, initialNoteKey = null, serverToday }: Props) {
+export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, line = null, canWrite, initialNoteKey = null, serverToday }: Props) {
   const marked = useMemo(() => notes.filter((n) => n.marking), [notes]);
   const others = useMemo(() => notes.filter((n) => !n.marking), [notes]);
   const [noteKey, setNoteKey] = useState<string | null>(initialNoteKey ?? marked[0]?.key ?? notes[0]?.key ?? null);
@@ -109,6 +111,11 @@ export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, canWri
             ♩ = {fmt(tempo, 0)}
             {tempoAssumed ? " (no tempo is written in the part; this one is assumed — change it in the pulse trainer)" : ""}
           </p>
+          {line ? (
+            <p className="text-sm text-graphite" data-testid="practice-line">
+              Two players share this staff: you practise the {line} line (choose the line in the score).
+            </p>
+          ) : null}
         </div>
       </header>
 

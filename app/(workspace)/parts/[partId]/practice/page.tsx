@@ -31,7 +31,7 @@ export default async function PracticePage({ params, searchParams }: { params: P
           <PracticeTempoPrompt partId={partId} />
         </div>
       ) : null}
-      <PracticeRoom partId={partId} title={part.title} tempo={part.tempo ?? ASSUMED_TEMPO} tempoAssumed={part.tempo === null} notes={room.notes} canWrite={room.canWrite} initialNoteKey={initialNoteKey} serverToday={utcIsoDate(new Date())} />
+      <PracticeRoom partId={partId} title={part.title} tempo={part.tempo ?? ASSUMED_TEMPO} tempoAssumed={part.tempo === null} notes={room.notes} line={part.line} canWrite={room.canWrite} initialNoteKey={initialNoteKey} serverToday={utcIsoDate(new Date())} />
     </HydrationBoundary>
   );
 }
