@@ -47,7 +47,7 @@ export function LineChoice({ writtenAs, line, canEdit, saving = false, error = n
           {LABEL[l]}
         </label>
       ))}
-      <p id={`${id}-help`} className="basis-full text-graphite sm:basis-auto">
+      <p id={`${id}-help`} className="min-w-0 flex-1 basis-64 text-graphite">
         Two players share this staff, written {written}. Suggestions, practice and Listen follow the {line} line; passages written once (a2) belong to both.
         {canEdit ? "" : " The part’s owner chooses the line."}
       </p>

@@ -409,16 +409,6 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
               {sounding}
             </p>
           ) : null}
-          {analysis.data?.lines && part.data ? (
-            <LineChoice
-              writtenAs={analysis.data.lines.writtenAs}
-              line={part.data.line}
-              canEdit={canEdit}
-              saving={setLine.isPending}
-              error={setLine.error?.message ?? null}
-              onChange={(line) => setLine.mutate(line)}
-            />
-          ) : null}
         </div>
         <SaveIndicator state={saveState} error={saveError} />
         <div className="flex items-center gap-1" role="group" aria-label="History">
@@ -465,6 +455,20 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
           <ExportMenu partId={partId} />
         </div>
       </div>
+
+      {analysis.data?.lines && part.data ? (
+        // A staff carrying two players: whose line the analysis, practice and Listen follow.
+        <div className="no-print border-b border-rule px-gutter py-1">
+          <LineChoice
+            writtenAs={analysis.data.lines.writtenAs}
+            line={part.data.line}
+            canEdit={canEdit}
+            saving={setLine.isPending}
+            error={setLine.error?.message ?? null}
+            onChange={(line) => setLine.mutate(line)}
+          />
+        </div>
+      ) : null}
 
       <div className="no-print border-b border-rule px-gutter">
         <AuditionControl keys={keys} notes={analysis.data?.notes ?? []} phrases={analysis.data?.phrases ?? []} markings={markings} tempo={tempo} />
