@@ -56,10 +56,11 @@ class FakeServer {
     const body = init.body ? JSON.parse(String(init.body)) : undefined;
     this.requests.push({ method, url: url.pathname + url.search, body, at: Date.now() });
     const isWrite = (method === "PUT" || method === "DELETE") && /\/markings\//.test(url.pathname);
-    if (isWrite && this.writesDown === "network") throw new TypeError("Failed to fetch");
-    if (isWrite && this.writesDown) {
+    const down = this.writesDown;
+    if (isWrite && down) {
+      if (down === "network") throw new TypeError("Failed to fetch");
       return new Response(JSON.stringify({ code: "unavailable:database", message: "Try again in a few seconds." }), {
-        status: 503, headers: { "content-type": "application/json", "retry-after": String(this.writesDown.retryAfter) },
+        status: 503, headers: { "content-type": "application/json", "retry-after": String(down.retryAfter) },
       });
     }
     const path = url.pathname.replace("/api/parts/part-1", "");
