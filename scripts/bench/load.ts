@@ -12,6 +12,7 @@ import path from "node:path";
 import { performance } from "node:perf_hooks";
 import { pathToFileURL } from "node:url";
 import { and, eq } from "drizzle-orm";
+import { Client } from "pg";
 import type { BenchSection } from "./index";
 import { percentile } from "./util";
 import { generatePartXml } from "./generate-part";
@@ -50,6 +51,23 @@ function pgInChild(op: "stop" | "start", cluster: Cluster): Promise<void> {
 }
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+
+/** Resolves when the database answers a query again (polled every 50 ms). */
+async function databaseAnswers(url: string): Promise<void> {
+  for (;;) {
+    const client = new Client({ connectionString: url, connectionTimeoutMillis: 1000 });
+    client.on("error", () => {});
+    try {
+      await client.connect();
+      await client.query("select 1");
+      return;
+    } catch {
+      await sleep(50);
+    } finally {
+      await client.end().catch(() => {});
+    }
+  }
+}
 const ok = (status: number) => status >= 200 && status < 300;
 const stats = (xs: number[]) => {
   const sorted = [...xs].sort((a, b) => a - b);
@@ -129,6 +147,7 @@ const section: BenchSection = {
     let stoppingAt = NaN;
     let stoppedAt = NaN;
     let startedAt = NaN;
+    let answersAt = NaN;
     const end = DURATION_MS;
     let stamps = 0; // rising across the run; one note's saves go one after another
 
@@ -168,8 +187,11 @@ const section: BenchSection = {
       await pgInChild("stop", cluster);
       stoppedAt = now();
       await sleep(OUTAGE_HOLD_MS);
-      await pgInChild("start", cluster);
-      startedAt = now();
+      // The start command also checks the role and database after the server is up.
+      await Promise.all([
+        pgInChild("start", cluster).then(() => (startedAt = now())),
+        databaseAnswers(process.env.DATABASE_URL!).then(() => (answersAt = now())),
+      ]);
     })();
     await Promise.all([
       ...players.flatMap((p) => p.keys.slice(0, SAVERS_PER_PLAYER).map((k) => saver(new Saver(p.client, p.partId, k)))),
@@ -186,10 +208,12 @@ const section: BenchSection = {
       if (!row || Number(row.comment) < ackedStamp) lost++;
     }
 
-    // The outage: from the stop command until the first request that succeeded after the start.
-    const firstOkAfter = samples.filter((s) => s.at >= startedAt && ok(s.status)).sort((a, b) => a.at - b.at)[0];
-    const firstSaveAfter = samples.filter((s) => s.kind === "save" && s.at >= startedAt && ok(s.status)).sort((a, b) => a.at - b.at)[0];
-    const outageEnd = firstOkAfter ? firstOkAfter.at : Infinity;
+    // The outage: from the stop command until the first request that succeeded after the database
+    // answered again.
+    const afterUp = (s: Sample) => s.at + s.ms >= answersAt && ok(s.status);
+    const firstOkAfter = samples.filter(afterUp).sort((a, b) => a.at + a.ms - (b.at + b.ms))[0];
+    const firstSaveAfter = samples.filter((s) => s.kind === "save" && afterUp(s)).sort((a, b) => a.at + a.ms - (b.at + b.ms))[0];
+    const outageEnd = firstOkAfter ? firstOkAfter.at + firstOkAfter.ms : Infinity;
     const inOutage = (s: Sample) => s.at + s.ms >= stoppingAt && s.at <= outageEnd;
 
     const perSecond = new Map<number, Record<string, number>>();
@@ -200,7 +224,7 @@ const section: BenchSection = {
       perSecond.set(sec, row);
     }
     const outageSeconds = (sec: number) => sec * 1000 < outageEnd && (sec + 1) * 1000 > stoppingAt;
-    console.log("status codes per second (all requests; * = the outage, stop → first success after the start):");
+    console.log("status codes per second (all requests, by when they were sent; * = the outage, stop → first success after the database answers again):");
     for (const [sec, row] of [...perSecond].sort((a, b) => a[0] - b[0])) {
       console.log(`  ${outageSeconds(sec) ? "*" : " "}${String(sec).padStart(3)} s  ${Object.entries(row).map(([k, v]) => `${k}×${v}`).join("  ")}`);
     }
@@ -216,9 +240,10 @@ const section: BenchSection = {
       { measure: "non-2xx during the outage", value: byStatus(failures.filter(inOutage)) },
       { measure: "non-2xx outside the outage (goal none)", value: byStatus(failures.filter((s) => !inOutage(s))) },
       { measure: "stop command took (ms)", value: Math.round(stoppedAt - stoppingAt) },
-      { measure: "database down: stop → started (ms)", value: Math.round(startedAt - stoppingAt) },
-      { measure: "recovery: database started → first save acknowledged (ms)", value: firstSaveAfter ? Math.round(firstSaveAfter.at + firstSaveAfter.ms - startedAt) : NaN },
-      { measure: "recovery: database started → last failure (ms)", value: failures.length ? Math.round(Math.max(...failures.map((s) => s.at)) - startedAt) : 0 },
+      { measure: "database away: stop sent → answers again (ms)", value: Math.round(answersAt - stoppingAt) },
+      { measure: "start command done after it answers (ms)", value: Math.round(startedAt - answersAt) },
+      { measure: "recovery: database answers → first save acknowledged (ms)", value: firstSaveAfter ? Math.round(firstSaveAfter.at + firstSaveAfter.ms - answersAt) : NaN },
+      { measure: "recovery: database answers → last failure answered (ms)", value: failures.length ? Math.round(Math.max(...failures.map((s) => s.at + s.ms)) - answersAt) : 0 },
     ]);
     // Latency outside the outage (the outage's own answers are fast 503s).
     const calm = (s: Sample) => ok(s.status) && !inOutage(s);
