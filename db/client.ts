@@ -11,7 +11,7 @@ export type Executor = Db | Tx;
 
 const globalForDb = globalThis as unknown as { ondulaPool?: Pool; ondulaDb?: Db };
 
-/** One pool per process. The error listener keeps a database restart from crashing the server. */
+/** One pool per process. The error listeners keep a database restart from crashing the server. */
 export function pool(): Pool {
   if (!globalForDb.ondulaPool) {
     const p = new Pool({
@@ -21,6 +21,10 @@ export function pool(): Pool {
       idleTimeoutMillis: 30_000,
     });
     p.on("error", (err) => console.error("[db] idle client error:", err.message));
+    // A client lent out to a request has no pool listener: when the server ends its connection
+    // (a restart) between two of the request's queries, the error would be thrown uncaught. The
+    // request's next query fails instead, and is answered 503 (lib/http/errors.ts).
+    p.on("connect", (client) => client.on("error", (err) => console.error("[db] client error:", err.message)));
     globalForDb.ondulaPool = p;
   }
   return globalForDb.ondulaPool;

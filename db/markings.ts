@@ -94,12 +94,7 @@ function pickValues(v: MarkingValues): MarkingValues {
   };
 }
 
-/**
- * Writes a marking if the caller edited the version that is current (`expectedVersion`
- * undefined means "there was no marking"). Otherwise nothing changes and the current marking
- * comes back, so the caller can show both and let the person choose.
- */
-export async function writeMarking(o: {
+export interface MarkingWrite {
   partId: string;
   noteKey: string;
   values: MarkingValues | null;
@@ -107,34 +102,50 @@ export async function writeMarking(o: {
   actorId: string;
   groupId: string;
   proposalId?: string;
+}
+
+/**
+ * Writes a marking if the caller edited the version that is current (`expectedVersion`
+ * undefined means "there was no marking"). Otherwise nothing changes and the current marking
+ * comes back, so the caller can show both and let the person choose.
+ */
+export async function writeMarking(o: MarkingWrite & {
   /** The caller's transaction, when the write is one step of a larger change. */
   tx?: Executor;
 }): Promise<WriteResult> {
   return (o.tx ?? db()).transaction(async (tx) => {
     await lockPart(tx, o.partId);
-    const current = await currentMarking(tx, o.partId, o.noteKey);
-    const matches = current ? current.version === o.expectedVersion : o.expectedVersion === undefined;
-    if (!matches) return { ok: false, current: current ? toMarkingDto(current) : null };
-    if (!current && o.values === null) return { ok: true, marking: null };
-    const next = await applyMarking(tx, { ...o, current });
-    // A new change after undo ends the redo chain.
-    await tx
-      .update(markingHistory)
-      .set({ discardedAt: new Date() })
-      .where(and(eq(markingHistory.partId, o.partId), isNotNull(markingHistory.undoneAt), isNull(markingHistory.discardedAt)));
-    await tx.insert(markingHistory).values({
-      partId: o.partId,
-      noteKey: o.noteKey,
-      actorId: o.actorId,
-      action: !current ? "create" : next ? "update" : "delete",
-      before: current ? toMarkingDto(current) : null,
-      after: next ? toMarkingDto(next) : null,
-      groupId: o.groupId,
-      proposalId: o.proposalId ?? null,
-    });
-    await tx.update(parts).set({ updatedAt: new Date() }).where(eq(parts.id, o.partId));
-    return { ok: true, marking: next ? toMarkingDto(next) : null };
+    return writeMarkingInLockedPart(tx, o);
   });
+}
+
+/**
+ * `writeMarking` inside the caller's transaction, which already holds the part's row lock
+ * (`getPartGrantById` with `lock`): no savepoint, no second lock.
+ */
+export async function writeMarkingInLockedPart(tx: Tx, o: MarkingWrite): Promise<WriteResult> {
+  const current = await currentMarking(tx, o.partId, o.noteKey);
+  const matches = current ? current.version === o.expectedVersion : o.expectedVersion === undefined;
+  if (!matches) return { ok: false, current: current ? toMarkingDto(current) : null };
+  if (!current && o.values === null) return { ok: true, marking: null };
+  const next = await applyMarking(tx, { ...o, current });
+  // A new change after undo ends the redo chain (a partial index finds the undone rows).
+  await tx
+    .update(markingHistory)
+    .set({ discardedAt: new Date() })
+    .where(and(eq(markingHistory.partId, o.partId), isNotNull(markingHistory.undoneAt), isNull(markingHistory.discardedAt)));
+  await tx.insert(markingHistory).values({
+    partId: o.partId,
+    noteKey: o.noteKey,
+    actorId: o.actorId,
+    action: !current ? "create" : next ? "update" : "delete",
+    before: current ? toMarkingDto(current) : null,
+    after: next ? toMarkingDto(next) : null,
+    groupId: o.groupId,
+    proposalId: o.proposalId ?? null,
+  });
+  await tx.update(parts).set({ updatedAt: new Date() }).where(eq(parts.id, o.partId));
+  return { ok: true, marking: next ? toMarkingDto(next) : null };
 }
 
 /**

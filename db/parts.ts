@@ -7,7 +7,7 @@ import type { IngestedScore } from "@/lib/parts/ingest";
 export type { PartPermission };
 import type { AnyPgColumn } from "drizzle-orm/pg-core";
 import type { MarkingValues } from "@/lib/markings/schema";
-import { db } from "./client";
+import { db, type Executor } from "./client";
 import { insertImportedMarkings } from "./markings";
 import { markings, parts, shares, users, type NewPart, type Part } from "./schema";
 
@@ -56,6 +56,36 @@ export async function getPartAccessById({ partId, viewerId }: { partId: string; 
   if (row.part.ownerId === viewerId) return { part: row.part, permission: "owner" };
   if (row.permission) return { part: row.part, permission: row.permission };
   return null;
+}
+
+/** Who may do what on a part, without the part's text, file or analysis. */
+export interface PartGrant {
+  partId: string;
+  ownerId: string;
+  permission: PartPermission;
+  /** Whether `noteKey` (when asked) is one of the part's markable notes. */
+  hasNote: boolean;
+}
+
+/**
+ * The narrow form of `getPartAccessById` for writes that need only the owner, the viewer's
+ * permission and whether a note exists: the part row's large columns (text, file, analysis) are
+ * never read. With `lock`, the part row is locked for the caller's transaction (one writer per
+ * part keeps versions and the undo chain consistent); only a viewer who may see the part gets
+ * a row, so a stranger never holds the lock.
+ */
+export async function getPartGrantById({ partId, viewerId, noteKey, lock = false, tx }: { partId: string; viewerId: string; noteKey?: string; lock?: boolean; tx?: Executor }): Promise<PartGrant | null> {
+  const result = await (tx ?? db()).execute<{ owner_id: string; permission: PartPermission | null; has_note: boolean }>(sql`
+    select ${parts.ownerId} as owner_id, ${shares.permission} as permission,
+      ${noteKey === undefined ? sql`false` : sql`${noteKey}::text = any(${parts.noteKeys})`} as has_note
+    from ${parts}
+    left join ${shares} on ${shares.partId} = ${parts.id} and ${shares.userId} = ${viewerId}
+      and ${shares.acceptedAt} is not null and ${shares.revokedAt} is null
+    where ${parts.id} = ${partId} and (${parts.ownerId} = ${viewerId} or ${shares.userId} is not null)
+    ${lock ? sql`for update of ${parts}` : sql``}`);
+  const row = result.rows[0];
+  if (!row) return null;
+  return { partId, ownerId: row.owner_id, permission: row.owner_id === viewerId ? "owner" : (row.permission as PartPermission), hasNote: row.has_note };
 }
 
 /** The row of a new part, from a read and analysed file. */

@@ -34,13 +34,15 @@ export function readLimits() {
   };
 }
 
+export const PART_NOT_FOUND = "This part does not exist, or it has not been shared with you.";
+
 /**
  * Loads a part for the viewer and checks the action through the policy. A part the viewer may
  * not see answers 404 exactly like a part that does not exist.
  */
 export async function loadPart(user: CurrentUser, partId: string, action: Action): Promise<PartAccess> {
   const access = await getPartAccessById({ partId, viewerId: user.id });
-  if (!access) throw new AppError("not_found:part", "This part does not exist, or it has not been shared with you.");
+  if (!access) throw new AppError("not_found:part", PART_NOT_FOUND);
   assertCan(user, action, {
     type: "part",
     part: { id: access.part.id, ownerId: access.part.ownerId },

@@ -12,6 +12,8 @@ export class ApiError extends Error {
     message: string,
     readonly field?: string,
     readonly body?: Partial<ErrorBody> & Record<string, unknown>,
+    /** How long the server asked us to wait before trying again (its `Retry-After`), if it said. */
+    readonly retryAfterMs?: number,
   ) {
     super(message);
     this.name = "ApiError";
@@ -31,8 +33,13 @@ export class ApiError extends Error {
   }
 
   /** An answer that is not ours (a proxy, a crash) still becomes an ApiError with a message. */
-  static fromAnswer(status: number, body: (Partial<ErrorBody> & Record<string, unknown>) | null | undefined): ApiError {
-    return new ApiError(status, body?.code ?? `http:${status}`, body?.message ?? `The server answered ${status}.`, body?.field, body ?? undefined);
+  static fromAnswer(status: number, body: (Partial<ErrorBody> & Record<string, unknown>) | null | undefined, retryAfterMs?: number): ApiError {
+    return new ApiError(status, body?.code ?? `http:${status}`, body?.message ?? `The server answered ${status}.`, body?.field, body ?? undefined, retryAfterMs);
+  }
+
+  /** Worth sending again unchanged: no answer, the server busy or away (5xx, 408, 429). */
+  get isTransient(): boolean {
+    return this.isNetwork || this.status >= 500 || this.status === 408 || this.status === 429;
   }
 }
 
@@ -48,7 +55,7 @@ async function send(url: string, init?: RequestInit): Promise<Response> {
   if (!response.ok) {
     // A proxy or a crash can answer without our JSON error shape.
     const body = await response.json().catch(() => null);
-    throw ApiError.fromAnswer(response.status, body);
+    throw ApiError.fromAnswer(response.status, body, parseRetryAfter(response.headers.get("retry-after")));
   }
   return response;
 }
@@ -79,5 +86,36 @@ export function retryTransient(failureCount: number, error: unknown): boolean {
 }
 
 export const retryDelay = (attempt: number) => Math.min(500 * 2 ** attempt, 8000);
+
+/** `Retry-After` as milliseconds: delay-seconds or an HTTP date (RFC 9110 §10.2.3); undefined when absent or unreadable. */
+export function parseRetryAfter(value: string | null, now = Date.now()): number | undefined {
+  if (!value) return undefined;
+  const text = value.trim();
+  if (/^\d+$/.test(text)) return Number(text) * 1000;
+  const at = Date.parse(text);
+  return Number.isNaN(at) ? undefined : Math.max(0, at - now);
+}
+
+/**
+ * For a player's edits, which must never be dropped: every transient failure is retried, without
+ * a limit, until the server takes the edit or refuses it (a 4xx, a conflict).
+ */
+export function retryUntilSaved(_failureCount: number, error: unknown): boolean {
+  return error instanceof ApiError && error.isTransient;
+}
+
+/** The longest wait between two tries of an edit, so a returning server is noticed soon. */
+export const SAVE_RETRY_MAX_MS = 10_000;
+
+/**
+ * Back-off for an edit's retries: 1 s, 2 s, 4 s… up to 10 s, with up to a quarter more at random
+ * so a crowd of clients does not come back in step; at least what the server's `Retry-After`
+ * asked for (up to a minute).
+ */
+export function saveRetryDelay(failureCount: number, error: unknown, random = Math.random): number {
+  const backoff = Math.min(1000 * 2 ** failureCount, SAVE_RETRY_MAX_MS) * (1 + random() / 4);
+  const asked = error instanceof ApiError && error.retryAfterMs !== undefined ? Math.min(error.retryAfterMs, 60_000) : 0;
+  return Math.round(Math.max(backoff, asked));
+}
 
 export const partUrl = (partId: string) => `/api/parts/${encodeURIComponent(partId)}`;

@@ -1,4 +1,4 @@
-import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
+import { QueryClient, QueryClientProvider, onlineManager } from "@tanstack/react-query";
 import { act, cleanup, fireEvent, render, screen, waitFor, within } from "@testing-library/react";
 import { useEffect, type ReactNode } from "react";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
@@ -30,7 +30,11 @@ const { Workspace } = await import("./workspace");
 class FakeServer {
   markings = new Map<string, MarkingDto>();
   history: { noteKey: string; before: MarkingDto | null; after: MarkingDto | null; group: string; undone: boolean }[] = [];
-  requests: { method: string; url: string; body?: unknown }[] = [];
+  requests: { method: string; url: string; body?: unknown; at: number }[] = [];
+  /** Marking writes answer 503 with this Retry-After (seconds), or get no answer at all. */
+  writesDown: { retryAfter: number } | "network" | null = null;
+  /** Marking writes that land but whose answer is lost on the way back. */
+  answersLost = 0;
   analysis: PartAnalysis = {
     id: "P1", name: "Flute", measureCount: 3, noteCount: 5,
     key: { tonic: "C", mode: "major", fifths: 0, source: "signature" }, localKeys: [],
@@ -54,7 +58,15 @@ class FakeServer {
     const method = init.method ?? "GET";
     const url = new URL(input, "http://local");
     const body = init.body ? JSON.parse(String(init.body)) : undefined;
-    this.requests.push({ method, url: url.pathname + url.search, body });
+    this.requests.push({ method, url: url.pathname + url.search, body, at: Date.now() });
+    const isWrite = (method === "PUT" || method === "DELETE") && /\/markings\//.test(url.pathname);
+    const down = this.writesDown;
+    if (isWrite && down) {
+      if (down === "network") throw new TypeError("Failed to fetch");
+      return new Response(JSON.stringify({ code: "unavailable:database", message: "Try again in a few seconds." }), {
+        status: 503, headers: { "content-type": "application/json", "retry-after": String(down.retryAfter) },
+      });
+    }
     const path = url.pathname.replace("/api/parts/part-1", "");
     const json = (data: unknown, status = 200) => new Response(JSON.stringify(data), { status, headers: { "content-type": "application/json" } });
     if (path === "" && method === "PATCH" && body.line) this.line = body.line;
@@ -93,6 +105,10 @@ class FakeServer {
       const { version: _v, group, ...values } = body;
       const after = this.set(noteKey, values);
       this.history.push({ noteKey, before: current, after, group: group ?? "g", undone: false });
+      if (this.answersLost > 0) {
+        this.answersLost -= 1;
+        throw new TypeError("Failed to fetch");
+      }
       return json({ marking: after });
     }
     return json({ code: "not_found:route", message: "none" }, 404);
@@ -103,13 +119,16 @@ let server: FakeServer;
 
 beforeEach(() => {
   engraving.hold = false;
-  server = new FakeServer();
-  vi.stubGlobal("fetch", vi.fn((input: string, init?: RequestInit) => server.fetch(input, init)));
+  // Each test's fetch reaches its own server: a write still retrying from an earlier test never lands in this one.
+  const own = (server = new FakeServer());
+  vi.stubGlobal("fetch", vi.fn((input: string, init?: RequestInit) => own.fetch(input, init)));
 });
 afterEach(() => {
   cleanup();
   vi.unstubAllGlobals();
 });
+
+afterEach(() => onlineManager.setOnline(true));
 
 function open(): { client: QueryClient } {
   const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
@@ -120,6 +139,14 @@ function open(): { client: QueryClient } {
 
 const hit = (key: string) => document.querySelector(`[data-layer="hits"] [data-note-key="${key}"]`)!;
 const saveState = () => screen.getByTestId("save-state").getAttribute("data-state");
+const saveText = () => screen.getByTestId("save-state").textContent ?? "";
+const puts = () => server.requests.filter((r) => r.method === "PUT");
+/** Whether leaving the page now would ask the player to confirm. */
+function leavingWarns(): boolean {
+  const event = new Event("beforeunload", { cancelable: true });
+  window.dispatchEvent(event);
+  return event.defaultPrevented;
+}
 
 async function setDepth(value: string) {
   const input = screen.getByLabelText(/^Depth$/, { selector: "input" });
@@ -289,7 +316,7 @@ describe("Workspace", () => {
     fireEvent.click(within(group).getByRole("radio", { name: "Lower" }));
     await screen.findByText("A phrase begins on D in bar 1.");
     expect(screen.queryByText("B is the leading tone of C major; it rises to C.")).toBeNull();
-    expect(server.requests).toEqual(expect.arrayContaining([{ method: "PATCH", url: "/api/parts/part-1", body: { line: "lower" } }]));
+    expect(server.requests).toEqual(expect.arrayContaining([expect.objectContaining({ method: "PATCH", url: "/api/parts/part-1", body: { line: "lower" } })]));
     expect(server.requests.some((r) => r.url === "/api/parts/part-1/analysis?line=lower")).toBe(true);
     expect((within(screen.getByRole("radiogroup", { name: "Line:" })).getByRole("radio", { name: "Lower" }) as HTMLInputElement).checked).toBe(true);
   });
@@ -299,4 +326,91 @@ describe("Workspace", () => {
     await screen.findByText("B is the leading tone of C major; it rises to C.");
     expect(screen.queryByRole("radiogroup", { name: "Line:" })).toBeNull();
   });
+
+  it("keeps an edit through a 503, says it is not saved yet, waits as Retry-After asks, and saves it when the server is back", async () => {
+    open();
+    await waitFor(() => expect(hit(K[1])).toBeTruthy());
+    server.writesDown = { retryAfter: 1 };
+    fireEvent.click(hit(K[1]));
+    await setDepth("45");
+    await waitFor(() => expect(saveState()).toBe("unsaved"));
+    expect(saveText()).toMatch(/Not saved yet · trying again · 1 change/);
+    // The edit stays on the page, and leaving it would warn.
+    expect(document.querySelector(`[data-glyph="wave"][data-note-key="${K[1]}"]`)).not.toBeNull();
+    expect(leavingWarns()).toBe(true);
+    await waitFor(() => expect(puts().length).toBeGreaterThanOrEqual(2), { timeout: 4000 });
+    const [first, second] = puts();
+    expect(second.at - first.at).toBeGreaterThanOrEqual(1000); // Retry-After: 1 (RFC 9110 §10.2.3)
+    expect(server.markings.has(K[1])).toBe(false);
+    server.writesDown = null;
+    await waitFor(() => expect(saveState()).toBe("saved"), { timeout: 8000 });
+    expect(server.markings.get(K[1])?.depthCents).toBe(45);
+    expect(document.querySelector(`[data-glyph="wave"][data-note-key="${K[1]}"]`)).not.toBeNull();
+    expect(leavingWarns()).toBe(false);
+  }, 15_000);
+
+  it("keeps every edit made while the network is gone and saves them all, in order, when it answers again", async () => {
+    open();
+    await waitFor(() => expect(hit(K[0])).toBeTruthy());
+    server.writesDown = "network";
+    fireEvent.click(hit(K[0]));
+    await setDepth("30");
+    await waitFor(() => expect(saveState()).toBe("unsaved"));
+    await setDepth("60");
+    fireEvent.click(hit(K[2]));
+    await setDepth("35");
+    await waitFor(() => expect(saveText()).toMatch(/3 changes/));
+    server.writesDown = null;
+    await waitFor(() => expect(saveState()).toBe("saved"), { timeout: 8000 });
+    expect(server.markings.get(K[0])?.depthCents).toBe(60);
+    expect(server.markings.get(K[2])?.depthCents).toBe(35);
+    // The second edit of K[0] went out with the version the first one got back: no conflict.
+    expect(screen.queryByRole("button", { name: "Keep mine" })).toBeNull();
+  }, 15_000);
+
+  it("waits while the browser is offline, sends nothing, and saves as soon as it is back online", async () => {
+    open();
+    await waitFor(() => expect(hit(K[1])).toBeTruthy());
+    act(() => onlineManager.setOnline(false));
+    expect(saveState()).toBe("offline");
+    fireEvent.click(hit(K[1]));
+    await setDepth("45");
+    await waitFor(() => expect(saveState()).toBe("unsaved"));
+    expect(saveText()).toMatch(/Not saved yet · offline · 1 change/);
+    expect(puts()).toHaveLength(0);
+    expect(leavingWarns()).toBe(true);
+    act(() => onlineManager.setOnline(true));
+    await waitFor(() => expect(saveState()).toBe("saved"));
+    expect(server.markings.get(K[1])?.depthCents).toBe(45);
+  });
+
+  it("takes a retried write whose first try landed (its answer lost) as saved, not as a conflict", async () => {
+    open();
+    await waitFor(() => expect(hit(K[1])).toBeTruthy());
+    server.answersLost = 1;
+    fireEvent.click(hit(K[1]));
+    await setDepth("45");
+    await waitFor(() => expect(puts()).toHaveLength(2), { timeout: 4000 });
+    await waitFor(() => expect(saveState()).toBe("saved"));
+    expect(screen.queryByRole("button", { name: "Keep mine" })).toBeNull();
+    expect(server.markings.get(K[1])).toMatchObject({ depthCents: 45, version: 1 });
+    // The next edit goes on from that version.
+    await setDepth("50");
+    await waitFor(() => expect(server.markings.get(K[1])?.depthCents).toBe(50));
+    expect(screen.queryByRole("button", { name: "Keep mine" })).toBeNull();
+  }, 10_000);
+
+  it("still sends a refused write (409) to the conflict prompt rather than retrying it", async () => {
+    server.set(K[0], { depthCents: 10, speedHz: 5, placement: "centered", onset: "immediate", shape: "steady", role: null, comment: "" });
+    open();
+    await waitFor(() => expect(document.querySelector(`[data-glyph="wave"][data-note-key="${K[0]}"]`)).not.toBeNull());
+    server.set(K[0], { depthCents: 80 });
+    fireEvent.click(hit(K[0]));
+    await setDepth("25");
+    await screen.findByTestId("conflict-prompt");
+    await new Promise((r) => setTimeout(r, 1500));
+    expect(puts()).toHaveLength(1);
+    expect(saveState()).toBe("conflict");
+    expect(leavingWarns()).toBe(true);
+  }, 10_000);
 });

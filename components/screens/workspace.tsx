@@ -22,7 +22,7 @@ import { useMarkings } from "@/components/score/api/get-markings";
 import { useMusicXml } from "@/components/score/api/get-musicxml";
 import { usePart } from "@/components/score/api/get-part";
 import { useCommitMarkings } from "@/components/score/api/save-marking";
-import { useSaveState } from "@/components/score/api/save-state";
+import { useSaveStatus } from "@/components/score/api/save-state";
 import { resolveConflict, useConflicts, useSaveError, type Conflict } from "@/components/score/api/write-state";
 import { useDecide, useDecisions } from "@/components/score/api/suggestion-decisions";
 import { useHistoryStep } from "@/components/score/api/undo-redo";
@@ -38,6 +38,7 @@ import { MarkingPanel } from "@/components/score/marking-panel";
 import { PhraseMap } from "@/components/score/phrase-map";
 import { partNameOf, soundingSentence, transpositionOf } from "@/lib/parts/transposition";
 import { SaveIndicator } from "@/components/score/save-indicator";
+import { useLeaveWarning } from "@/components/score/use-leave-warning";
 import { ScoreView, type ScoreLayout } from "@/components/score/score-view";
 import { SuggestionsPanel } from "@/components/score/suggestions-panel";
 import { fitZoom } from "@/components/score/zoom";
@@ -96,7 +97,10 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   const decisionsQuery = useDecisions(partId);
   const history = useHistory(partId, afterScore);
   const queryClient = useQueryClient();
-  const saveState = useSaveState(partId);
+  const saveStatus = useSaveStatus(partId);
+  const saveState = saveStatus.state;
+  // Edits still on their way, or waiting for the player's choice, live only in this page.
+  useLeaveWarning(saveStatus.waiting > 0 || saveState === "conflict");
   const saveError = useSaveError(queryClient, partId);
   const conflicts = useConflicts(queryClient, partId);
   const commit = useCommitMarkings(partId);
@@ -410,7 +414,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
             </p>
           ) : null}
         </div>
-        <SaveIndicator state={saveState} error={saveError} />
+        <SaveIndicator state={saveState} error={saveError} waiting={saveStatus.waiting} online={saveStatus.online} />
         <div className="flex items-center gap-1" role="group" aria-label="History">
           <ToolButton onClick={doUndo} disabled={!canEdit || !canUndo} label="Undo (Ctrl+Z)">
             ↶ Undo

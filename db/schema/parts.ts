@@ -104,7 +104,12 @@ export const markingHistory = pgTable(
     discardedAt: timestamp("discarded_at", { withTimezone: true }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index("marking_history_part_idx").on(t.partId, t.id)],
+  (t) => [
+    index("marking_history_part_idx").on(t.partId, t.id),
+    // Every write ends the redo chain by marking the part's undone rows; without this index that
+    // update reads the part's whole history on every save.
+    index("marking_history_undone_idx").on(t.partId).where(sql`${t.undoneAt} is not null and ${t.discardedAt} is null`),
+  ],
 );
 
 export const suggestionDecisions = pgTable(

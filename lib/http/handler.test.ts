@@ -2,7 +2,7 @@ import { describe, expect, it, vi } from "vitest";
 import { z } from "zod";
 import { AppError } from "@/lib/errors";
 import { clientAddress } from "./client-address";
-import { handle, parseJson, parseParams } from "./handler";
+import { answerOutage, handle, parseJson, parseParams } from "./handler";
 import { safeCallbackPath } from "./safe-redirect";
 
 const ctx = { params: Promise.resolve({}) };
@@ -71,5 +71,22 @@ describe("safeCallbackPath()", () => {
     expect(safeCallbackPath("https://evil.example/")).toBe("/parts");
     expect(safeCallbackPath("/\\evil.example")).toBe("/parts");
     expect(safeCallbackPath(undefined, "")).toBe("");
+  });
+});
+
+describe("answerOutage()", () => {
+  it("answers 503 with Retry-After when the database cannot be reached, and lets anything else through", async () => {
+    const log = vi.spyOn(console, "error").mockImplementation(() => {});
+    const refused = Object.assign(new Error("connect ECONNREFUSED 127.0.0.1:5432"), { code: "ECONNREFUSED" });
+    const res = await answerOutage("test", async () => {
+      throw new Error("Failed query: select 1", { cause: refused });
+    })();
+    expect(res.status).toBe(503);
+    expect(Number(res.headers.get("retry-after"))).toBeGreaterThan(0);
+    expect(JSON.stringify(await res.json())).not.toMatch(/ECONNREFUSED|5432/);
+    await expect(answerOutage("test", async () => {
+      throw new Error("a bug");
+    })()).rejects.toThrow("a bug");
+    log.mockRestore();
   });
 });

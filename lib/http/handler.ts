@@ -1,7 +1,7 @@
 import "server-only";
 import { z } from "zod";
 import { AppError } from "@/lib/errors";
-import { toErrorBody } from "./errors";
+import { isDatabaseUnreachable, toErrorBody } from "./errors";
 import { JSON_BODY_MAX_BYTES, assertSameSiteWrite, readCappedText } from "./request-guards";
 
 type Params = Record<string, string | string[] | undefined>;
@@ -21,6 +21,22 @@ export function handle<C extends Context = Context>(fn: (request: Request, conte
     } catch (error) {
       if (isNextControlFlow(error)) throw error;
       const { status, body, headers } = toErrorBody(error, `${request.method} ${new URL(request.url).pathname}`);
+      return Response.json(body, { status, headers });
+    }
+  };
+}
+
+/**
+ * For a route that cannot go through `handle()` (next-auth's own, which takes form posts): a
+ * database that cannot be reached still answers 503 with Retry-After, never 500.
+ */
+export function answerOutage<A extends unknown[]>(where: string, fn: (...args: A) => Promise<Response>) {
+  return async (...args: A): Promise<Response> => {
+    try {
+      return await fn(...args);
+    } catch (error) {
+      if (!isDatabaseUnreachable(error)) throw error;
+      const { status, body, headers } = toErrorBody(error, where);
       return Response.json(body, { status, headers });
     }
   };

@@ -15,7 +15,7 @@ async function openWorkspace(page: Page, partId: string) {
 }
 
 async function saved(page: Page) {
-  await page.waitForFunction(() => /saved/i.test(document.querySelector('[data-testid="save-state"]')?.textContent ?? ""));
+  await page.waitForFunction(() => document.querySelector('[data-testid="save-state"]')?.getAttribute("data-state") === "saved");
 }
 
 /** Marks one note through the panel: depth and speed typed, role chosen. */

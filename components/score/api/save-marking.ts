@@ -8,7 +8,7 @@ import {
 } from "@/lib/markings/changes";
 import type { MarkingDto, MarkingValues } from "@/lib/markings/schema";
 import { deleteMarking } from "./delete-marking";
-import { ApiError, retryDelay, retryTransient } from "@/components/client/fetch-json";
+import { ApiError, retryUntilSaved, saveRetryDelay } from "@/components/client/fetch-json";
 import { historyKeys, markingKeys } from "@/components/client/keys";
 import { cachedMarking, cachedMarkings, writeCachedMarking } from "./marking-cache";
 import { putMarking } from "./put-marking";
@@ -28,10 +28,26 @@ class HeldByConflict extends Error {}
 type WriteResult = { noteKey: string; marking: MarkingDto | null };
 
 /**
+ * A refused write whose answer says the note already holds what we sent: an earlier try of this
+ * same write reached the server but its answer was lost (a retry after a dropped connection).
+ */
+function alreadyWritten(error: unknown, values: MarkingValues | null): MarkingDto | null | undefined {
+  if (!(error instanceof ApiError && error.isConflict)) return undefined;
+  const current = (error.current ?? null) as MarkingDto | null;
+  if (values === null) return current === null ? null : undefined;
+  return current && sameValues(current, values) ? current : undefined;
+}
+
+/**
  * The write queue of a part. Writes run one after another (one mutation scope per part, shared
  * with undo and redo) so each request carries the version the previous one got back; the cache
  * is updated optimistically per note and rolled back per note — never by restoring a snapshot of
  * the whole list, which would undo other notes' pending writes.
+ *
+ * An edit is never dropped for an outage: a write that gets no answer, or a 5xx/429, is sent again
+ * (back-off, the server's Retry-After) until it is saved or refused, and while the browser is
+ * offline the queue waits and goes on when it is back (TanStack Query's network mode "online").
+ * The save indicator says "not saved yet" meanwhile, and leaving the page warns.
  */
 export function useSaveMarking(partId: string) {
   const client = useQueryClient();
@@ -39,8 +55,8 @@ export function useSaveMarking(partId: string) {
   return useMutation<WriteResult, Error, MarkingWrite, { previous: MarkingDto | undefined }>({
     mutationKey: markingKeys.write(partId),
     scope: { id: markingKeys.scope(partId) },
-    retry: retryTransient,
-    retryDelay,
+    retry: retryUntilSaved,
+    retryDelay: saveRetryDelay,
     mutationFn: async ({ noteKey, values, group }) => {
       if (conflictsOf(client, partId).some((c) => c.noteKey === noteKey)) {
         updateConflictMine(client, partId, noteKey, values);
@@ -49,14 +65,20 @@ export function useSaveMarking(partId: string) {
       const book = serverVersions(client, partId);
       const known = book.has(noteKey) ? book.get(noteKey) : cachedMarking(client, partId, noteKey)?.version;
       const version = known && known > 0 ? known : undefined;
-      if (values) {
-        const { marking } = await putMarking(partId, noteKey, { ...valuesOf(values), version, group });
-        return { noteKey, marking };
+      try {
+        if (values) {
+          const { marking } = await putMarking(partId, noteKey, { ...valuesOf(values), version, group });
+          return { noteKey, marking };
+        }
+        // Never saved (or already gone on the server): nothing to delete there.
+        if (!version) return { noteKey, marking: null };
+        await deleteMarking(partId, noteKey, version, group);
+        return { noteKey, marking: null };
+      } catch (error) {
+        const landed = alreadyWritten(error, values);
+        if (landed === undefined) throw error;
+        return { noteKey, marking: landed };
       }
-      // Never saved (or already gone on the server): nothing to delete there.
-      if (!version) return { noteKey, marking: null };
-      await deleteMarking(partId, noteKey, version, group);
-      return { noteKey, marking: null };
     },
     onMutate: async ({ noteKey, values }) => {
       await client.cancelQueries({ queryKey: markingKeys.list(partId) });

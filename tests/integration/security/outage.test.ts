@@ -7,6 +7,7 @@ import { DEFAULT_MARKING } from "@/lib/markings/schema";
 import { multipartFile } from "../../helpers/parts";
 import { createSignedInUser, type ApiClient } from "../../helpers/session";
 import { countHostileRequests, hostile } from "./hostile";
+import { buildContext, listApiRoutes, type AccessModule, type MatrixContext } from "../../helpers/access-matrix";
 
 countHostileRequests("outage");
 
@@ -72,3 +73,66 @@ describe("an unreachable database (ASVS 7.4.1, 11.1.x availability)", () => {
     expect(status).toBe(200);
   });
 });
+
+/**
+ * Every method of every API route, called as the signed-in owner (the access matrix's requests)
+ * while the database is stopped: 503 with Retry-After, or the very refusal the route gives with
+ * the database up when that refusal needs no database (a malformed request, a disabled route).
+ */
+/** Routes that answer without the database at all, and so answer as usual during an outage. */
+const WITHOUT_DATABASE = new Set([
+  // next-auth's own session endpoint reads the signed JWT only; every route of ours re-reads the account.
+  "GET /api/auth/[...nextauth] (session)",
+  // The development mailbox reads the local mail server.
+  "GET /api/dev/mail",
+]);
+
+describe("every API route while the database is stopped", () => {
+  const modules = Object.values(import.meta.glob<{ accessModule: AccessModule }>("../access/*.ts", { eager: true })).map((m) => m.accessModule);
+  const rows = modules.flatMap((m) => m.routes ?? []);
+  let ctx: MatrixContext;
+
+  beforeAll(async () => {
+    ctx = await buildContext();
+    for (const m of modules) await m.setup?.(ctx);
+  }, 120_000);
+
+  afterAll(() => {
+    startAgain();
+  });
+
+  it("answers 503 with Retry-After, never 500, on each of them", async () => {
+    expect(new Set(rows.map((r) => `${r.method} ${r.route}`))).toEqual(new Set(listApiRoutes()));
+    // Built while the database is up: some requests create what they act on.
+    const prepared = [];
+    for (const row of rows) {
+      const client = ctx.clients.owner.clone();
+      prepared.push({ row, client, ...(await row.request(ctx, "owner", client)) });
+    }
+    const wrong: string[] = [];
+    let answered503 = 0;
+    stopCluster(dir);
+    try {
+      for (const { row, client, path: url, init } of prepared) {
+        const res = await client.fetch(url, { method: row.method, ...init });
+        const text = await res.text();
+        const name = `${row.method} ${row.route}${row.label ? ` (${row.label})` : ""}`;
+        if (res.status === 503) {
+          answered503++;
+          if (!(Number(res.headers.get("retry-after")) > 0)) wrong.push(`${name}: 503 without Retry-After`);
+          if (/ECONNREFUSED|postgres|at \w+ \(/.test(text)) wrong.push(`${name}: 503 shows internals`);
+          continue;
+        }
+        // A refusal made before any database read is the same with the database up.
+        const sameRefusal = res.status >= 400 && res.status < 500 && res.status === row.expect.owner;
+        const noDatabase = WITHOUT_DATABASE.has(name) && res.status === row.expect.owner;
+        if (!sameRefusal && !noDatabase) wrong.push(`${name}: ${res.status} ${text.slice(0, 120)}`);
+      }
+    } finally {
+      startAgain();
+    }
+    expect(wrong).toEqual([]);
+    expect(answered503).toBeGreaterThan(rows.length / 2);
+  }, 120_000);
+});
+

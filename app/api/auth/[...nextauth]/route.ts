@@ -6,6 +6,7 @@ import { linkUseChecks } from "@/server/auth/sign-in-link";
 import { AppError } from "@/lib/errors";
 import { clientAddress } from "@/lib/http/client-address";
 import { readCappedText } from "@/lib/http/request-guards";
+import { answerOutage } from "@/lib/http/handler";
 
 type Context = { params: Promise<{ nextauth: string[] }> };
 
@@ -14,9 +15,7 @@ export const dynamic = "force-dynamic";
 /** A sign-in or sign-out form is a few hundred bytes; anything much larger is refused unread. */
 const AUTH_BODY_MAX_BYTES = 8 * 1024;
 
-export async function GET(request: Request, context: Context) {
-  return NextAuth(authOptions())(request, context);
-}
+export const GET = answerOutage("auth GET", async (request: Request, context: Context) => NextAuth(authOptions())(request, context));
 
 /**
  * The body is read once, with a byte cap, before anything parses it. Sign-in attempts are then
@@ -24,7 +23,7 @@ export async function GET(request: Request, context: Context) {
  * Retry-After and a message naming when to try again. The attempt itself is recorded by the
  * provider's `authorize`, which knows whether it succeeded.
  */
-export async function POST(request: Request, context: Context) {
+export const POST = answerOutage("auth POST", async (request: Request, context: Context) => {
   let text: string;
   try {
     text = await readCappedText(request, AUTH_BODY_MAX_BYTES);
@@ -47,7 +46,7 @@ export async function POST(request: Request, context: Context) {
     if (limited) return rateLimitError(limited).toResponse();
   }
   return NextAuth(authOptions())(replayOf(request, text), context);
-}
+});
 
 /** next-auth reads the body itself; it gets the capped text that was already read. */
 function replayOf(request: Request, text: string): NextRequest {

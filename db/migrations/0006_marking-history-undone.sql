@@ -1,0 +1,1 @@
+CREATE INDEX "marking_history_undone_idx" ON "marking_history" USING btree ("part_id") WHERE "marking_history"."undone_at" is not null and "marking_history"."discarded_at" is null;
