@@ -465,6 +465,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
             noteOrder={noteOrder}
             phrases={analysis.data.phrases}
             noteMeasures={noteMeasures}
+            bars={bars}
             localKeys={analysis.data.localKeys}
             markings={markings}
             labelOf={labelOf}

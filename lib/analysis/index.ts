@@ -3,6 +3,7 @@
  * resolutions, phrases, and the suggestions built from them. Pure and deterministic.
  */
 import type { PartModel, ScoreModel } from "@/lib/musicxml/model";
+import { barName, writtenBars } from "@/lib/musicxml/bar-names";
 import type { AnalyzedNote, LocalKey, PartAnalysis, ScoreAnalysis, Suggestion } from "./types";
 import { degreeOf } from "./degree";
 import { type Key, keyFromSignature, majorOf, toKeyResult } from "./key";
@@ -16,7 +17,7 @@ import { phraseSuggestions, rankByPhrase, tensionSuggestions } from "./suggestio
 import { findTensions } from "./tension";
 
 /** Bump whenever results change: stored analyses with another version are recomputed. */
-export const ANALYSIS_VERSION = 2;
+export const ANALYSIS_VERSION = 3;
 
 const ROLE_ORDER: Record<Suggestion["role"], number> = { "phrase-start": 0, peak: 1, tension: 2, resolution: 3 };
 
@@ -32,7 +33,9 @@ export function analyzePart(score: ScoreModel, part: PartModel): PartAnalysis {
   for (const s of sections) for (let i = s.fromIndex; i <= s.toIndex; i++) keyAtMeasure[i] = s.key;
   for (const sp of spans) for (let i = sp.fromIndex; i <= sp.toIndex; i++) keyAtMeasure[i] = sp.key;
   const keyAt = (n: MelodyNote) => keyAtMeasure[n.measureIndex];
-  const bar = (n: MelodyNote) => n.note.measureNumber;
+  // Reasons name bars as the part writes them ("bar 12", "the pickup").
+  const written = writtenBars(part.measures);
+  const bar = (n: MelodyNote) => barName(written, n.measureIndex);
 
   const first = sections[0];
   const sig = part.measures[0]?.key ?? { fifths: 0, mode: null };
