@@ -9,7 +9,7 @@ import { loadPart } from "./parts";
 
 function assertNoteExists(part: Part, noteKey: string) {
   if (!part.noteKeys.includes(noteKey)) {
-    throw new AppError("not_found:note", `There is no note ${noteKey} in this part. Reload the page: the part may have changed.`);
+    throw new AppError("not_found:note", "That note is not in this part. Reload the page: the part may have changed.");
   }
 }
 

@@ -64,7 +64,7 @@ export async function listProposals(user: CurrentUser, o: { partId: string; note
 export async function createProposal(user: CurrentUser, partId: string, body: z.infer<typeof proposalBody>): Promise<ProposalWithCurrent> {
   const { part } = await loadPart(user, partId, "part:propose");
   if (!part.noteKeys.includes(body.noteKey)) {
-    throw new AppError("not_found:note", `There is no note ${body.noteKey} in this part. Reload the page: the part may have changed.`, { field: "noteKey" });
+    throw new AppError("not_found:note", "That note is not in this part. Reload the page: the part may have changed.", { field: "noteKey" });
   }
   const current = await getMarkingByNoteKey({ partId, noteKey: body.noteKey });
   if ((current?.version ?? null) !== body.baseVersion) {
