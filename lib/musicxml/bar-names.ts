@@ -97,9 +97,10 @@ export function barNameOfNoteKey(bars: readonly WrittenBar[], noteKey: string, f
 /** A span of bars: "bar 4", "bars 4–6", "the pickup to bar 2". */
 export function barSpanName(bars: readonly WrittenBar[], from: number, to: number, form: BarNameForm = "inline"): string {
   if (from === to) return barName(bars, from, form);
-  const a = bars[from];
-  const b = bars[to];
-  const plain = (i: number) => bars[i] && !bars[i].implicit;
-  if (a && b && plain(from) && plain(to)) return `${form === "heading" ? "Bars" : "bars"} ${a.number}–${b.number}`;
+  // A bar the list does not know is counted from 1, as in `barName`.
+  const numberOf = (i: number) => (bars[i] ? (bars[i].implicit ? null : bars[i].number) : String(i + 1));
+  const a = numberOf(from);
+  const b = numberOf(to);
+  if (a !== null && b !== null) return `${form === "heading" ? "Bars" : "bars"} ${a}–${b}`;
   return `${barName(bars, from, form)} to ${barName(bars, to)}`;
 }
