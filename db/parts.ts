@@ -88,6 +88,12 @@ export async function getPartGrantById({ partId, viewerId, noteKey, lock = false
   return { partId, ownerId: row.owner_id, permission: row.owner_id === viewerId ? "owner" : (row.permission as PartPermission), hasNote: row.has_note };
 }
 
+/** The stored text and chosen part, to name a part's bars in a message sent outside any request for it. */
+export async function getPartTextById({ partId }: { partId: string }): Promise<{ musicxml: string; chosenPartId: string } | null> {
+  const [row] = await db().select({ musicxml: parts.musicxml, chosenPartId: parts.chosenPartId }).from(parts).where(eq(parts.id, partId)).limit(1);
+  return row ?? null;
+}
+
 /** The row of a new part, from a read and analysed file. */
 export function newPartValues(o: { ownerId: string; fileName: string; bytes: Uint8Array; ingested: IngestedScore }): NewPart {
   const { ingested } = o;

@@ -8,10 +8,11 @@ import { DRILL_LABELS } from "@/lib/assignments/schema";
 import { isSettableDueDate, utcIsoDate } from "@/lib/assignments/due";
 import { AppError } from "@/lib/errors";
 import { threadLabel } from "@/lib/sharing/note-label";
+import type { WrittenBar } from "@/lib/musicxml/bar-names";
 import { deleteAssignmentById, getAssignmentById, insertAssignment, listAssignmentsByPartId, updateAssignmentById } from "@/db/assignments";
 import type { PartAccess } from "@/db/parts";
 import { notifyParticipants } from "./notify";
-import { assertNoteOfPart, loadPart } from "./parts";
+import { assertNoteOfPart, barsOfPart, loadPart } from "./parts";
 
 
 const shareOf = (access: PartAccess) => (access.permission === "owner" ? null : { permission: access.permission });
@@ -52,8 +53,8 @@ function assignmentConflict(current: AssignmentDto | null): AppError {
 }
 
 /** "Teo Barral set practice: Hold ladder on bar 3, due 2026-05-12" — for the notification and its e-mail. */
-export function assignmentSummary(teacherName: string, a: Pick<AssignmentDto, "drill" | "noteKey" | "dueOn" | "minutesPerDay">): string {
-  const on = a.noteKey ? ` on ${threadLabel(a.noteKey)}` : "";
+export function assignmentSummary(teacherName: string, a: Pick<AssignmentDto, "drill" | "noteKey" | "dueOn" | "minutesPerDay">, bars: readonly WrittenBar[]): string {
+  const on = a.noteKey ? ` on ${threadLabel(a.noteKey, bars)}` : "";
   const daily = a.minutesPerDay ? `, ${a.minutesPerDay} min a day` : "";
   const due = a.dueOn ? `, due ${a.dueOn}` : "";
   return `${teacherName} set practice: ${DRILL_LABELS[a.drill]}${on}${daily}${due}`;
@@ -80,7 +81,7 @@ export async function createAssignment(user: CurrentUser, partId: string, body: 
     kind: ASSIGNMENT_NOTIFICATION,
     // No thread: reading a note's comments must not count as reading the practice set on it.
     threadKey: null,
-    summary: assignmentSummary(user.name, assignment),
+    summary: assignmentSummary(user.name, assignment, barsOfPart(part)),
     onlyUserIds: [part.ownerId],
   });
   return assignment;

@@ -6,7 +6,7 @@ import { threadLabel } from "@/lib/sharing/note-label";
 import { deleteCommentById, getCommentById, getThreadByKey, insertComment, setThreadResolved, summarizeThreadsByPartId, updateCommentById } from "@/db/comments";
 import { countOpenProposalsByPartId } from "@/db/proposals";
 import { notifyParticipants } from "./notify";
-import { loadPart } from "./parts";
+import { barsOfPart, loadPart } from "./parts";
 import { assertThreadKey } from "./sharing";
 
 export async function getThread(user: CurrentUser, partId: string, threadKey: string) {
@@ -24,7 +24,7 @@ export async function postComment(user: CurrentUser, o: { partId: string; thread
     actorId: user.id,
     kind: "comment",
     threadKey: o.threadKey,
-    summary: `${user.name} commented on ${threadLabel(o.threadKey)}: “${excerpt(o.body)}”`,
+    summary: `${user.name} commented on ${threadLabel(o.threadKey, barsOfPart(part))}: “${excerpt(o.body)}”`,
   });
   return comment;
 }

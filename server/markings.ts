@@ -23,7 +23,7 @@ async function grantFor(user: CurrentUser, partId: string, action: Action, o: { 
     share: grant.permission === "owner" ? null : { permission: grant.permission },
   });
   if (o.noteKey !== undefined && !grant.hasNote) {
-    throw new AppError("not_found:note", `There is no note ${o.noteKey} in this part. Reload the page: the part may have changed.`);
+    throw new AppError("not_found:note", "That note is not in this part. Reload the page: the part may have changed.");
   }
   return grant;
 }

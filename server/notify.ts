@@ -4,7 +4,9 @@ import { activityDigestMail } from "@/lib/mail/sharing-templates";
 import { appLink } from "@/lib/mail/templates";
 import { sendMail } from "@/lib/mail/send";
 import { EMAIL_WINDOW_MS } from "@/lib/sharing/batching";
-import { notificationPath } from "@/lib/sharing/note-label";
+import { notificationPath, threadLabel } from "@/lib/sharing/note-label";
+import { writtenBarsFromText } from "@/lib/musicxml/bar-names";
+import { getPartTextById } from "@/db/parts";
 import { claimEmailBatch, insertNotifications, listDueEmailPairs, releaseEmailBatch, type NotificationKind } from "@/db/notifications";
 import { listParticipantsByPartId } from "@/db/shares";
 
@@ -37,12 +39,14 @@ async function emailIfDue({ userId, partId }: { userId: string; partId: string }
   if (!batch) return false;
   const appUrl = config().APP_URL;
   try {
+    const text = await getPartTextById({ partId });
+    const bars = text ? writtenBarsFromText(text.musicxml, text.chosenPartId) : [];
     await sendMail(
       batch.recipient.email,
       activityDigestMail({
         name: batch.recipient.name,
         partTitle: batch.partTitle,
-        items: batch.items.map((i) => ({ kind: i.kind, threadKey: i.threadKey, summary: i.summary, url: appLink(appUrl, notificationPath(partId, i.kind, i.threadKey)) })),
+        items: batch.items.map((i) => ({ kind: i.kind, threadKey: i.threadKey, where: i.threadKey ? threadLabel(i.threadKey, bars) : null, summary: i.summary, url: appLink(appUrl, notificationPath(partId, i.kind, i.threadKey)) })),
         settingsUrl: appLink(appUrl, "/settings"),
       }),
     );

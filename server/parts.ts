@@ -10,6 +10,8 @@ import type { CurrentUser } from "@/lib/auth/types";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { readScoreFile } from "@/lib/musicxml";
+import { writtenBarsFromText, type WrittenBar } from "@/lib/musicxml/bar-names";
+import { noteInBar } from "@/lib/markings/note-labels";
 import { ingestScore, summarizePart, type IngestedScore } from "@/lib/parts/ingest";
 import { embedMarkings } from "@/lib/export/musicxml-markings";
 import { renderMidi } from "@/lib/export/midi";
@@ -55,8 +57,8 @@ export interface CreatedPart {
   part: Part;
   /** Markings read back from an Ondula export and written to the new part. */
   importedMarkings: number;
-  /** Marking records in the file that could not be read (named, never guessed). */
-  unreadableMarkings: Array<{ noteKey: string; reason: string }>;
+  /** Marking records in the file that could not be read (named, never guessed), with where they sat. */
+  unreadableMarkings: Array<{ noteKey: string; reason: string; where: string }>;
 }
 
 /**
@@ -87,7 +89,7 @@ export async function partTitleForViewer(partId: string): Promise<string | null>
 /** A note named in a request body must be a note of the part (a stale tab may hold old keys). */
 export function assertNoteOfPart(part: Part, noteKey: string | null | undefined) {
   if (noteKey && !part.noteKeys.includes(noteKey)) {
-    throw new AppError("bad_request:note", `There is no note ${noteKey} in this part. Reload the page: the part may have changed.`, { field: "noteKey" });
+    throw new AppError("bad_request:note", "That note is not in this part. Reload the page: the part may have changed.", { field: "noteKey" });
   }
 }
 
@@ -107,7 +109,14 @@ export async function createPartFromFile(user: CurrentUser, fileName: string, by
   const known = new Set(ingested.summary.noteKeys);
   const withMarkings = [...markings].filter(([noteKey]) => known.has(noteKey)).map(([noteKey, values]) => ({ noteKey, values }));
   const { part, importedMarkings } = await insertPartFrom(user, fileName, bytes, ingested, withMarkings);
-  return { part, importedMarkings, unreadableMarkings: problems };
+  const bars = writtenBarsFromText(ingested.partwiseXml, ingested.chosenPartId);
+  const unreadableMarkings = problems.map((p) => ({ ...p, where: noteInBar(p.noteKey, bars) ?? "a note" }));
+  return { part, importedMarkings, unreadableMarkings };
+}
+
+/** The chosen part's bars as written (numbers and unnumbered bars), for naming bars to people. */
+export function barsOfPart(part: Pick<Part, "musicxml" | "chosenPartId">): WrittenBar[] {
+  return writtenBarsFromText(part.musicxml, part.chosenPartId);
 }
 
 function insertPartFrom(

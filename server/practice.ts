@@ -11,7 +11,7 @@ import { getMarkingByNoteKey, listMarkingsByPartId } from "@/db/markings";
 import type { PartAccess } from "@/db/parts";
 import { insertPracticeEntry, insertTake, listPracticeEntriesByPartId, listTakesByPartId } from "@/db/practice";
 import { assignmentAbilities } from "./assignments";
-import { assertNoteOfPart, chosenPartAnalysis, loadPart, loadPartForPage } from "./parts";
+import { assertNoteOfPart, barsOfPart, chosenPartAnalysis, loadPart, loadPartForPage } from "./parts";
 
 /** Whether the viewer may add to the part's practice log and takes (the policy decides). */
 export function canWritePractice(user: CurrentUser, access: PartAccess): boolean {
@@ -66,11 +66,12 @@ export async function loadPracticeRoom({ partId, path }: { partId: string; path:
     listAssignmentsByPartId({ partId }),
   ]);
   const byKey = new Map(markings.map((m) => [m.noteKey, m]));
+  const bars = barsOfPart(part);
   const notes = analysis.notes.map((n) => {
     const m = byKey.get(n.key);
     return {
       key: n.key,
-      label: noteLabel(n.key, n),
+      label: noteLabel(n.key, bars, n),
       midi: n.midi,
       beats: beatsOfDuration(n.duration) || 1,
       marking: m ? { depthCents: m.depthCents, speedHz: m.speedHz, placement: m.placement, onset: m.onset, shape: m.shape, role: m.role, comment: m.comment } : null,

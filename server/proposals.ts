@@ -14,7 +14,7 @@ import { transaction, type Executor } from "@/db/client";
 import { getMarkingByNoteKey, listMarkingsByPartId, writeMarking } from "@/db/markings";
 import { getProposalById, insertProposal, listProposalsByPartId, transitionProposal, type ProposalDto, type ProposalStatus } from "@/db/proposals";
 import { notifyParticipants } from "./notify";
-import { loadPart } from "./parts";
+import { barsOfPart, loadPart } from "./parts";
 
 export async function loadProposal(partId: string, proposalId: string, tx?: Executor): Promise<ProposalDto> {
   const proposal = await getProposalById({ partId, proposalId, tx });
@@ -64,7 +64,7 @@ export async function listProposals(user: CurrentUser, o: { partId: string; note
 export async function createProposal(user: CurrentUser, partId: string, body: z.infer<typeof proposalBody>): Promise<ProposalWithCurrent> {
   const { part } = await loadPart(user, partId, "part:propose");
   if (!part.noteKeys.includes(body.noteKey)) {
-    throw new AppError("not_found:note", `There is no note ${body.noteKey} in this part. Reload the page: the part may have changed.`, { field: "noteKey" });
+    throw new AppError("not_found:note", "That note is not in this part. Reload the page: the part may have changed.", { field: "noteKey" });
   }
   const current = await getMarkingByNoteKey({ partId, noteKey: body.noteKey });
   if ((current?.version ?? null) !== body.baseVersion) {
@@ -76,7 +76,7 @@ export async function createProposal(user: CurrentUser, partId: string, body: z.
     actorId: user.id,
     kind: "proposal",
     threadKey: body.noteKey,
-    summary: `${user.name} proposed a marking for ${threadLabel(body.noteKey)}${body.comment ? `: “${excerpt(body.comment)}”` : ""}`,
+    summary: `${user.name} proposed a marking for ${threadLabel(body.noteKey, barsOfPart(part))}${body.comment ? `: “${excerpt(body.comment)}”` : ""}`,
     onlyUserIds: [part.ownerId],
   });
   const created = await getProposalById({ partId, proposalId: row.id });
@@ -134,7 +134,7 @@ export async function acceptProposal(user: CurrentUser, o: { partId: string; pro
     actorId: user.id,
     kind: "proposal_accepted",
     threadKey: outcome.noteKey,
-    summary: `${user.name} accepted your proposal for ${threadLabel(outcome.noteKey)}`,
+    summary: `${user.name} accepted your proposal for ${threadLabel(outcome.noteKey, barsOfPart(part))}`,
     onlyUserIds: [outcome.authorId],
   });
   return { proposal: outcome.proposal, marking: outcome.marking };
@@ -152,7 +152,7 @@ async function decide(partId: string, proposal: ProposalDto, action: "decline" |
 
 /** The owner declines an open or stale proposal, with an optional reply to its author. */
 export async function declineProposal(user: CurrentUser, o: { partId: string; proposalId: string; reply: string }): Promise<ProposalWithCurrent> {
-  await loadPart(user, o.partId, "marking:write");
+  const { part } = await loadPart(user, o.partId, "marking:write");
   const proposal = await loadProposal(o.partId, o.proposalId);
   const view = await decide(o.partId, proposal, "decline", o.reply || null);
   await notifyParticipants({
@@ -160,7 +160,7 @@ export async function declineProposal(user: CurrentUser, o: { partId: string; pr
     actorId: user.id,
     kind: "proposal_declined",
     threadKey: proposal.noteKey,
-    summary: `${user.name} declined your proposal for ${threadLabel(proposal.noteKey)}${o.reply ? `: “${excerpt(o.reply)}”` : ""}`,
+    summary: `${user.name} declined your proposal for ${threadLabel(proposal.noteKey, barsOfPart(part))}${o.reply ? `: “${excerpt(o.reply)}”` : ""}`,
     onlyUserIds: [proposal.authorId],
   });
   return view;

@@ -147,7 +147,7 @@ export async function acceptInvitation(token: string, viewer: CurrentUser): Prom
 export function assertThreadKey(part: Pick<Part, "noteKeys">, threadKey: string): void {
   if (threadKey === PART_THREAD) return;
   if (!part.noteKeys.includes(threadKey)) {
-    throw new AppError("not_found:note", `There is no note ${threadKey} in this part. Reload the page: the part may have changed.`);
+    throw new AppError("not_found:note", "That note is not in this part. Reload the page: the part may have changed.");
   }
 }
 

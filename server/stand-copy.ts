@@ -9,7 +9,7 @@ import { listCommentsByPartId } from "@/db/comments";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import { getUserById } from "@/db/users";
-import { chosenPartAnalysis, loadPartForPage } from "./parts";
+import { barsOfPart, chosenPartAnalysis, loadPartForPage } from "./parts";
 
 /** The stand copy: the engraved part with its markings, legend and table, with what `options` asks for. */
 export async function loadStandCopy({ partId, path, options }: { partId: string; path: string; options: StandCopyOptions }) {
@@ -32,6 +32,8 @@ export async function loadStandCopy({ partId, path, options }: { partId: string;
     xml: selectPartsXml(part.musicxml, [part.chosenPartId]),
     markings,
     notes: analysis.notes,
+    /** The part's bars as written, to name them as the part does. */
+    bars: barsOfPart(part),
     suggestions: options.suggestions ? pendingSuggestions(analysis.suggestions, decisions, toState(markings)) : [],
     resolutions: resolutionsOf(analysis.suggestions),
     comments: comments?.map(({ threadKey, authorName, body, createdAt }) => ({ threadKey, authorName, body, createdAt })) ?? null,

@@ -32,15 +32,34 @@ export class ApiError extends Error {
     return this.body?.current;
   }
 
-  /** An answer that is not ours (a proxy, a crash) still becomes an ApiError with a message. */
-  static fromAnswer(status: number, body: (Partial<ErrorBody> & Record<string, unknown>) | null | undefined, retryAfterMs?: number): ApiError {
-    return new ApiError(status, body?.code ?? `http:${status}`, body?.message ?? `The server answered ${status}.`, body?.field, body ?? undefined, retryAfterMs);
-  }
-
   /** Worth sending again unchanged: no answer, the server busy or away (5xx, 408, 429). */
   get isTransient(): boolean {
     return this.isNetwork || this.status >= 500 || this.status === 408 || this.status === 429;
   }
+
+  /**
+   * What an engineer needs and a player does not: the error's code and its technical detail (an
+   * element name, a value, the HTTP status), for a "Details" toggle beside the message.
+   */
+  get technical(): string {
+    const details = this.body?.details as { technical?: unknown } | undefined;
+    const detail = typeof details?.technical === "string" ? details.technical : null;
+    return [`Code ${this.code}`, this.status ? `HTTP ${this.status}` : "no answer", detail].filter(Boolean).join(" · ");
+  }
+
+  /** An answer that is not ours (a proxy, a crash) still becomes an ApiError with a message a person can act on. */
+  static fromAnswer(status: number, body: (Partial<ErrorBody> & Record<string, unknown>) | null | undefined, retryAfterMs?: number): ApiError {
+    return new ApiError(status, body?.code ?? `http:${status}`, body?.message ?? answerMessage(status), body?.field, body ?? undefined, retryAfterMs);
+  }
+}
+
+/** The message for an answer without our error body (from a proxy in front of Ondula, or a crash). */
+export function answerMessage(status: number): string {
+  if (status === 413) return "This file is larger than Ondula accepts. Upload the single part you play, or export it as a compressed .mxl file.";
+  if (status === 429) return "Too many requests at once. Wait a minute, then try again.";
+  if (status === 502 || status === 503 || status === 504) return "Ondula is not answering right now. Try again in a minute; nothing was lost.";
+  if (status >= 500) return "Something went wrong on Ondula's side. Try again; nothing was lost.";
+  return "Ondula could not do this. Reload the page and try again.";
 }
 
 export const NETWORK_MESSAGE = "Ondula cannot be reached. Check your connection; nothing was lost.";

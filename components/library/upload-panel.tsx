@@ -4,7 +4,9 @@ import { useRouter } from "next/navigation";
 import { useId, useRef, useState } from "react";
 import { useQueryClient } from "@tanstack/react-query";
 import { describeMarkingImport } from "@/lib/parts/import-report";
+import { partChoiceLabels, partDisplayName } from "@/lib/parts/part-names";
 import { ApiError } from "@/components/client/fetch-json";
+import { ErrorDetails } from "@/components/ui/error-details";
 import { partKeys } from "@/components/client/keys";
 import { describeNotices } from "@/lib/musicxml/read/bar-lengths";
 import { uploadPart, useChoosePart, useSamples, useTrySample, type UploadResult } from "./api";
@@ -15,9 +17,15 @@ type UploadState =
   | { phase: "reading"; fileName: string }
   | { phase: "choose"; fileName: string; result: UploadResult }
   | { phase: "imported"; fileName: string; result: UploadResult }
-  | { phase: "error"; fileName: string; code: string; message: string };
+  | { phase: "error"; fileName: string; message: string; technical: string };
 
 const ACCEPT = ".musicxml,.xml,.mxl";
+
+/** The message in the player's words, and the technical detail for the "Details" toggle. */
+function errorText(err: unknown): { message: string; technical: string } {
+  if (err instanceof ApiError) return { message: err.message, technical: err.technical };
+  return { message: "The file could not be sent. Check your connection and try again; nothing was lost.", technical: String(err) };
+}
 
 export function UploadPanel() {
   const router = useRouter();
@@ -50,8 +58,7 @@ export function UploadPanel() {
       );
       finish(result, file.name);
     } catch (err) {
-      const e = err instanceof ApiError ? err : new ApiError(0, "unavailable:client", String(err));
-      setState({ phase: "error", fileName: file.name, code: e.code, message: e.message });
+      setState({ phase: "error", fileName: file.name, ...errorText(err) });
     }
   };
 
@@ -105,7 +112,7 @@ export function UploadPanel() {
           <div role="alert" className="rounded-card border border-danger/40 bg-paper p-3 text-sm">
             <p className="font-semibold">{state.fileName} could not be used.</p>
             <p className="mt-1">{state.message}</p>
-            <p className="mt-1 text-xs text-graphite">Error code: {state.code}</p>
+            <ErrorDetails technical={state.technical} />
           </div>
         )}
         {(state.phase === "choose" || state.phase === "imported") && <ImportNotice fileName={state.fileName} result={state.result} />}
@@ -147,7 +154,7 @@ export function UploadPanel() {
           onClick={() =>
             trySample.mutate(sample, {
               onSuccess: (r) => finish(r, sample),
-              onError: (e) => setState({ phase: "error", fileName: sample, code: (e as ApiError).code ?? "", message: e.message }),
+              onError: (e) => setState({ phase: "error", fileName: sample, ...errorText(e) }),
             })
           }
           className="rounded-card border border-ink/30 px-4 py-2 font-semibold disabled:opacity-50"
@@ -186,6 +193,8 @@ function ImportNotice({ fileName, result }: { fileName: string; result: UploadRe
 
 function PartChooser({ result, busy, onChoose }: { result: UploadResult; busy: boolean; onChoose: (id: string) => void }) {
   const [chosen, setChosen] = useState(result.chosenPart);
+  // A part that carries its id as its name (as stored before names were given) reads "Part 1".
+  const labels = partChoiceLabels(result.parts.map((p, i) => ({ name: p.name === p.id ? partDisplayName("", i) : p.name })));
   return (
     <form
       className="rounded-card border border-rule bg-paper p-3"
@@ -197,10 +206,10 @@ function PartChooser({ result, busy, onChoose }: { result: UploadResult; busy: b
       <fieldset>
         <legend className="font-semibold">This score has several parts. Which one do you play?</legend>
         <p className="text-sm text-graphite">The others stay with the part as harmonic context for the suggestions.</p>
-        {result.parts.map((p) => (
+        {result.parts.map((p, i) => (
           <label key={p.id} className="mt-2 flex items-center gap-2">
             <input type="radio" name="chosenPart" value={p.id} checked={chosen === p.id} onChange={() => setChosen(p.id)} />
-            {p.name} <span className="text-xs text-graphite">({p.id})</span>
+            {labels[i]}
           </label>
         ))}
       </fieldset>

@@ -14,6 +14,14 @@ const STEP_NAMES: Record<PulseStep["kind"], string> = {
   target: "Target",
 };
 
+/** What each kind of step asks of the player, shown where the steps are set. */
+const STEP_EXPLAINED: Record<PulseStep["kind"], string> = {
+  settle: "an easy number of pulses per beat at your tempo, slower than the marked speed, to find an even pulse.",
+  regroup: "about the same speed, felt in the number of pulses per beat the marked speed needs.",
+  climb: "the metronome a notch faster each time, the pulses per beat unchanged.",
+  target: "the note's marked speed.",
+};
+
 /** Metronome subdivisions that climb to the note's marked speed, one step at a time. */
 export function PulseTrainer({ tempo, markedHz, volume, onVolume }: { tempo: number; markedHz: number | null; volume: number; onVolume: (v: number) => void }) {
   const [startBpm, setStartBpm] = useState(Math.round(tempo));
@@ -96,6 +104,15 @@ export function PulseTrainer({ tempo, markedHz, volume, onVolume }: { tempo: num
         <p className="text-sm">No metronome setting reaches that speed.</p>
       ) : (
         <>
+          <dl className="mb-3 grid gap-0.5 text-sm text-graphite" data-testid="pulse-steps-explained">
+            {(Object.keys(STEP_NAMES) as PulseStep["kind"][])
+              .filter((kind) => ladder.some((s) => s.kind === kind))
+              .map((kind) => (
+                <div key={kind}>
+                  <dt className="inline font-semibold text-ink">{STEP_NAMES[kind]}:</dt> <dd className="inline">{STEP_EXPLAINED[kind]}</dd>
+                </div>
+              ))}
+          </dl>
           <ol className="grid gap-1" aria-label="Pulse trainer steps">
             {ladder.map((s, i) => (
               <li key={`${s.kind}-${i}`}>

@@ -14,6 +14,9 @@ export interface SystemBox {
   /** Written measure numbers of the system's first and last bar. */
   firstBar: number;
   lastBar: number;
+  /** 0-based measure indices of the system's first and last bar (to name them as written). */
+  firstIndex?: number;
+  lastIndex?: number;
 }
 
 /** OSMD's unit: 10 px at zoom 1. */
@@ -43,6 +46,8 @@ export function measureSystems(osmd: OpenSheetMusicDisplay, offset: StageOffset,
         staffBottom: svgTop + bottom * UNIT_PX * zoom,
         firstBar: measures[0]?.MeasureNumber ?? 0,
         lastBar: measures[measures.length - 1]?.MeasureNumber ?? 0,
+        firstIndex: measures[0]?.parentSourceMeasure?.measureListIndex,
+        lastIndex: measures[measures.length - 1]?.parentSourceMeasure?.measureListIndex,
       });
     }
   }

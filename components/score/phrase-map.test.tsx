@@ -40,3 +40,25 @@ describe("PhraseMap on a 1,000-bar part", () => {
     expect(onJump).toHaveBeenCalledWith("n400");
   });
 });
+
+describe("PhraseMap names a local key's bars as the part writes them", () => {
+  it("calls a span from the pickup 'the pickup to bar N'", () => {
+    // Four bars: a pickup written number="0" implicit="yes", then bars 1–3, two notes each.
+    const order = Array.from({ length: 8 }, (_, i) => `P1:m${Math.floor(i / 2)}:s1:v1:${i % 2}/2:60`);
+    const measures = order.map((_, i) => String(Math.floor(i / 2)));
+    const bars = [{ number: "0", implicit: true }, { number: "1" }, { number: "2" }, { number: "3" }];
+    render(
+      <PhraseMap
+        noteOrder={order}
+        noteMeasures={measures}
+        phrases={[{ start: order[0], peak: order[3], end: order[7] }]}
+        localKeys={[{ tonic: "G", mode: "major", fromMeasure: "0", toMeasure: "2" }]}
+        bars={bars}
+        markings={{}}
+        labelOf={(k) => k}
+        onJump={() => {}}
+      />,
+    );
+    expect(screen.getByTitle("G major, the pickup to bar 2")).toBeTruthy();
+  });
+});

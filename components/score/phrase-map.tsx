@@ -6,6 +6,8 @@ import type { MarkingState } from "@/lib/markings/changes";
 import { ROLE_INFO } from "@/lib/markings/roles";
 import { roleShapePath } from "@/lib/markings/glyph-geometry";
 import { keyName, layoutDots, layoutPhrases, localKeySpans, PHRASE_MIN_PX, xOf } from "@/lib/markings/phrase-map-layout";
+import { barSpanName, type WrittenBar } from "@/lib/musicxml/bar-names";
+import { parseNoteKey } from "@/lib/musicxml/note-key";
 
 export interface PhraseMapProps {
   /** Note keys of the part in time order (the analysis' notes). */
@@ -18,6 +20,8 @@ export interface PhraseMapProps {
   noteMeasures?: readonly string[];
   /** Where the music moves to another key, as the analysis reports it. */
   localKeys?: readonly LocalKey[];
+  /** The part's bars as written, to name a key's span as the part numbers it. */
+  bars?: readonly WrittenBar[];
 }
 
 /** Room for the start and peak marks (24 px targets) above a 24 px phrase bar (WCAG 2.2 SC 2.5.8). */
@@ -30,7 +34,7 @@ const KEY_LABEL_PX = 72;
 
 /** A strip of the whole part: each phrase a span with its start, peak and end, the marked notes and the local keys. */
 /** Memoized: a click on a note re-renders the workspace, and nothing here depends on the selection. */
-export const PhraseMap = memo(function PhraseMap({ noteOrder, phrases, markings, labelOf, onJump, noteMeasures = [], localKeys = [] }: PhraseMapProps) {
+export const PhraseMap = memo(function PhraseMap({ noteOrder, phrases, markings, labelOf, onJump, noteMeasures = [], localKeys = [], bars = [] }: PhraseMapProps) {
   const navRef = useRef<HTMLElement>(null);
   const [available, setAvailable] = useState(0);
   const [zoom, setZoom] = useState(1);
@@ -153,7 +157,9 @@ export const PhraseMap = memo(function PhraseMap({ noteOrder, phrases, markings,
             const left = xOf(k.from, count, width);
             const w = Math.max(2, xOf(k.to, count, width) - left);
             const name = keyName(k.tonic, k.mode);
-            const label = `${name}, bars ${k.fromMeasure} to ${k.toMeasure}`;
+            const fromBar = parseNoteKey(noteOrder[k.from])?.measureIndex;
+            const toBar = parseNoteKey(noteOrder[k.to])?.measureIndex;
+            const label = `${name}, ${fromBar === undefined || toBar === undefined || bars.length === 0 ? `bars ${k.fromMeasure} to ${k.toMeasure}` : barSpanName(bars, fromBar, toBar)}`;
             const look = `absolute overflow-hidden whitespace-nowrap rounded-sm border px-1 text-left text-[11px] leading-[22px] ${k.mode === "minor" ? "border-graphite bg-paper-deep" : "border-rule bg-paper-card"}`;
             // A span narrower than a finger is drawn but is no target (WCAG 2.2 SC 2.5.8); zoom in to reach it.
             if (w < 24) return <span key={`${k.from}-${i}`} className={look} style={{ top: STRIP_H + 2, height: KEY_BAND_H, left, width: w }} title={label} aria-hidden="true" data-local-key={name} />;

@@ -5,6 +5,7 @@ import type { MarkingState } from "@/lib/markings/changes";
 import { MarkingOverlay, type PendingSuggestion } from "./marking-overlay";
 import { ScoreView, type ScoreLayout } from "./score-view";
 import { buildSystemSlices } from "./system-slices";
+import { writtenBarsFromText } from "@/lib/musicxml/bar-names";
 import { measureSky, type SkyBox } from "./engraving-sky";
 import { GLYPH_TEXT_PX } from "@/lib/stand-copy/options";
 import { ENGRAVING_SVG } from "./engraving-options";
@@ -73,6 +74,7 @@ export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolu
         height: layout.height,
         pad: 6 * zoom,
         idPrefix,
+        bars: writtenBarsFromText(xml),
       });
       target.replaceChildren(...slices);
       setStatus(slices.length ? "ready" : "empty");
@@ -80,7 +82,7 @@ export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolu
     };
     frame = requestAnimationFrame(build);
     return () => cancelAnimationFrame(frame);
-  }, [layout, markings, suggestions, resolutions, durations, commentCounts, zoom, idPrefix]);
+  }, [layout, markings, suggestions, resolutions, durations, commentCounts, zoom, idPrefix, xml]);
 
   return (
     <div data-stand-score={status}>

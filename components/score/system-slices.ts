@@ -5,6 +5,7 @@
  * (our glyphs say which; the engraving's go to the nearest staff), in the stage's pixel coordinates.
  */
 import type { SystemBox } from "./measure-systems";
+import { barSpanName, type WrittenBar } from "@/lib/musicxml/bar-names";
 
 const SVG_NS = "http://www.w3.org/2000/svg";
 
@@ -109,6 +110,14 @@ export interface SliceSource {
   pad: number;
   /** Prefix of the clip-path ids (unique on the page). */
   idPrefix: string;
+  /** The part's bars as written, to name each system's bars. */
+  bars?: readonly WrittenBar[];
+}
+
+/** "Bars 5–8", "Pickup to bar 3": the bars of a system as the part writes them, when they are known. */
+function systemLabel(sys: SystemBox, bars: readonly WrittenBar[] | undefined): string {
+  if (bars && bars.length > 0 && sys.firstIndex !== undefined && sys.lastIndex !== undefined) return barSpanName(bars, sys.firstIndex, sys.lastIndex, "heading");
+  return sys.firstBar === sys.lastBar ? `Bar ${sys.firstBar}` : `Bars ${sys.firstBar} to ${sys.lastBar}`;
 }
 
 /** Builds the slices; call after the engraving and the overlay are in the document. */
@@ -138,7 +147,7 @@ export function buildSystemSlices(src: SliceSource): SVGSVGElement[] {
     svg.setAttribute("role", "img");
     const sys = src.systems[i];
     svg.setAttribute("data-first-bar", String(sys.firstBar));
-    svg.setAttribute("aria-label", sys.firstBar === sys.lastBar ? `Bar ${sys.firstBar}` : `Bars ${sys.firstBar} to ${sys.lastBar}`);
+    svg.setAttribute("aria-label", systemLabel(sys, src.bars));
 
     const defs = document.createElementNS(SVG_NS, "defs");
     const clip = document.createElementNS(SVG_NS, "clipPath");

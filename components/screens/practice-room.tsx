@@ -16,6 +16,7 @@ import { PracticeLog } from "@/components/practice/practice-log";
 import { PulseTrainer } from "@/components/practice/pulse-trainer";
 import { TakeRecorder } from "@/components/practice/take-recorder";
 import { Button, Figure, fmt } from "@/components/practice/ui";
+import { PracticeTempoPrompt } from "@/components/score/working-tempo";
 
 export interface PracticeNote {
   key: string;
@@ -29,10 +30,10 @@ export interface PracticeNote {
 interface Props {
   partId: string;
   title: string;
-  /** Quarter notes per minute. */
-  tempo: number;
-  /** True when the part has no tempo marking and `tempo` is our assumption. */
-  tempoAssumed: boolean;
+  /** The part's working tempo (♩ per minute); null when the part gives none and no one has set it. */
+  tempo: number | null;
+  /** Whether this viewer may set the working tempo (the part's owner). */
+  canSetTempo: boolean;
   notes: PracticeNote[];
   /** On a staff carrying two players: whose line `notes` are (chosen in the score). */
   line?: "upper" | "lower" | null;
@@ -54,11 +55,11 @@ const DRILL_SECTION: Record<AssignmentDto["drill"], string> = {
 function markingSummary(m: MarkingValues | null): string {
   if (!m) return "not marked";
   if (m.depthCents === 0) return "no vibrato";
-  return `±${formatNumber(m.depthCents, 0)} c, ${formatNumber(m.speedHz, 1)} Hz`;
+  return `±${formatNumber(m.depthCents, 0)}¢, ${formatNumber(m.speedHz, 1)} Hz`;
 }
 
 /** The practice page of one part: choose a note, then drill it with the pulse trainer, the hold ladder and takes. */
-export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, line = null, canWrite, initialNoteKey = null, serverToday }: Props) {
+export function PracticeRoom({ partId, title, tempo, canSetTempo, notes, line = null, canWrite, initialNoteKey = null, serverToday }: Props) {
   const marked = useMemo(() => notes.filter((n) => n.marking), [notes]);
   const others = useMemo(() => notes.filter((n) => !n.marking), [notes]);
   const [noteKey, setNoteKey] = useState<string | null>(initialNoteKey ?? marked[0]?.key ?? notes[0]?.key ?? null);
@@ -74,8 +75,9 @@ export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, line =
     if (!note) return;
     audition.current?.stop();
     const ctx = await audioContext();
-    // At least two seconds, so the vibrato can be heard on a short note.
-    const seconds = Math.max(2, (note.beats * 60) / tempo);
+    // At least two seconds, so the vibrato can be heard on a short note; two seconds when the
+    // part has no tempo yet (its written length cannot be timed).
+    const seconds = tempo ? Math.max(2, (note.beats * 60) / tempo) : 2;
     const handle = auditionNotes(ctx, [{ midi: note.midi, startSeconds: 0, durationSeconds: seconds, marking: m ?? undefined }], { volume });
     audition.current = handle;
     setHearing(true);
@@ -107,10 +109,15 @@ export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, line =
             </Link>
           </p>
           <h1 className="text-2xl font-semibold tracking-tight">Practise · {title}</h1>
-          <p className="text-sm text-graphite">
-            ♩ = {fmt(tempo, 0)}
-            {tempoAssumed ? " (no tempo is written in the part; this one is assumed — change it in the pulse trainer)" : ""}
-          </p>
+          <div className="text-sm text-graphite" data-testid="practice-tempo">
+            {tempo !== null ? (
+              <>Working tempo ♩ = {fmt(tempo, 0)}</>
+            ) : canSetTempo ? (
+              <PracticeTempoPrompt partId={partId} />
+            ) : (
+              "This part gives no tempo, and its player has not set a working tempo yet."
+            )}
+          </div>
           {line ? (
             <p className="text-sm text-graphite" data-testid="practice-line">
               Two players share this staff: you practise the {line} line (choose the line in the score).
@@ -158,9 +165,9 @@ export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, line =
             </label>
             {note ? (
               <dl className="flex flex-wrap gap-x-8 gap-y-2" data-testid="note-summary">
-                <Figure label="Depth" value={m ? `±${fmt(m.depthCents, 0)}` : "–"} unit="c" />
+                <Figure label="Depth" value={m ? `±${fmt(m.depthCents, 0)}` : "–"} unit="¢" />
                 <Figure label="Speed" value={m && m.depthCents > 0 ? fmt(m.speedHz, 1) : "–"} unit="Hz" />
-                <Figure label="Pulses per beat" value={markedHz ? fmt(pulsesPerBeat(markedHz, tempo), 2) : "–"} unit={`at ♩ = ${fmt(tempo, 0)}`} />
+                <Figure label="Pulses per beat" value={markedHz && tempo ? fmt(pulsesPerBeat(markedHz, tempo), 2) : "–"} unit={tempo ? `at ♩ = ${fmt(tempo, 0)}` : "no tempo yet"} />
                 <Figure label="Written length" value={formatNumber(note.beats)} unit={note.beats === 1 ? "beat" : "beats"} />
               </dl>
             ) : null}
@@ -178,10 +185,17 @@ export function PracticeRoom({ partId, title, tempo, tempoAssumed, notes, line =
 
       {note ? (
         <>
-          <div className="grid gap-5 lg:grid-cols-2">
-            <PulseTrainer key={`pulse-${note.key}`} tempo={tempo} markedHz={markedHz} volume={volume} onVolume={setVolume} />
-            <HoldLadder key={`hold-${note.key}`} tempo={tempo} writtenBeats={note.beats} markedHz={markedHz} />
-          </div>
+          {tempo !== null ? (
+            <div className="grid gap-5 lg:grid-cols-2">
+              <PulseTrainer key={`pulse-${note.key}`} tempo={tempo} markedHz={markedHz} volume={volume} onVolume={setVolume} />
+              <HoldLadder key={`hold-${note.key}`} tempo={tempo} writtenBeats={note.beats} markedHz={markedHz} />
+            </div>
+          ) : (
+            <p className="rounded-card border border-rule bg-paper-card p-5 text-sm" data-testid="drills-need-tempo" id="pulse-trainer">
+              The pulse trainer and the hold ladder count in beats, and this part gives no tempo.{" "}
+              {canSetTempo ? "Set its working tempo above; Ondula keeps it with the part." : "Its player sets the working tempo on this page."}
+            </p>
+          )}
           <TakeRecorder
             key={`take-${note.key}`}
             partId={partId}

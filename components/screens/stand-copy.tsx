@@ -7,6 +7,7 @@ import type { AnalyzedNote, Suggestion } from "@/lib/analysis/types";
 import { toState } from "@/lib/markings/changes";
 import { noteDurations, resolutionsOf } from "@/lib/markings/durations";
 import { noteLabel } from "@/lib/markings/note-labels";
+import type { WrittenBar } from "@/lib/musicxml/bar-names";
 import { formatNumber } from "@/lib/markings/pulses";
 import type { MarkingDto } from "@/lib/markings/schema";
 import { PAPERS, PX_PER_MM, contentWidthPx, standCopyHref, type StandCopyOptions } from "@/lib/stand-copy/options";
@@ -24,6 +25,8 @@ export interface StandCopyData {
   xml: string;
   markings: MarkingDto[];
   notes: AnalyzedNote[];
+  /** The part's bars as written (lib/musicxml/bar-names.ts). */
+  bars: WrittenBar[];
   /** Undecided suggestions (empty when the option is off). */
   suggestions: Suggestion[];
   resolutions: Record<string, string>;
@@ -80,10 +83,10 @@ export function StandCopy({ data }: { data: StandCopyData }) {
     [data.suggestions],
   );
   const resolutions = useMemo(() => ({ ...resolutionsOf(data.suggestions), ...data.resolutions }), [data.suggestions, data.resolutions]);
-  const rows = useMemo(() => markedNoteRows(data.markings, data.notes, data.tempo), [data.markings, data.notes, data.tempo]);
+  const rows = useMemo(() => markedNoteRows(data.markings, data.notes, data.tempo, data.bars), [data.markings, data.notes, data.tempo, data.bars]);
   const comments = useMemo(
-    () => data.comments?.map((c) => ({ where: c.threadKey === "part" ? "Whole part" : noteLabel(c.threadKey, byKey.get(c.threadKey)), author: c.authorName, body: c.body })) ?? null,
-    [data.comments, byKey],
+    () => data.comments?.map((c) => ({ where: c.threadKey === "part" ? "Whole part" : noteLabel(c.threadKey, data.bars, byKey.get(c.threadKey)), author: c.authorName, body: c.body })) ?? null,
+    [data.comments, byKey, data.bars],
   );
   const commentCounts = useMemo(() => {
     const out: Record<string, number> = {};

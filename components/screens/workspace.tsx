@@ -9,6 +9,7 @@ import {
 } from "@/lib/markings/changes";
 import { noteDurations, resolutionsOf } from "@/lib/markings/durations";
 import { noteLabel, selectionLabel } from "@/lib/markings/note-labels";
+import { writtenBarsFromText } from "@/lib/musicxml/bar-names";
 import { formatNumber } from "@/lib/markings/pulses";
 import { ROLE_INFO } from "@/lib/markings/roles";
 import type { MarkingValues } from "@/lib/markings/schema";
@@ -138,7 +139,9 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   }, [xml.data, analysis.data]);
   const noteMeasures = useMemo(() => (analysis.data?.notes ?? []).map((n) => n.measure), [analysis.data]);
   const notesByKey = useMemo(() => new Map((analysis.data?.notes ?? []).map((n) => [n.key, n])), [analysis.data]);
-  const labelOf = useCallback((key: string) => noteLabel(key, notesByKey.get(key)), [notesByKey]);
+  const chosenPartId = part.data?.chosenPartId;
+  const bars = useMemo(() => (xml.data && chosenPartId ? writtenBarsFromText(xml.data, chosenPartId) : []), [xml.data, chosenPartId]);
+  const labelOf = useCallback((key: string) => noteLabel(key, bars, notesByKey.get(key)), [bars, notesByKey]);
   const durations = useMemo(() => noteDurations(analysis.data?.notes ?? [], tempo), [analysis.data, tempo]);
   const resolutions = useMemo(() => resolutionsOf(analysis.data?.suggestions ?? []), [analysis.data]);
   const decisions = useMemo(() => decisionsQuery.data?.decisions ?? [], [decisionsQuery.data]);
@@ -377,7 +380,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
       <MarkingPanel
         key={selection.focus ?? "none"}
         count={keys.length}
-        label={selectionLabel(keys, labelOf)}
+        label={selectionLabel(keys, labelOf, bars)}
         values={focusMarking ? valuesOf(focusMarking) : null}
         mixed={mixed}
         tempo={tempo}
@@ -484,6 +487,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
             noteOrder={noteOrder}
             phrases={analysis.data.phrases}
             noteMeasures={noteMeasures}
+            bars={bars}
             localKeys={analysis.data.localKeys}
             markings={markings}
             labelOf={labelOf}

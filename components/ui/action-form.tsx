@@ -135,12 +135,17 @@ export function Field({
   );
 }
 
-export function Checkbox({ name, label, defaultChecked }: { name: string; label: string; defaultChecked?: boolean }) {
+export function Checkbox({ name, label, hint, defaultChecked }: { name: string; label: string; hint?: string; defaultChecked?: boolean }) {
   const id = useId();
   return (
-    <div className="flex items-center gap-2">
-      <input id={id} name={name} type="checkbox" defaultChecked={defaultChecked} className="size-4 accent-accent" />
+    <div className="grid grid-cols-[auto_1fr] items-start gap-x-2">
+      <input id={id} name={name} type="checkbox" defaultChecked={defaultChecked} aria-describedby={hint ? `${id}-hint` : undefined} className="mt-1 size-4 accent-accent" />
       <label htmlFor={id}>{label}</label>
+      {hint ? (
+        <p id={`${id}-hint`} className="col-start-2 text-sm text-graphite">
+          {hint}
+        </p>
+      ) : null}
     </div>
   );
 }

@@ -4,6 +4,7 @@
  */
 import type { PartModel, ScoreModel } from "@/lib/musicxml/model";
 import { lineOf, twoPlayersOf, type Line } from "@/lib/musicxml/lines";
+import { barName, writtenBars } from "@/lib/musicxml/bar-names";
 import type { AnalyzedNote, LocalKey, PartAnalysis, ScoreAnalysis, Suggestion } from "./types";
 import { degreeOf } from "./degree";
 import { type Key, keyFromSignature, majorOf, toKeyResult } from "./key";
@@ -42,7 +43,9 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
   for (const s of sections) for (let i = s.fromIndex; i <= s.toIndex; i++) keyAtMeasure[i] = s.key;
   for (const sp of spans) for (let i = sp.fromIndex; i <= sp.toIndex; i++) keyAtMeasure[i] = sp.key;
   const keyAt = (n: MelodyNote) => keyAtMeasure[n.measureIndex];
-  const bar = (n: MelodyNote) => n.note.measureNumber;
+  // Reasons name bars as the part writes them ("bar 12", "the pickup").
+  const written = writtenBars(part.measures);
+  const bar = (n: MelodyNote) => barName(written, n.measureIndex);
 
   const first = sections[0];
   const sig = part.measures[0]?.key ?? { fifths: 0, mode: null };

@@ -41,7 +41,7 @@ export interface SuggestionContext {
 }
 
 function make(n: MelodyNote, ctx: SuggestionContext, role: Suggestion["role"], confidence: number, resolvesTo: string | null, reason: string): Suggestion {
-  return { note: n.note.key, measure: ctx.bar(n), pitch: n.note.pitch?.name ?? "", role, confidence, resolvesTo, reason, strength: round(confidence * accentOf(n)), rank: 0 };
+  return { note: n.note.key, measure: n.note.measureNumber, pitch: n.note.pitch?.name ?? "", role, confidence, resolvesTo, reason, strength: round(confidence * accentOf(n)), rank: 0 };
 }
 
 /** A note's weight in its bar: strong beat or a quarter note or longer 1, another beat 0.85, off the beat 0.7. */
@@ -76,7 +76,7 @@ export function phraseSuggestions(phrases: readonly Phrase[], ctx: SuggestionCon
     const s = ctx.seq[p.start];
     const key = ctx.keyAt(s);
     const confidence = i === 0 ? 0.95 : round(Math.min(0.95, 0.5 + 0.45 * p.strength));
-    const startReason = `A phrase begins on ${displayName(s.lof)} in bar ${ctx.bar(s)}, ${describeDegree(s.lof, key)} of ${displayKey(key)}, ${CUE_TEXT[p.cue]}.`;
+    const startReason = `A phrase begins on ${displayName(s.lof)} in ${ctx.bar(s)}, ${describeDegree(s.lof, key)} of ${displayKey(key)}, ${CUE_TEXT[p.cue]}.`;
     out.push([p.start, make(s, ctx, "phrase-start", confidence, null, startReason)]);
     const pk = ctx.seq[p.peak];
     let ties = 0;
@@ -88,7 +88,7 @@ export function phraseSuggestions(phrases: readonly Phrase[], ctx: SuggestionCon
     const pkKey = ctx.keyAt(pk);
     const octave = pk.note.pitch?.octave ?? "";
     const peakReason =
-      `${displayName(pk.lof)}${octave} in bar ${ctx.bar(pk)}, ${describeDegree(pk.lof, pkKey)} of ${displayKey(pkKey)}, is the highest note of the phrase that begins in bar ${ctx.bar(s)}` +
+      `${displayName(pk.lof)}${octave} in ${ctx.bar(pk)}, ${describeDegree(pk.lof, pkKey)} of ${displayKey(pkKey)}, is the highest note of the phrase that begins in ${ctx.bar(s)}` +
       (ties > 0 ? "; of its repetitions it is the longest or on the strongest beat." : ".");
     out.push([p.peak, make(pk, ctx, "peak", distinct.size < 2 ? 0.3 : ties === 0 ? 0.75 : 0.6, null, peakReason)]);
   }
@@ -109,7 +109,7 @@ export function tensionSuggestions(tensions: readonly TensionFinding[], ctx: Sug
   for (const [idx, { t, confidence }] of resolutions) {
     const r = ctx.seq[idx];
     const from = ctx.seq[t.index];
-    const reason = `${displayName(r.lof)} in bar ${ctx.bar(r)} is ${describeDegree(r.lof, t.key)} of ${displayKey(t.key)}; it resolves the ${KIND_TEXT[t.kind]} ${displayName(from.lof)} from bar ${ctx.bar(from)}.`;
+    const reason = `${displayName(r.lof)} in ${ctx.bar(r)} is ${describeDegree(r.lof, t.key)} of ${displayKey(t.key)}; it resolves the ${KIND_TEXT[t.kind]} ${displayName(from.lof)} from ${ctx.bar(from)}.`;
     out.push([idx, make(r, ctx, "resolution", round(confidence), null, reason)]);
   }
   return out;

@@ -144,7 +144,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
     const ruleNudge = chord.size > 0 && !inChord ? C.ruleOutsideChord : 0;
     const push = (kind: TensionKind, confidence: number, resolvesTo: number | null, reason: string) =>
       out.push({ index: i, kind, confidence: clamp(confidence + (kind === "appoggiatura" ? 0 : ruleNudge)), resolvesTo, key, reason });
-    const step = (to: MelodyNote) => `${displayName(to.lof)} in bar ${bar(to)}`;
+    const step = (to: MelodyNote) => `${displayName(to.lof)} in ${bar(to)}`;
 
     if (n.lof === leadingToneLof(key)) {
       const res = findResolution(seq, i, n.midi + 1);
@@ -154,15 +154,15 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
         const support = dominantSupport(harmonyOf(n), mod(n.midi + 1, 12));
         const base = res.direct ? C.leadingToneResolved : C.leadingToneOrnamented;
         if (support === "unknown") push("leading-tone", base, res.index, `${name} is ${what} of ${kname}; ${how} ${step(seq[res.index])}.`);
-        else if (support === "against") push("leading-tone", C.noDominantSupport, res.index, `${name} in bar ${bar(n)} is ${what} of ${kname}, but the harmony under it is no dominant of ${tonic}: a passing note more than a leading tone; ${how} ${step(seq[res.index])}.`);
-        else push("leading-tone", base + C.dominantSupport, res.index, `${name} leads to ${tonic} under the ${support} of ${kname} (bar ${bar(n)}, ${kname}): ${what.replace(/,$/, "")}; ${how} ${step(seq[res.index])}.`);
+        else if (support === "against") push("leading-tone", C.noDominantSupport, res.index, `${name} in ${bar(n)} is ${what} of ${kname}, but the harmony under it is no dominant of ${tonic}: a passing note more than a leading tone; ${how} ${step(seq[res.index])}.`);
+        else push("leading-tone", base + C.dominantSupport, res.index, `${name} leads to ${tonic} under the ${support} of ${kname} (${bar(n)}, ${kname}): ${what.replace(/,$/, "")}; ${how} ${step(seq[res.index])}.`);
       } else {
         const passingDown = next && next.midi - n.midi < 0 && next.midi - n.midi >= -2 && prev && prev.midi - n.midi > 0 && prev.midi - n.midi <= 2;
         push(
           "leading-tone",
           passingDown ? C.leadingTonePassingDown : C.leadingToneLeft,
           null,
-          `${name} in bar ${bar(n)} is ${what} of ${kname}, but it does not resolve: ${motion(n, next)} instead of rising to ${tonic}.`,
+          `${name} in ${bar(n)} is ${what} of ${kname}, but it does not resolve: ${motion(n, next)} instead of rising to ${tonic}.`,
         );
       }
       continue;
@@ -181,7 +181,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
       // Lowered 6 ("le") tends to 5 ("sol").
       const res = next && next.midi === n.midi - 1 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9 ? i + 1 : null;
       if (res !== null) push("lowered-sixth", C.loweredSixth, res, `${name} is the lowered sixth degree of ${kname}; it falls a half step to ${step(next)}.`);
-      else push("lowered-sixth", C.loweredSixthLeft, null, `${name} in bar ${bar(n)} is the lowered sixth degree of ${kname}, but ${motion(n, next)} instead of falling to ${displayName(key.tonicLof + 1)}.`);
+      else push("lowered-sixth", C.loweredSixthLeft, null, `${name} in ${bar(n)} is the lowered sixth degree of ${kname}, but ${motion(n, next)} instead of falling to ${displayName(key.tonicLof + 1)}.`);
       continue;
     }
     if (key.mode === "minor" && off === -1) {
@@ -198,10 +198,10 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
         const t = displayName(target);
         const support = dominantSupport(harmonyOf(n), mod(n.midi + 1, 12));
         if (support === "unknown") push("raised", C.raisedResolved, i + 1, `${name} is ${what} in ${kname}, a leading tone to ${t}; it rises a half step to ${step(next)}.`);
-        else if (support === "against") push("raised", C.noDominantSupport, i + 1, `${name} in bar ${bar(n)} is ${what} in ${kname}, but the harmony under it is no dominant of ${t}: a chromatic passing note more than a leading tone to ${t}; it rises a half step to ${step(next)}.`);
-        else push("raised", C.raisedResolved + C.dominantSupport, i + 1, `${name} leads to ${t} under the ${support} of ${t} (bar ${bar(n)}, ${kname}): ${what}, a leading tone to ${t}; it rises a half step to ${step(next)}.`);
+        else if (support === "against") push("raised", C.noDominantSupport, i + 1, `${name} in ${bar(n)} is ${what} in ${kname}, but the harmony under it is no dominant of ${t}: a chromatic passing note more than a leading tone to ${t}; it rises a half step to ${step(next)}.`);
+        else push("raised", C.raisedResolved + C.dominantSupport, i + 1, `${name} leads to ${t} under the ${support} of ${t} (${bar(n)}, ${kname}): ${what}, a leading tone to ${t}; it rises a half step to ${step(next)}.`);
       } else {
-        push("raised", C.raisedLeft, null, `${name} in bar ${bar(n)} is ${what} in ${kname}, but ${motion(n, next)} instead of rising to ${displayName(target)}.`);
+        push("raised", C.raisedLeft, null, `${name} in ${bar(n)} is ${what} in ${kname}, but ${motion(n, next)} instead of rising to ${displayName(target)}.`);
       }
       continue;
     }
@@ -210,7 +210,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
       if (next && next.midi === n.midi - 1 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9) {
         push("lowered", C.loweredResolved, i + 1, `${name} is ${what} in ${kname}; it falls a half step to ${step(next)}.`);
       } else {
-        push("lowered", C.loweredLeft, null, `${name} in bar ${bar(n)} is ${what} in ${kname}, but ${motion(n, next)} instead of falling to ${displayName(target)}.`);
+        push("lowered", C.loweredLeft, null, `${name} in ${bar(n)} is ${what} in ${kname}, but ${motion(n, next)} instead of falling to ${displayName(target)}.`);
       }
       continue;
     }
@@ -229,7 +229,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
           "appoggiatura",
           conf,
           i + 1,
-          `${name} in bar ${bar(n)}, ${what} of ${kname}, falls on a strong beat after a leap and moves by step to ${displayName(next.lof)}: possibly an appoggiatura.`,
+          `${name} in ${bar(n)}, ${what} of ${kname}, falls on a strong beat after a leap and moves by step to ${displayName(next.lof)}: possibly an appoggiatura.`,
         );
       }
     }

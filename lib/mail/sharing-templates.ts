@@ -1,5 +1,4 @@
 import { compose, type MailContent } from "./templates";
-import { threadLabel } from "@/lib/sharing/note-label";
 
 export function shareInviteMail({ ownerName, partTitle, permission, url }: {
   ownerName: string;
@@ -24,6 +23,8 @@ export interface DigestItem {
   /** The notification's kind; practice leads to the practice page. */
   kind?: string;
   threadKey: string | null;
+  /** Where it happened as a player reads it ("bar 12", "the pickup", "the whole part"); null for the part itself. */
+  where: string | null;
   summary: string;
   url: string;
 }
@@ -42,9 +43,9 @@ export function activityDigestMail({ name, partTitle, items, settingsUrl }: {
     greeting: `Hello ${name},`,
     lines: [
       `${count} on “${partTitle}”:`,
-      ...items.map((i) => `• ${i.summary}${i.threadKey ? ` (${threadLabel(i.threadKey)})` : ""} — ${i.url}`),
+      ...items.map((i) => `• ${i.summary}${i.where ? ` (${i.where})` : ""} — ${i.url}`),
     ],
-    action: { label: first.kind === "assignment" ? "Open the practice page" : first.threadKey ? `Open ${threadLabel(first.threadKey)}` : "Open the part", url: first.url },
+    action: { label: first.kind === "assignment" ? "Open the practice page" : first.where ? `Open ${first.where}` : "Open the part", url: first.url },
     after: `Ondula sends at most one message per part every 10 minutes. Turn these e-mails off in your settings: ${settingsUrl}`,
   });
 }

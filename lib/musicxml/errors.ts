@@ -21,9 +21,14 @@ export const DEFAULT_LIMITS: Readonly<ReadLimits> = Object.freeze({
   maxDepth: 64,
 });
 
-/** A file the reader refuses; `code` names the problem, `message` tells a player what to do. */
+/**
+ * A file the reader refuses; `code` names the problem, `message` tells a player what to do in
+ * their words (bar, note; never an element name). What an engineer or a notation program's
+ * support needs (element names, values, XML positions) goes in `details.technical`, which the
+ * screens keep behind a "Details" toggle.
+ */
 export class MusicXmlError extends AppError {
-  constructor(code: ErrorCode, message: string, details?: unknown) {
+  constructor(code: ErrorCode, message: string, details?: Record<string, unknown>) {
     super(code, message, { field: "file", details });
     this.name = "MusicXmlError";
   }
@@ -64,8 +69,8 @@ export const fail = {
   nesting: (limit: number) =>
     new MusicXmlError(
       "bad_request:nesting",
-      `Elements in this file are nested more than ${limit} deep, which no MusicXML score needs; the file is damaged or not a score. ${EXPORT_HINT}`,
-      { limit },
+      `This file is built far deeper than any score needs; it is damaged or not a score. ${EXPORT_HINT}`,
+      { limit, technical: `Elements are nested more than ${limit} deep.` },
     ),
   empty: () => new MusicXmlError("bad_request:empty", `The file is empty. ${EXPORT_HINT}`),
   notXml: (what: string) =>
@@ -84,16 +89,16 @@ export const fail = {
   encoding: (label: string) =>
     new MusicXmlError(
       "unsupported:encoding",
-      `The file declares the text encoding "${label}", which could not be read. Save it as UTF-8 MusicXML.`,
-      { encoding: label },
+      "The file's text is stored in a way Ondula cannot read. Export it again as MusicXML; most programs store it as UTF-8.",
+      { encoding: label, technical: `The XML declaration names the encoding "${label}", which could not be decoded.` },
     ),
   wrongRoot: (root: string) =>
     new MusicXmlError(
       "unsupported:not_musicxml",
       root === "opus"
-        ? "This is a MusicXML opus (a list of other files), not a score. Upload one of the scores it lists."
-        : `This XML file is a <${root}> document, not a MusicXML score (expected <score-partwise> or <score-timewise>). ${EXPORT_HINT}`,
-      { root },
+        ? "This file is a list of other MusicXML files, not a score. Upload one of the scores it lists."
+        : `This file is XML, but not a MusicXML score. ${EXPORT_HINT}`,
+      { root, technical: `The root element is <${root}>; a score's is <score-partwise> or <score-timewise>.` },
     ),
   truncated: () =>
     new MusicXmlError(
@@ -103,37 +108,40 @@ export const fail = {
   malformed: (where: string, why: string) =>
     new MusicXmlError(
       "bad_request:malformed",
-      `The file is damaged XML (${why}${where ? ` at ${where}` : ""}). ${EXPORT_HINT}`,
-      { where, why },
+      `The file is damaged: its text breaks off or is garbled${where ? ` (${where})` : ""}, so it cannot be read as a score. ${EXPORT_HINT}`,
+      { where, why, technical: `Not well-formed XML: ${why}${where ? ` at ${where}` : ""}.` },
     ),
   entity: (what: "subset" | "entity" | "parameter") =>
     new MusicXmlError(
       "bad_request:entity_refused",
+      `The file carries definitions of its own that could make it grow without end or read other files, so Ondula does not open it. ${EXPORT_HINT}`,
       {
-        subset: "The file carries its own DTD definitions (an internal DOCTYPE subset). Ondula refuses these because they can expand without bound or read other files.",
-        entity: "The file declares its own entities (<!ENTITY …>). Ondula refuses these because they can expand without bound or read other files.",
-        parameter: "The file uses DTD parameter entities (%name;). Ondula refuses these because they can expand without bound or read other files.",
-      }[what] + ` ${EXPORT_HINT}`,
-      { what },
+        what,
+        technical: {
+          subset: "The file carries its own DTD definitions (an internal DOCTYPE subset).",
+          entity: "The file declares its own entities (<!ENTITY …>).",
+          parameter: "The file uses DTD parameter entities (%name;).",
+        }[what],
+      },
     ),
   mxlNoScore: (why: string) =>
-    new MusicXmlError("bad_request:mxl_no_score", `This .mxl holds no MusicXML score (${why}). ${EXPORT_HINT}`, { why }),
+    new MusicXmlError("bad_request:mxl_no_score", `This .mxl file holds no score. ${EXPORT_HINT}`, { why, technical: why }),
   mxlCorrupt: (why: string) =>
-    new MusicXmlError("bad_request:mxl_corrupt", `This .mxl archive is damaged (${why}). ${EXPORT_HINT}`, { why }),
+    new MusicXmlError("bad_request:mxl_corrupt", `This .mxl file is damaged and cannot be opened. ${EXPORT_HINT}`, { why, technical: `The .mxl (zip) archive is damaged: ${why}.` }),
   divisions: (measure: string, value: string) =>
     new MusicXmlError(
       "bad_request:divisions",
-      `Measure ${measure} sets <divisions> to "${value}"; it must be a positive number of divisions per quarter note. ${EXPORT_HINT}`,
-      { measure, value },
+      `From bar ${measure} on, the file does not say how long its notes are, so they cannot be read. ${EXPORT_HINT}`,
+      { measure, value, technical: `Measure number="${measure}" sets <divisions> to "${value}"; it must be a positive number of divisions per quarter note.` },
     ),
   duration: (measure: string, value: string) =>
     new MusicXmlError(
       "bad_request:duration",
-      `Measure ${measure} has a duration "${value}" that is not a usable positive number. ${EXPORT_HINT}`,
-      { measure, value },
+      `A note or rest in bar ${measure} has a length that cannot be read. ${EXPORT_HINT}`,
+      { measure, value, technical: `Measure number="${measure}" has a <duration> of "${value}", which is not a usable positive number.` },
     ),
   noParts: () =>
     new MusicXmlError("bad_request:no_parts", `This MusicXML score contains no parts with measures. ${EXPORT_HINT}`),
   unknownPart: (ids: string[]) =>
-    new MusicXmlError("not_found:part", `This score has no part with the id ${ids.join(", ")}.`, { ids }),
+    new MusicXmlError("not_found:part", "This score has no such part. Reload the page and choose the part again.", { ids, technical: `No part with the id ${ids.join(", ")}.` }),
 };

@@ -80,14 +80,29 @@ describe("hostile and broken files", () => {
 
   it("gives each code its own message, naming what was wrong", () => {
     const byCode = new Map<string, Set<string>>();
+    const technicalByCode = new Map<string, Set<string>>();
     for (const [file, code] of Object.entries(EXPECTED)) {
       if (!code) continue;
       const { error } = attempt(new Uint8Array(readFileSync(path.join(DIR, file))), file);
       byCode.set(code, (byCode.get(code) ?? new Set()).add(error!.message));
+      const technical = (error!.extra.details as { technical?: string } | undefined)?.technical;
+      if (technical) technicalByCode.set(code, (technicalByCode.get(code) ?? new Set()).add(technical));
     }
     const all = [...byCode.values()].flatMap((s) => [...s]);
     expect(new Set(all).size).toBe(all.length); // no message shared across codes
-    expect(byCode.get("bad_request:divisions")!.size).toBe(2); // each quotes the value it refused
+    // The technical detail behind "Details" quotes the value each refused.
+    expect(technicalByCode.get("bad_request:divisions")!.size).toBe(2);
+  });
+
+  it("speaks the player's words: no element names, DTD or measure in a message; the detail keeps them", () => {
+    for (const [file, code] of Object.entries(EXPECTED)) {
+      if (!code) continue;
+      const { error } = attempt(new Uint8Array(readFileSync(path.join(DIR, file))), file);
+      expect(error!.message, file).not.toMatch(/<[a-z!][^>]*>|\bDTD\b|\b[Mm]easure\b|\bentit(y|ies)\b/);
+    }
+    const { error } = attempt(new Uint8Array(readFileSync(path.join(DIR, Object.keys(EXPECTED).find((f) => EXPECTED[f] === "bad_request:divisions")!))), "x");
+    expect(error!.message).toMatch(/\bbar \S+/);
+    expect((error!.extra.details as { technical: string }).technical).toContain("<divisions>");
   });
 
   it("reads the overlong bar as written and names it in player's words", () => {

@@ -22,6 +22,8 @@ export interface Measure {
   index: number;
   /** The MusicXML `number` attribute, as written ("1", "12a", "X1"…). */
   number: string;
+  /** `implicit="yes"`: the bar's number is not printed (a pickup, or a bar split by a repeat). */
+  implicit?: boolean;
   /** Divisions per quarter note in force at the start of the measure. */
   divisions: number;
   key: KeySignature;

@@ -1,10 +1,11 @@
-import { threadLabel } from "@/lib/sharing/note-label";
-
 /** What an upload answers about the Ondula markings it found in the file (lib/export/README.md). */
 export interface MarkingImport {
   importedMarkings: number;
-  /** Marking records in the file that could not be read, with the note they sat on. */
-  unreadableMarkings: Array<{ noteKey: string; reason: string }>;
+  /**
+   * Marking records in the file that could not be read, with the note they sat on and where a
+   * player finds it ("D5 in bar 3", named by the server from the part's written bar numbers).
+   */
+  unreadableMarkings: Array<{ noteKey: string; reason: string; where?: string }>;
 }
 
 /** At most this many unreadable records are named one by one; the rest are counted. */
@@ -24,7 +25,7 @@ export function describeMarkingImport({ importedMarkings, unreadableMarkings }: 
       ? `Imported ${plural(importedMarkings, "marking", "markings")} from the file.`
       : "No markings could be imported from the file.";
   if (unreadableMarkings.length === 0) return { headline, details: null };
-  const named = unreadableMarkings.slice(0, NAMED).map((u) => `${threadLabel(u.noteKey)} (${u.reason.replace(/\.$/, "")})`);
+  const named = unreadableMarkings.slice(0, NAMED).map((u) => `${u.where ?? "a note"} (${u.reason.replace(/\.$/, "")})`);
   const more = unreadableMarkings.length - named.length;
   const details =
     `${plural(unreadableMarkings.length, "marking record", "marking records")} could not be read and ${unreadableMarkings.length === 1 ? "was" : "were"} left out: ` +

@@ -4,6 +4,7 @@ import { markingsFromSites, type ExtractReport } from "@/lib/export/musicxml-mar
 import { OWN_SITES } from "@/lib/export/note-sites";
 import { readScoreFile, type ReadLimits } from "@/lib/musicxml";
 import type { PartModel, ScoreModel } from "@/lib/musicxml/model";
+import { partDisplayName } from "./part-names";
 
 export interface IngestedScore {
   title: string;
@@ -81,7 +82,7 @@ export function ingestScore(bytes: Uint8Array, fileName: string, limits: Partial
     composer: (score.composer || "").slice(0, 200),
     format,
     partwiseXml,
-    partList: score.parts.map((p: PartModel) => ({ id: p.id, name: p.name || p.id })),
+    partList: score.parts.map((p: PartModel, i) => ({ id: p.id, name: partDisplayName(p.name, i) })),
     chosenPartId,
     analysis,
     analysisVersion: ANALYSIS_VERSION,

@@ -2,15 +2,16 @@ import { describe, expect, it } from "vitest";
 import { notificationPath, threadLabel, threadPath } from "./note-label";
 
 describe("thread labels and links", () => {
-  it("names the bar of a note key counting bars from 1", () => {
-    expect(threadLabel("P1:m0:s1:v1:0/1:72")).toBe("bar 1");
-    expect(threadLabel("P1:m12:s1:v1:3/8:70")).toBe("bar 13");
-    expect(threadLabel("P1:m3:s1:v1:1/4:74:g1")).toBe("bar 4");
+  it("names the bar of a note key by its written number, the pickup as the pickup", () => {
+    const bars = [{ number: "0", implicit: true }, ...Array.from({ length: 14 }, (_, i) => ({ number: String(i + 1) }))];
+    expect(threadLabel("P1:m0:s1:v1:0/1:72", bars)).toBe("the pickup");
+    expect(threadLabel("P1:m12:s1:v1:3/8:70", bars)).toBe("bar 12");
+    expect(threadLabel("P1:m3:s1:v1:1/4:74:g1", bars)).toBe("bar 3");
   });
 
   it("names the part thread and unknown keys", () => {
-    expect(threadLabel("part")).toBe("the whole part");
-    expect(threadLabel("nonsense")).toBe("a note");
+    expect(threadLabel("part", [])).toBe("the whole part");
+    expect(threadLabel("nonsense", [])).toBe("a note");
   });
 
   it("links to the note with its key encoded", () => {

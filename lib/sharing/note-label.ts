@@ -1,14 +1,13 @@
+import { barNameOfNoteKey, type WrittenBar } from "@/lib/musicxml/bar-names";
 import { PART_THREAD } from "./schemas";
 
 /**
- * A person's name for a thread: "the whole part", or the bar of the note. Note keys look like
- * `P1:m12:s1:v1:3/8:70` (0-based measure index), so bar numbers count from 1 in written order;
- * a key we cannot read is named "a note".
+ * A person's name for a thread: "the whole part", or the bar of the note as written on the part
+ * ("bar 12", "the pickup"); a key we cannot read is named "a note".
  */
-export function threadLabel(threadKey: string): string {
+export function threadLabel(threadKey: string, bars: readonly WrittenBar[]): string {
   if (threadKey === PART_THREAD) return "the whole part";
-  const m = /(?:^|:)m(\d+)(?::|$)/.exec(threadKey);
-  return m ? `bar ${Number(m[1]) + 1}` : "a note";
+  return barNameOfNoteKey(bars, threadKey) ?? "a note";
 }
 
 /** Notifications about practice set on a part, which the practice page lists. */

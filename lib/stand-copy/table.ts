@@ -1,6 +1,8 @@
 import { VALUE_WORDS, onsetAndShape } from "@/lib/markings/labels";
 import type { AnalyzedNote } from "@/lib/analysis/types";
-import { noteLabel } from "@/lib/markings/note-labels";
+import { notePitchName } from "@/lib/markings/note-labels";
+import { barName, type WrittenBar } from "@/lib/musicxml/bar-names";
+import { parseNoteKey } from "@/lib/musicxml/note-key";
 import { pulsesPerBeat } from "@/lib/analysis/vibrato";
 import { formatNumber } from "@/lib/markings/pulses";
 import { ROLE_INFO } from "@/lib/markings/roles";
@@ -25,7 +27,7 @@ type Marked = MarkingValues & { noteKey: string };
  * The marked notes in score order (the analysis' note order; notes it does not know come last, by
  * key). Speed carries pulses per beat when the tempo is known: pulses = Hz × 60 / bpm.
  */
-export function markedNoteRows(markings: readonly Marked[], notes: readonly AnalyzedNote[], tempo: number | null): MarkedNoteRow[] {
+export function markedNoteRows(markings: readonly Marked[], notes: readonly AnalyzedNote[], tempo: number | null, bars: readonly WrittenBar[]): MarkedNoteRow[] {
   const order = new Map(notes.map((n, i) => [n.key, i]));
   const byKey = new Map(notes.map((n) => [n.key, n]));
   const sorted = [...markings].sort((a, b) => {
@@ -34,8 +36,9 @@ export function markedNoteRows(markings: readonly Marked[], notes: readonly Anal
     return ia - ib || a.noteKey.localeCompare(b.noteKey);
   });
   return sorted.map((m) => {
-    const label = noteLabel(m.noteKey, byKey.get(m.noteKey));
-    const [, bar = "", note = label] = /^Bar (\S+) · (.+)$/.exec(label) ?? [];
+    const measureIndex = parseNoteKey(m.noteKey)?.measureIndex;
+    const bar = measureIndex === undefined ? "" : barName(bars, measureIndex, "heading").replace(/^Bar /, "");
+    const note = notePitchName(m.noteKey, byKey.get(m.noteKey)) ?? m.noteKey;
     const none = m.depthCents === 0 || m.speedHz === 0;
     const pulses = tempo ? pulsesPerBeat(m.speedHz, tempo) : Number.NaN;
     return {

@@ -45,7 +45,13 @@ describe("the library in the browser", () => {
     await page.getByLabel("Choose a file").setInputFiles({ name: "photo.musicxml", mimeType: "image/png", buffer: Buffer.from("89504e470d0a1a0a0000000d49484452", "hex") });
     const alert = page.getByRole("alert").filter({ hasText: "photo.musicxml could not be used" });
     await alert.waitFor();
-    expect(await alert.textContent()).toMatch(/Error code: unsupported:/);
+    // The message speaks of the file; the code is behind "Details".
+    expect(await alert.textContent()).toContain("not MusicXML");
+    const details = alert.locator("details");
+    expect(await details.evaluate((d: HTMLDetailsElement) => d.open)).toBe(false);
+    await alert.getByText("Details", { exact: true }).click();
+    expect(await details.evaluate((d: HTMLDetailsElement) => d.open)).toBe(true);
+    expect(await details.textContent()).toMatch(/Code unsupported:image · HTTP 415/);
   });
 
   it("brings in samples, sorts, searches, renames and deletes", async () => {

@@ -17,7 +17,12 @@ export default async function SettingsPage() {
       <Panel title="Profile" id="profile">
         <ActionForm action={updateProfileAction} submitLabel="Save" successMessage="Saved.">
           <Field name="name" label="Name" autoComplete="name" defaultValue={row.name} required maxLength={80} />
-          <Checkbox name="emailNotifications" label="Send me e-mail when someone comments on or proposes changes to my parts" defaultChecked={row.emailNotifications} />
+          <Checkbox
+            name="emailNotifications"
+            label="Send me e-mail about activity on my parts and the parts shared with me"
+            hint="New comments and replies, proposals and your answers to them (accepted or declined, with the reply), practice assignments from a teacher, and invitations accepted. At most one message per part every 10 minutes; everything also shows in Ondula's notifications."
+            defaultChecked={row.emailNotifications}
+          />
         </ActionForm>
       </Panel>
       <Panel title="E-mail address" id="email">

@@ -7,6 +7,7 @@ import { Notice, PageShell, Panel } from "@/components/ui/page-shell";
 import { listMyStudios, loadOwnStudio } from "@/server/accounts/studio";
 import { requirePageUser } from "@/server/auth/require-page-user";
 import { inviteAction, leaveStudioAction, removeMemberAction } from "./actions";
+import { EmailAddress } from "@/components/ui/email-address";
 
 export const metadata: Metadata = { title: "Studio" };
 
@@ -56,14 +57,21 @@ export default async function StudioPage({ searchParams }: { searchParams: Searc
             <table className="w-full text-left">
               <caption className="sr-only">Studio members</caption>
               <thead className="border-b border-rule">
-                <tr><th scope="col" className="py-2">Name</th><th scope="col" className="py-2">E-mail</th><th scope="col" className="py-2">Joined</th><th scope="col" className="py-2"><span className="sr-only">Remove</span></th></tr>
+                <tr><th scope="col" className="py-2">Name</th><th scope="col" className="hidden py-2 sm:table-cell">E-mail</th><th scope="col" className="hidden py-2 sm:table-cell">Joined</th><th scope="col" className="py-2"><span className="sr-only">Remove</span></th></tr>
               </thead>
               <tbody>
                 {members.map((m) => (
                   <tr key={m.playerId} className="border-b border-rule last:border-0">
-                    <td className="py-3 pr-3 font-semibold">{m.name}</td>
-                    <td className="break-all py-3 pr-3">{m.email}</td>
-                    <td className="whitespace-nowrap py-3">{date(m.joinedAt)}</td>
+                    <td className="py-3 pr-3">
+                      <span className="font-semibold">{m.name}</span>
+                      {/* On a phone the e-mail and the date fold under the name instead of squeezing a column. */}
+                      <span className="block text-sm text-graphite sm:hidden">
+                        <EmailAddress email={m.email} />
+                        <span className="block">Joined {date(m.joinedAt)}</span>
+                      </span>
+                    </td>
+                    <td className="hidden py-3 pr-3 sm:table-cell"><EmailAddress email={m.email} /></td>
+                    <td className="hidden whitespace-nowrap py-3 sm:table-cell">{date(m.joinedAt)}</td>
                     <td className="py-3 text-right">
                       <ActionForm action={removeMemberAction} inline variant="danger" submitLabel="Remove" submitAriaLabel={`Remove ${m.name}`} hidden={{ playerId: m.playerId }}
                         confirm={{ question: `Remove ${m.name} from your studio?`, yes: "Yes, remove" }} />
@@ -88,7 +96,7 @@ export default async function StudioPage({ searchParams }: { searchParams: Searc
           <Panel title="Open invitations" id="invitations">
             {invitations.length === 0 ? <p className="text-graphite">None.</p> : (
               <ul className="grid gap-2">
-                {invitations.map((i) => <li key={i.id}>{i.email} <span className="text-sm text-graphite">· until {date(i.expiresAt)}</span></li>)}
+                {invitations.map((i) => <li key={i.id}><EmailAddress email={i.email} /> <span className="text-sm text-graphite">· until {date(i.expiresAt)}</span></li>)}
               </ul>
             )}
           </Panel>

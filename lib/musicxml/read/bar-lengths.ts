@@ -1,4 +1,5 @@
 import type { Fraction, Measure, ReadNotice } from "../model";
+import { barName, writtenBars } from "../bar-names";
 
 /**
  * Part of step 5 (the model): bars whose notes last more or less than their time signature. They
@@ -32,13 +33,17 @@ export function barLengthNotices(parts: PartBars[]): ReadNotice[] {
   for (let i = 0; i < count; i++) {
     let reached = 0;
     let measure: Measure | null = null;
+    let owner: PartBars | null = null;
     let implicit = false;
     let besideRepeat = false;
     for (const p of parts) {
       const m = p.measures[i];
       if (!m) continue;
       reached = Math.max(reached, value(p.reached[i]));
-      if (!measure && m.time) measure = m;
+      if (!measure && m.time) {
+        measure = m;
+        owner = p;
+      }
       implicit ||= p.implicit.has(i);
       const next = p.measures[i + 1];
       besideRepeat ||= m.barlineRight === "repeat-end" || m.barlineLeft === "repeat-start" || next?.barlineLeft === "repeat-start";
@@ -54,7 +59,7 @@ export function barLengthNotices(parts: PartBars[]): ReadNotice[] {
       code: longer ? "bar_longer" : "bar_shorter",
       measureIndex: i,
       measureNumber: measure.number,
-      message: `bar ${measure.number} lasts ${beatsText(reached * beatType)} in ${beats}/${beatType} — read as written`,
+      message: `${barName(writtenBars(owner!.measures), i)} lasts ${beatsText(reached * beatType)} in ${beats}/${beatType} — read as written`,
     });
   }
   return notices;

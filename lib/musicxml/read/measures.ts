@@ -70,7 +70,10 @@ export function startMeasure(p: PartState, attrs: Record<string, string>): void 
   };
   p.measures.push(m);
   p.measure = m;
-  if (attrs.implicit === "yes") p.implicit.add(m.index);
+  if (attrs.implicit === "yes") {
+    p.implicit.add(m.index);
+    m.implicit = true;
+  }
   p.clock.startMeasure();
 }
 

@@ -1,4 +1,3 @@
-import { PracticeTempoPrompt } from "@/components/score/working-tempo";
 import type { Metadata } from "next";
 import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query";
 import { utcIsoDate } from "@/lib/assignments/due";
@@ -8,9 +7,6 @@ import { PracticeRoom } from "@/components/screens/practice-room";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Practise" };
-
-/** Until the player answers the question for a part without a tempo: a moderate ♩ = 72 (common practice for slow work). */
-const ASSUMED_TEMPO = 72;
 
 export default async function PracticePage({ params, searchParams }: { params: Promise<{ partId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const { partId } = await params;
@@ -26,12 +22,8 @@ export default async function PracticePage({ params, searchParams }: { params: P
 
   return (
     <HydrationBoundary state={dehydrate(queryClient)}>
-      {part.tempo === null && part.isOwner ? (
-        <div className="mx-auto max-w-5xl px-gutter pt-4 text-sm">
-          <PracticeTempoPrompt partId={partId} />
-        </div>
-      ) : null}
-      <PracticeRoom partId={partId} title={part.title} tempo={part.tempo ?? ASSUMED_TEMPO} tempoAssumed={part.tempo === null} notes={room.notes} line={part.line} canWrite={room.canWrite} initialNoteKey={initialNoteKey} serverToday={utcIsoDate(new Date())} />
+      {/* Without a tempo the room asks its owner once and keeps the metronome drills until then. */}
+      <PracticeRoom partId={partId} title={part.title} tempo={part.tempo} canSetTempo={part.isOwner} notes={room.notes} line={part.line} canWrite={room.canWrite} initialNoteKey={initialNoteKey} serverToday={utcIsoDate(new Date())} />
     </HydrationBoundary>
   );
 }
