@@ -57,7 +57,7 @@ describe("the practice page", () => {
     await page.waitForURL((url) => url.pathname === `/parts/${partId}/practice`);
     await page.getByTestId("practice-room").waitFor();
     expect(await page.getByLabel("Note to practise").inputValue()).toBe(markedKey);
-    await expect.poll(() => page.getByTestId("note-summary").innerText()).toMatch(/±30\s*c/);
+    await expect.poll(() => page.getByTestId("note-summary").innerText()).toMatch(/±30\s*¢/);
     // 6 Hz at the part's tempo, as pulses per beat, is on screen next to the marking.
     expect(await page.getByTestId("note-summary").innerText()).toMatch(/Pulses per beat/i);
     expect(await page.getByTestId("audio-caution").count()).toBeGreaterThanOrEqual(2);
