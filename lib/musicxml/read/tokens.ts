@@ -11,7 +11,7 @@ import { FractionRangeError } from "../fraction";
 export interface TokenSink {
   /** `depth` is the element's own depth (the root is 1). */
   open(name: string, attrs: Record<string, string>, depth: number, parent: string, selfClosing: boolean): void;
-  /** `text` is the element's text after its last child opened (its whole text for a leaf). */
+  /** `text` is a leaf element's whole text ("" for an element with children: none of them is read). */
   close(name: string, text: string, depth: number, parent: string): void;
 }
 
@@ -44,24 +44,33 @@ export class Tokens {
 
   run(sink: TokenSink): void {
     const { parser, names, maxDepth } = this;
+    // Text is only listened to between an element's opening and the next tag: the whitespace
+    // between elements (most of a file's text) then costs saxes no string at all.
+    const onText = (t: string) => {
+      this.pending += t;
+    };
+    let listening = false;
     parser.on("opentag", (tag) => {
       const depth = ++this.depth;
       if (depth > maxDepth) throw fail.nesting(maxDepth);
       names[depth] = tag.name;
       this.pending = "";
       if (depth === 1) this.sawRoot = true;
+      if (!listening && !tag.isSelfClosing) {
+        parser.on("text", onText);
+        listening = true;
+      }
       sink.open(tag.name, tag.attributes as Record<string, string>, depth, names[depth - 1], tag.isSelfClosing);
     });
-    parser.on("text", (t) => {
-      this.pending += t;
-    });
-    parser.on("cdata", (t) => {
-      this.pending += t;
-    });
+    parser.on("cdata", onText);
     parser.on("closetag", (tag) => {
       const depth = this.depth--;
       const text = this.pending;
       this.pending = "";
+      if (listening) {
+        parser.off("text");
+        listening = false;
+      }
       sink.close(tag.name, text, depth, names[depth - 1]);
     });
 
