@@ -83,6 +83,18 @@ export function toString(a: Fraction): string {
  * or has more digits than exact arithmetic can hold.
  */
 export function parseDecimal(text: string): Fraction | null {
+  // Fast path for the common case, a short run of digits ("2", "480"): no regular expression.
+  const len = text.length;
+  if (len > 0 && len < 10) {
+    let v = 0;
+    let i = 0;
+    for (; i < len; i++) {
+      const c = text.charCodeAt(i) - 48;
+      if (c < 0 || c > 9) break;
+      v = v * 10 + c;
+    }
+    if (i === len) return v === 0 ? { num: 0, den: 1 } : { num: v, den: 1 };
+  }
   const m = /^\s*([+-]?)(\d*)(?:\.(\d*))?\s*$/.exec(text);
   if (!m || (m[2] === "" && !m[3])) return null;
   const whole = m[2] || "0";

@@ -117,6 +117,7 @@ class ScoreReader implements TokenSink {
   private sliceStart = 0;
   private timewiseMeasureAttrs: Record<string, string> = {};
   private moveDuration: Fraction | null = null;
+  private readonly durations = new Map<string, Fraction | null>();
 
   constructor(
     private readonly tokens: Tokens,
@@ -240,7 +241,12 @@ class ScoreReader implements TokenSink {
       return;
     }
     if (name === "duration") {
-      const d = parseDecimal(text);
+      // A part repeats a handful of durations: each text is parsed once, its fraction shared.
+      let d = this.durations.get(text);
+      if (d === undefined) {
+        d = parseDecimal(text);
+        if (this.durations.size < 256) this.durations.set(text, d);
+      }
       if (!d || d.num < 0) throw fail.duration(p?.measure?.number ?? "?", text.trim());
       if (parent === "note" && this.note) this.note.duration = d;
       else if (parent === "backup" || parent === "forward") this.moveDuration = d;

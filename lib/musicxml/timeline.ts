@@ -67,9 +67,24 @@ export function buildTimeline(parts: PartTimes[], events: TempoEvent[], defaultT
     }
     return lo;
   };
+  // Notes are asked for in time order: the last breakpoint found is where the next search starts,
+  // and it finds the same breakpoint the binary search would (the last one at or before x).
+  // A note's end is asked for just after its start, so a few steps either way are tried first.
+  let last = 0;
+  const findFrom = (x: number) => {
+    let k = last;
+    for (let steps = 0; steps < 8; steps++) {
+      if (at[k] > x) {
+        if (k === 0) return (last = 0);
+        k--;
+      } else if (k + 1 < at.length && at[k + 1] <= x) k++;
+      else return (last = k);
+    }
+    return (last = find(x));
+  };
   // A whole note lasts 4 quarters: 240 / (quarters per minute) seconds.
   const seconds = (x: number) => {
-    const k = find(x);
+    const k = findFrom(x);
     return secs[k] + ((x - at[k]) * 240) / tempo[k];
   };
   return {

@@ -22,6 +22,24 @@ export class VoiceClock {
   /** Per staff and voice: grace notes no note of the voice has followed yet in the measure. */
   private trailing = new Map<string, Note[]>();
 
+  private slotStaff = 0;
+  private slotVoice = "";
+  private slotText = "";
+
+  /** The map key of a staff and voice; nearly every note is of the previous note's voice. */
+  private slot(staff: number, voice: string): string {
+    if (staff !== this.slotStaff || voice !== this.slotVoice) {
+      this.slotStaff = staff;
+      this.slotVoice = voice;
+      this.slotText = `${staff}|${voice}`;
+    }
+    return this.slotText;
+  }
+
+  /** Whole-note lengths of the durations met at the divisions in force (parsed durations are shared). */
+  private wholes = new Map<Fraction, Fraction>();
+  private wholesDivisions: Fraction | null = null;
+
   startMeasure(): void {
     this.pos = ZERO;
     this.maxPos = ZERO;
@@ -33,13 +51,13 @@ export class VoiceClock {
 
   /** A note (rest, chord tone and tie continuation included) of a voice: its grace notes lead into it. */
   mainNote(staff: number, voice: string, onset: Fraction): void {
-    const slot = `${staff}|${voice}`;
+    const slot = this.slot(staff, voice);
     this.lastMain.set(slot, onset);
     this.trailing.delete(slot);
   }
 
   graceNote(note: Note): void {
-    const slot = `${note.staff}|${note.voice}`;
+    const slot = this.slot(note.staff, note.voice);
     const list = this.trailing.get(slot);
     if (list) list.push(note);
     else this.trailing.set(slot, [note]);
@@ -60,7 +78,16 @@ export class VoiceClock {
 
   /** A duration in divisions, in whole notes: duration / (4 × divisions). */
   toWholes(d: Fraction): Fraction {
-    return mul(d, { num: this.divisions.den, den: 4 * this.divisions.num });
+    if (this.wholesDivisions !== this.divisions) {
+      this.wholes.clear();
+      this.wholesDivisions = this.divisions;
+    }
+    let w = this.wholes.get(d);
+    if (!w) {
+      w = mul(d, { num: this.divisions.den, den: 4 * this.divisions.num });
+      if (this.wholes.size < 256) this.wholes.set(d, w);
+    }
+    return w;
   }
 
   advance(by: Fraction): void {
