@@ -7,7 +7,8 @@
  * - `partId`: the MusicXML `score-part` id, as written (e.g. `P1`).
  * - `measureIndex`: 0-based position of the measure in the part, in written order (repeats are not
  *   unfolded); not the `number` attribute.
- * - `staff`: the MusicXML `staff` (1 when absent). `voice`: the MusicXML `voice` text (1 when absent).
+ * - `staff`: the MusicXML `staff` (1 when absent). `voice`: the MusicXML `voice` text (1 when absent,
+ *   except on a chord tone, which takes the voice of the note it sounds with).
  * - `onset`: the note's offset from the start of its measure as a reduced fraction of a whole note,
  *   always written `num/den` (`0/1`, `1/4`, `3/8`).
  * - `midi`: the written pitch's MIDI number, C4 = 60 (alter rounded to the nearest semitone).

@@ -30,6 +30,7 @@ export interface PartState {
   clock: VoiceClock;
   ties: TieChains;
   pendingDynamics: string | null;
+  lastVoice: string;
   /** Source slices of this part's measures, for the normalized text. */
   out: string[];
 }
@@ -48,6 +49,7 @@ export function newPartState(id: string): PartState {
     clock: new VoiceClock(),
     ties: new TieChains(),
     pendingDynamics: null,
+    lastVoice: "1",
     out: [],
   };
 }

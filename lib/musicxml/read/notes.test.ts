@@ -8,7 +8,7 @@ const measure = { index: 3, number: "4" } as Measure;
 function part(): NotePart {
   const clock = new VoiceClock();
   clock.divisions = { num: 1, den: 1 };
-  return { id: "P1", clock, ties: new TieChains(), pendingDynamics: null };
+  return { id: "P1", clock, ties: new TieChains(), pendingDynamics: null, lastVoice: "1" };
 }
 
 function draft(step: string, octave: number, duration: number, more: (d: ReturnType<typeof newDraft>) => void = () => {}) {
@@ -75,5 +75,17 @@ describe("notes and ties", () => {
     d.rest = true;
     d.duration = { num: 1, den: 1 };
     expect(finishNote(part(), measure, d)).toMatchObject({ key: "", isRest: true });
+  });
+
+  // MusicXML 4.0, `chord`: a chord tone sounds with the note before it, so without a `<voice>` of
+  // its own it is of that note's voice (Schubert's "Der Lindenbaum" in the real corpus writes the
+  // lower staff's chord tones so). A note that is no chord tone and names no voice is voice 1.
+  it("a chord tone without a voice joins its chord's voice; another note without one is voice 1", () => {
+    const p = part();
+    const e2 = finishNote(p, measure, draft("E", 2, 4, (d) => closeInNote(d, "voice", "3", "note")));
+    const b2 = finishNote(p, measure, draft("B", 2, 4, (d) => (d.chord = true)));
+    const c3 = finishNote(p, measure, draft("C", 3, 4));
+    expect([e2!.voice, b2!.voice, c3!.voice]).toEqual(["3", "3", "1"]);
+    expect(b2!.key).toBe("P1:m3:s1:v3:0/1:47");
   });
 });

@@ -20,6 +20,7 @@ export interface NoteDraft {
   alter: number;
   octave: number | null;
   duration: Fraction | null;
+  /** "" until a `<voice>` is read (see finishNote). */
   voice: string;
   staff: number;
   tieStart: boolean;
@@ -42,7 +43,7 @@ export function newDraft(): NoteDraft {
     alter: 0,
     octave: null,
     duration: null,
-    voice: "1",
+    voice: "",
     staff: 1,
     tieStart: false,
     tieStop: false,
@@ -160,6 +161,8 @@ export interface NotePart {
   ties: TieChains;
   /** Dynamics written before this note and not yet given to one. */
   pendingDynamics: string | null;
+  /** Voice of the part's last note, which a chord tone that names none joins. */
+  lastVoice: string;
 }
 
 /**
@@ -168,6 +171,10 @@ export interface NotePart {
  */
 export function finishNote(ctx: NotePart, m: Measure, n: NoteDraft): Note | null {
   const { clock, ties } = ctx;
+  // No `<voice>`: voice 1, except a chord tone, which sounds with the note it joins and so is of
+  // its voice (the engraver reads it the same way).
+  if (!n.voice) n.voice = n.chord ? ctx.lastVoice : "1";
+  ctx.lastVoice = n.voice;
   const dur = n.grace || !n.duration ? ZERO : clock.toWholes(n.duration);
   const onset = clock.place(n.chord, n.grace, dur);
   const pitch = !n.rest && isStep(n.step) && n.octave !== null ? makePitch(n.step, n.unpitched ? 0 : n.alter, n.octave) : null;
