@@ -1,8 +1,9 @@
 /**
- * Where the reader spends its time: reads a generated part of 100 000 notes a few times, for
+ * Where the reader spends its time: reads a generated part (100 000 notes, 6 times by default) for
  * `node --cpu-prof` (see DEVELOPERS.md, Benchmarks).
  *
- *   npx tsx --cpu-prof --cpu-prof-dir=test-results/profile scripts/bench/reader-profile.ts
+ *   npx esbuild scripts/bench/reader-profile.ts --bundle --platform=node --outfile=test-results/reader-profile.cjs
+ *   node --cpu-prof --cpu-prof-dir=test-results/profile test-results/reader-profile.cjs 100000 6
  */
 import { readScoreFile } from "../../lib/musicxml";
 import { generatePart } from "./reader";
