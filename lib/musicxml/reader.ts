@@ -38,7 +38,10 @@ const enum Step {
   Move,
 }
 
-const STEP: Record<string, Step> = Object.assign(Object.create(null), {
+// A Map: element names come from the tokenizer as fresh strings, which a Map finds by hash
+// without the engine's look-up of a property name.
+const STEP = new Map<string, Step>(
+  Object.entries({
   grace: Step.Note,
   chord: Step.Note,
   cue: Step.Note,
@@ -84,9 +87,10 @@ const STEP: Record<string, Step> = Object.assign(Object.create(null), {
   creator: Step.Header,
   "work-title": Step.Header,
   "movement-title": Step.Header,
-  backup: Step.Move,
-  forward: Step.Move,
-});
+    backup: Step.Move,
+    forward: Step.Move,
+  }),
+);
 
 export interface ReadResult {
   score: ScoreModel;
@@ -177,7 +181,7 @@ class ScoreReader implements TokenSink {
       else this.directions.open(this.part, name, attrs, parent);
       return;
     }
-    switch (STEP[name]) {
+    switch (STEP.get(name)) {
       case Step.Note:
         if (this.note) openInNote(this.note, name, attrs, parent);
         return;
@@ -259,7 +263,7 @@ class ScoreReader implements TokenSink {
       }
       return;
     }
-    switch (STEP[name]) {
+    switch (STEP.get(name)) {
       case Step.Note:
         if (this.note) closeInNote(this.note, name, text, parent);
         return;
