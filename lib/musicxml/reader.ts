@@ -87,8 +87,8 @@ const STEP = new Map<string, Step>(
     creator: Step.Header,
     "work-title": Step.Header,
     "movement-title": Step.Header,
-      backup: Step.Move,
-      forward: Step.Move,
+    backup: Step.Move,
+    forward: Step.Move,
   }),
 );
 
