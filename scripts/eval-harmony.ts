@@ -20,7 +20,7 @@
  */
 import { readFileSync, readdirSync } from "node:fs";
 import path from "node:path";
-import { analyzePart } from "@/lib/analysis";
+import { type AnalyzeOptions, analyzePart } from "@/lib/analysis";
 import { findKey } from "@/lib/analysis/key-finding";
 import { buildTimeline, extractMelody, type MelodyNote } from "@/lib/analysis/melody";
 import { KRUMHANSL_KESSLER } from "@/lib/analysis/profiles";
@@ -114,9 +114,9 @@ function windowedKk(score: ScoreModel, measureCount: number): PcKey[] {
 }
 
 /** Ondula's key of every measure of the analysed part: the part's key, overridden by local keys. */
-function ondulaKeys(score: ScoreModel): { keys: Array<PcKey | null>; leadingTones: Set<string> } {
+function ondulaKeys(score: ScoreModel, options: AnalyzeOptions = {}): { keys: Array<PcKey | null>; leadingTones: Set<string> } {
   const part = score.parts[0];
-  const a = analyzePart(score, part);
+  const a = analyzePart(score, part, options);
   const home: PcKey = { pc: pcOfLof(lofOfName(a.key.tonic)), mode: a.key.mode };
   const indexOf = new Map(part.measures.map((m) => [m.number, m.index]));
   const keys: Array<PcKey | null> = part.measures.map(() => home);
@@ -136,7 +136,7 @@ function ondulaKeys(score: ScoreModel): { keys: Array<PcKey | null>; leadingTone
 const KEY_NAMES = ["C", "C#", "D", "Eb", "E", "F", "F#", "G", "Ab", "A", "Bb", "B"];
 const show = (k: PcKey | null) => (k ? (k.mode === "major" ? KEY_NAMES[k.pc] : KEY_NAMES[k.pc].toLowerCase()) : "-");
 
-export function evaluatePiece(piece: PieceInput, trace?: (line: string) => void): Record<Method, MethodCounts> {
+export function evaluatePiece(piece: PieceInput, trace?: (line: string) => void, options: AnalyzeOptions = {}): Record<Method, MethodCounts> {
   const { score, rt } = piece;
   const part = score.parts[0];
   const melody = extractMelody(part, buildTimeline(score, part)).filter((n) => !n.grace);
@@ -149,7 +149,7 @@ export function evaluatePiece(piece: PieceInput, trace?: (line: string) => void)
   });
   const goldLt = goldLeadingTones(rt, melody);
   const kk = windowedKk(score, part.measures.length);
-  const ondula = ondulaKeys(score);
+  const ondula = ondulaKeys(score, options);
   const predicted: Record<Method, { keyAt: (i: number) => PcKey | null; lt: Set<string> }> = {
     "never modulates": { keyAt: () => home, lt: keyLeadingTones(melody, () => home) },
     "windowed K–K": { keyAt: (i) => kk[i], lt: keyLeadingTones(melody, (i) => kk[i]) },
