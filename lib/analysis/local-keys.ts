@@ -40,6 +40,12 @@ export interface LocalKeySpan {
  * (pitch content alone — a bar of G and D — is no modulation) and lasts `minMeasures`, or ends the
  * section. Its pivot region is the run of bars just before the first such note whose notes fit
  * both keys.
+ * Besides the correlation: `presenceWeight` × log P(the beat's pitch-class set | key) (Temperley
+ * 2007), `foreignWeight` × the share of the window's time outside the key's scale
+ * (Longuet-Higgins & Steedman 1971), `chordWeight` × the chord's fit. `startAtCadence`: a new key
+ * starts at its tonic's arrival from its dominant when that comes within so many bars (0 = off).
+ * `requireEvidence` 1 asks a foreign note of harmonised spans too (off: the tuning rejected it).
+ * The values were set by scripts/tune-harmony.ts on the tuning half of tests/fixtures/harmony.
  */
 export const LOCAL_KEY = { windowMeasures: 2, margin: 0.6, homeBonus: 0.1, neighbourWeight: 0.35, minMeasures: 3, openingChord: 0.3, chordWeight: 1, presenceWeight: 0.2, startAtCadence: 2, requireEvidence: 0, foreignWeight: 1 } as const;
 
