@@ -13,10 +13,14 @@
  * - Three methods in one run: "never modulates" (the expert's first key held throughout), a plain
  *   windowed Krumhansl–Kessler baseline (K–S correlation over the bar and its two neighbours, every
  *   part, duration-weighted), and Ondula (lib/analysis on the first part, the others as context).
+ * - Two halves, by piece: the pieces in name order, alternately "tuning" (1st, 3rd, …) and
+ *   "held out" (2nd, 4th, …), so that every source (the preludes, each textbook) falls in both.
+ *   Ondula's constants are set on the tuning half only (`scripts/tune-harmony.ts`); the held-out
+ *   figures say how far they carry to music they were not set on.
  */
 import { readFileSync, readdirSync } from "node:fs";
 import path from "node:path";
-import { analyzePart } from "@/lib/analysis";
+import { type AnalyzeOptions, analyzePart } from "@/lib/analysis";
 import { findKey } from "@/lib/analysis/key-finding";
 import { buildTimeline, extractMelody, type MelodyNote } from "@/lib/analysis/melody";
 import { KRUMHANSL_KESSLER } from "@/lib/analysis/profiles";
@@ -110,9 +114,9 @@ function windowedKk(score: ScoreModel, measureCount: number): PcKey[] {
 }
 
 /** Ondula's key of every measure of the analysed part: the part's key, overridden by local keys. */
-function ondulaKeys(score: ScoreModel): { keys: Array<PcKey | null>; leadingTones: Set<string> } {
+function ondulaKeys(score: ScoreModel, options: AnalyzeOptions = {}): { keys: Array<PcKey | null>; leadingTones: Set<string> } {
   const part = score.parts[0];
-  const a = analyzePart(score, part);
+  const a = analyzePart(score, part, options);
   const home: PcKey = { pc: pcOfLof(lofOfName(a.key.tonic)), mode: a.key.mode };
   const indexOf = new Map(part.measures.map((m) => [m.number, m.index]));
   const keys: Array<PcKey | null> = part.measures.map(() => home);
@@ -132,7 +136,7 @@ function ondulaKeys(score: ScoreModel): { keys: Array<PcKey | null>; leadingTone
 const KEY_NAMES = ["C", "C#", "D", "Eb", "E", "F", "F#", "G", "Ab", "A", "Bb", "B"];
 const show = (k: PcKey | null) => (k ? (k.mode === "major" ? KEY_NAMES[k.pc] : KEY_NAMES[k.pc].toLowerCase()) : "-");
 
-export function evaluatePiece(piece: PieceInput, trace?: (line: string) => void): Record<Method, MethodCounts> {
+export function evaluatePiece(piece: PieceInput, trace?: (line: string) => void, options: AnalyzeOptions = {}): Record<Method, MethodCounts> {
   const { score, rt } = piece;
   const part = score.parts[0];
   const melody = extractMelody(part, buildTimeline(score, part)).filter((n) => !n.grace);
@@ -145,7 +149,7 @@ export function evaluatePiece(piece: PieceInput, trace?: (line: string) => void)
   });
   const goldLt = goldLeadingTones(rt, melody);
   const kk = windowedKk(score, part.measures.length);
-  const ondula = ondulaKeys(score);
+  const ondula = ondulaKeys(score, options);
   const predicted: Record<Method, { keyAt: (i: number) => PcKey | null; lt: Set<string> }> = {
     "never modulates": { keyAt: () => home, lt: keyLeadingTones(melody, () => home) },
     "windowed K–K": { keyAt: (i) => kk[i], lt: keyLeadingTones(melody, (i) => kk[i]) },
@@ -191,6 +195,12 @@ export function loadHarmonyCorpus(dir: string): PieceInput[] {
     });
 }
 
+/** The corpus split by piece: name order, alternately tuning and held out (deterministic). */
+export function splitCorpus<T extends { name: string }>(pieces: readonly T[]): { tuning: T[]; heldOut: T[] } {
+  const sorted = [...pieces].sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
+  return { tuning: sorted.filter((_, i) => i % 2 === 0), heldOut: sorted.filter((_, i) => i % 2 === 1) };
+}
+
 export interface HarmonyTotals {
   method: Method;
   counts: MethodCounts;
@@ -204,7 +214,12 @@ const ratio = (a: number, b: number) => (b === 0 ? 1 : a / b);
 
 export function evaluateHarmony(pieces: readonly PieceInput[], trace?: (line: string) => void): { totals: HarmonyTotals[]; perPiece: Array<{ name: string; result: Record<Method, MethodCounts> }> } {
   const perPiece = pieces.map((p) => ({ name: p.name, result: evaluatePiece(p, trace) }));
-  const totals = METHODS.map((method) => {
+  return { totals: totalsOf(perPiece), perPiece };
+}
+
+/** Sums of the counts over pieces, and the four figures, per method. */
+export function totalsOf(perPiece: ReadonlyArray<{ result: Record<Method, MethodCounts> }>): HarmonyTotals[] {
+  return METHODS.map((method) => {
     const c = empty();
     for (const p of perPiece) for (const k of Object.keys(c) as Array<keyof MethodCounts>) c[k] += p.result[method][k];
     return {
@@ -216,20 +231,13 @@ export function evaluateHarmony(pieces: readonly PieceInput[], trace?: (line: st
       ltRecall: ratio(c.ltTp, c.ltGold),
     };
   });
-  return { totals, perPiece };
 }
 
-/** Prints the harmony section: one row per method, then the goals for Ondula. */
-export function printHarmony(dir: string, verbose: boolean): void {
-  const pieces = loadHarmonyCorpus(dir);
-  const traced: string[] = [];
-  const { totals, perPiece } = evaluateHarmony(pieces, verbose ? (l) => traced.push(l) : undefined);
-  const bars = totals[0].counts.bars;
-  const away = totals[0].counts.away;
-  console.log(`\nHarmony: ${pieces.length} pieces of tests/fixtures/harmony, ${bars} bars (${away} away from the home key), ${totals[0].counts.ltGold} leading tones in the melody`);
-  const pct = (v: number) => `${(v * 100).toFixed(1)} %`;
+const pct = (v: number) => `${(v * 100).toFixed(1)} %`;
+
+function printRows(totals: readonly HarmonyTotals[], label?: string): void {
   const rows = totals.map((t) => ({
-    method: t.method,
+    method: label ? `${t.method} (${label})` : t.method,
     "local key": pct(t.localKey),
     "away from home": pct(t.awayFromHome),
     "LT precision": t.ltPrecision.toFixed(2),
@@ -242,6 +250,17 @@ export function printHarmony(dir: string, verbose: boolean): void {
   console.log(line(Object.fromEntries(cols.map((c) => [c, c]))));
   console.log(width.map((w) => "-".repeat(w)).join("  "));
   for (const r of rows) console.log(line(r));
+}
+
+/** Prints the harmony section: one row per method, then the goals for Ondula. */
+export function printHarmony(dir: string, verbose: boolean): void {
+  const pieces = loadHarmonyCorpus(dir);
+  const traced: string[] = [];
+  const { totals, perPiece } = evaluateHarmony(pieces, verbose ? (l) => traced.push(l) : undefined);
+  const bars = totals[0].counts.bars;
+  const away = totals[0].counts.away;
+  console.log(`\nHarmony: ${pieces.length} pieces of tests/fixtures/harmony, ${bars} bars (${away} away from the home key), ${totals[0].counts.ltGold} leading tones in the melody`);
+  printRows(totals);
   const o = totals[2];
   const never = totals[0];
   const G = HARMONY_GOALS;
@@ -254,6 +273,12 @@ export function printHarmony(dir: string, verbose: boolean): void {
     `LT recall ${o.ltRecall.toFixed(2)} ${o.ltRecall >= G.ltRecall ? "≥" : "<"} ${G.ltRecall}`,
   ];
   console.log(`\nHarmony goals (Ondula): ${goals.join("; ")}`);
+  const halves = splitCorpus(perPiece);
+  for (const [label, half] of [["tuning", halves.tuning], ["held out", halves.heldOut]] as const) {
+    const t = totalsOf(half);
+    console.log(`\n${label === "tuning" ? "Tuning half" : "Held-out half"}: ${half.length} pieces, ${t[0].counts.bars} bars (${t[0].counts.away} away from home), ${t[0].counts.ltGold} leading tones`);
+    printRows(t, label);
+  }
   if (verbose) {
     for (const l of traced) console.log(l);
     for (const p of perPiece) {

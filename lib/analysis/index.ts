@@ -8,7 +8,7 @@ import { barName, writtenBars } from "@/lib/musicxml/bar-names";
 import type { AnalyzedNote, LocalKey, PartAnalysis, ScoreAnalysis, Suggestion } from "./types";
 import { degreeOf } from "./degree";
 import { type Key, keyFromSignature, majorOf, toKeyResult } from "./key";
-import { type KeySection, type LocalKeySpan, keySections, localKeysOf } from "./local-keys";
+import { type KeySection, type LocalKeyParams, type LocalKeySpan, keySections, localKeysOf } from "./local-keys";
 import { barEvidence, harmonyAt } from "./bar-evidence";
 import { toString as fracString } from "@/lib/musicxml/fraction";
 import { Accompaniment, buildTimeline, extractMelody, type MelodyNote } from "./melody";
@@ -18,11 +18,13 @@ import { phraseSuggestions, rankByPhrase, tensionSuggestions } from "./suggestio
 import { findTensions } from "./tension";
 
 /** Bump whenever results change: stored analyses with another version are recomputed. */
-export const ANALYSIS_VERSION = 3;
+export const ANALYSIS_VERSION = 4;
 
 export interface AnalyzeOptions {
   /** For a staff carrying two players: whose line is analysed (the upper by default). */
   line?: Line;
+  /** Other constants for the local-key path (scripts/tune-harmony.ts sets them on the tuning half). */
+  localKey?: LocalKeyParams;
 }
 
 const ROLE_ORDER: Record<Suggestion["role"], number> = { "phrase-start": 0, peak: 1, tension: 2, resolution: 3 };
@@ -37,7 +39,7 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
   const main = melody.filter((n) => !n.grace);
   const sections: KeySection[] = part.measures.length > 0 ? keySections(part.measures, melody) : [];
   const bars = barEvidence(score, part, timeline, melody);
-  const spans: LocalKeySpan[] = sections.flatMap((s) => localKeysOf(s, bars));
+  const spans: LocalKeySpan[] = sections.flatMap((s) => localKeysOf(s, bars, options.localKey));
 
   const keyAtMeasure: Key[] = part.measures.map(() => majorOf(0));
   for (const s of sections) for (let i = s.fromIndex; i <= s.toIndex; i++) keyAtMeasure[i] = s.key;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { findKey, keyCorrelation, pearson } from "./key-finding";
-import { AARDEN_ESSEN, KRUMHANSL_KESSLER, SIMPLE_MAJOR, TEMPERLEY_1999 } from "./profiles";
+import { AARDEN_ESSEN, KRUMHANSL_KESSLER, SIMPLE_MAJOR, TEMPERLEY_1999, TEMPERLEY_2007_PRESENCE } from "./profiles";
 
 const NAMES = ["C", "C#", "D", "Eb", "E", "F", "F#", "G", "Ab", "A", "Bb", "B"];
 const top = (h: number[], p = KRUMHANSL_KESSLER) => {
@@ -22,6 +22,16 @@ describe("published key profiles", () => {
     expect(TEMPERLEY_1999.minor[11]).toBe(4.0);
     expect(TEMPERLEY_1999.minor[10]).toBe(1.5);
     expect(TEMPERLEY_1999.major).toEqual([5.0, 2.0, 3.5, 2.0, 4.5, 4.0, 2.0, 4.5, 2.0, 3.5, 1.5, 4.0]);
+  });
+
+  it("holds Temperley (2007) presence probabilities: tonic-triad degrees most likely, the raised seventh likely in minor", () => {
+    // source: Temperley 2007, Music and Probability, ch. 6 (Kostka–Payne counts) — values from memory.
+    for (const p of [...TEMPERLEY_2007_PRESENCE.major, ...TEMPERLEY_2007_PRESENCE.minor]) expect(p > 0 && p < 1).toBe(true);
+    const rankMajor = [...TEMPERLEY_2007_PRESENCE.major.keys()].sort((a, b) => TEMPERLEY_2007_PRESENCE.major[b] - TEMPERLEY_2007_PRESENCE.major[a]);
+    expect(rankMajor.slice(0, 3).sort()).toEqual([0, 4, 7]);
+    const rankMinor = [...TEMPERLEY_2007_PRESENCE.minor.keys()].sort((a, b) => TEMPERLEY_2007_PRESENCE.minor[b] - TEMPERLEY_2007_PRESENCE.minor[a]);
+    expect(rankMinor.slice(0, 3).sort()).toEqual([0, 3, 7]);
+    expect(TEMPERLEY_2007_PRESENCE.minor[11]).toBeGreaterThan(TEMPERLEY_2007_PRESENCE.minor[10]);
   });
 
   it("holds Aarden–Essen (2003)", () => {

@@ -10,6 +10,7 @@ import { type BarEvidence, CADENCE_WEIGHT, type Segment } from "./bar-evidence";
 import { chordFit, nameChord } from "./chord-fit";
 import { keyScoresMean } from "./key-finding";
 import type { MelodyNote } from "./melody";
+import { TEMPERLEY_2007_PRESENCE } from "./profiles";
 import { pcOfLof } from "./spelling";
 
 export interface KeySection {
@@ -39,8 +40,16 @@ export interface LocalKeySpan {
  * (pitch content alone — a bar of G and D — is no modulation) and lasts `minMeasures`, or ends the
  * section. Its pivot region is the run of bars just before the first such note whose notes fit
  * both keys.
+ * Besides the correlation: `presenceWeight` × log P(the beat's pitch-class set | key) (Temperley
+ * 2007), `foreignWeight` × the share of the window's time outside the key's scale
+ * (Longuet-Higgins & Steedman 1971), `chordWeight` × the chord's fit. `startAtCadence`: a new key
+ * starts at its tonic's arrival from its dominant when that comes within so many bars (0 = off).
+ * `requireEvidence` 1 asks a foreign note of harmonised spans too (off: the tuning rejected it).
+ * The values were set by scripts/tune-harmony.ts on the tuning half of tests/fixtures/harmony.
  */
-export const LOCAL_KEY = { windowMeasures: 4, margin: 0.15, homeBonus: 0.05, neighbourWeight: 0.35, minMeasures: 2, openingChord: 0.3, chordWeight: 0.6 } as const;
+export const LOCAL_KEY = { windowMeasures: 2, margin: 0.6, homeBonus: 0.1, neighbourWeight: 0.35, minMeasures: 3, openingChord: 0.3, chordWeight: 1, presenceWeight: 0.2, startAtCadence: 2, requireEvidence: 0, foreignWeight: 1 } as const;
+
+export type LocalKeyParams = { [K in keyof typeof LOCAL_KEY]: number };
 
 export function keySections(measures: readonly Measure[], melody: readonly MelodyNote[]): KeySection[] {
   const sections: KeySection[] = [];
@@ -78,6 +87,58 @@ function spellTonic(pc: number, mode: Key["mode"], nearFifths: number): Key {
   return best as Key;
 }
 
+const PRESENCE_LOG = (["major", "minor"] as const).map((mode) =>
+  TEMPERLEY_2007_PRESENCE[mode].map((p) => ({ yes: Math.log(p), no: Math.log(1 - p) })),
+);
+
+/**
+ * Temperley's (2007) probabilistic key-finding, for one segment: log P(the segment's pitch-class
+ * set | key) for the 24 keys, each pitch class present or absent independently with the key's
+ * probability, shifted so that the best key scores 0.
+ */
+function presenceScores(hist: ArrayLike<number>, out: Float64Array): void {
+  let max = -Infinity;
+  for (let k = 0; k < 24; k++) {
+    const table = PRESENCE_LOG[k < 12 ? 0 : 1];
+    const t = k % 12;
+    let lp = 0;
+    for (let pc = 0; pc < 12; pc++) {
+      const e = table[(pc - t + 12) % 12];
+      lp += hist[pc] > 0 ? e.yes : e.no;
+    }
+    out[k] = lp;
+    if (lp > max) max = lp;
+  }
+  for (let k = 0; k < 24; k++) out[k] -= max;
+}
+
+/** How far each pitch class (above the tonic) lies outside the key's scale: 0 inside, 1 outside;
+ * in minor the raised seventh belongs (harmonic minor) and the raised sixth half (melodic minor). */
+const OUTSIDE = {
+  major: [0, 1, 0, 1, 0, 0, 1, 0, 1, 0, 1, 0],
+  minor: [0, 1, 0, 0, 1, 0, 1, 0, 0, 0.5, 0, 0],
+} as const;
+
+/**
+ * The share of the sounding time spent on notes outside each key's scale (Longuet-Higgins &
+ * Steedman 1971, "On interpreting Bach": a key is ruled out by the notes its scale lacks).
+ */
+function foreignShares(hist: ArrayLike<number>, out: Float64Array): void {
+  let total = 0;
+  for (let pc = 0; pc < 12; pc++) total += hist[pc];
+  for (let k = 0; k < 24; k++) {
+    if (total <= 0) {
+      out[k] = 0;
+      continue;
+    }
+    const table = k < 12 ? OUTSIDE.major : OUTSIDE.minor;
+    const t = k % 12;
+    let f = 0;
+    for (let pc = 0; pc < 12; pc++) f += hist[pc] * table[(pc - t + 12) % 12];
+    out[k] = f / total;
+  }
+}
+
 /** Key index 0–11 = major on that pitch class, 12–23 = minor. */
 const keyIndexOf = (k: Key) => (k.mode === "major" ? 0 : 12) + pcOfLof(k.tonicLof);
 
@@ -85,8 +146,8 @@ const keyIndexOf = (k: Key) => (k.mode === "major" ? 0 : 12) + pcOfLof(k.tonicLo
  * Local keys of one section, from the bars' evidence (bar-evidence.ts). The section key is the
  * home of the path: bars that fit it as well as another key stay in it.
  */
-export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): LocalKeySpan[] {
-  const { windowMeasures, margin, homeBonus, neighbourWeight, minMeasures, openingChord, chordWeight } = LOCAL_KEY;
+export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], params: LocalKeyParams = LOCAL_KEY): LocalKeySpan[] {
+  const { windowMeasures, margin, homeBonus, neighbourWeight, minMeasures, openingChord, chordWeight, presenceWeight, startAtCadence, requireEvidence, foreignWeight } = params;
   const n = section.toIndex - section.fromIndex + 1;
   if (n < 1) return [];
   const home = keyIndexOf(section.key);
@@ -108,6 +169,8 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): 
   const h = new Float64Array(12);
   const row0 = new Float64Array(24);
   const fit = new Float64Array(24);
+  const presence = new Float64Array(24);
+  const foreign = new Float64Array(24);
   for (let i = 0; i < m; i++) {
     h.fill(0);
     let any = false;
@@ -123,7 +186,9 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): 
     // Scores are per bar, shared by its beats (cadences are events and count whole).
     const named = nameChord(segs[i].hist);
     if (named) chordFit(named, fit);
-    for (let k = 0; k < 24; k++) row[k] = ((any ? row0[k] : 0) + (named ? chordWeight * fit[k] : 0) + (k === home || k === alsoHome ? homeBonus : 0)) / perBar + (segs[i].cadence.get(k) ?? 0);
+    if (presenceWeight > 0) presenceScores(segs[i].hist, presence);
+    if (foreignWeight > 0) foreignShares(h, foreign);
+    for (let k = 0; k < 24; k++) row[k] = ((any ? row0[k] : 0) + (named ? chordWeight * fit[k] : 0) + (k === home || k === alsoHome ? homeBonus : 0) + (presenceWeight > 0 ? presenceWeight * presence[k] : 0) - (foreignWeight > 0 ? foreignWeight * foreign[k] : 0)) / perBar + (segs[i].cadence.get(k) ?? 0);
   }
   // Common practice: music opens on its tonic chord. Where the file gives no mode, the first
   // chord struck (its bass the root, its third major or minor) names the key the section opens in.
@@ -158,6 +223,21 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): 
   const segPath = new Array<number>(m);
   segPath[m - 1] = last;
   for (let i = m - 1; i > 0; i--) segPath[i - 1] = back[i * 24 + segPath[i]];
+  // Common practice in Roman-numeral analysis: the chords that lead to a new tonic are applied
+  // chords of the old key (V/V, vii°/ii) until the tonic arrives from its dominant; the new key is
+  // written from that arrival. A run of beats in a key with such an arrival starts there.
+  if (startAtCadence > 0) {
+    for (let s = 1; s < m; ) {
+      let e = s;
+      while (e + 1 < m && segPath[e + 1] === segPath[s]) e++;
+      if (segPath[s] !== segPath[s - 1]) {
+        let arrival = -1;
+        for (let t = s; t <= e && arrival < 0; t++) if ((segs[t].cadence.get(segPath[s]) ?? 0) >= CADENCE_WEIGHT.bassCadence) arrival = t;
+        if (arrival > s && arrival - s <= startAtCadence * (m / n)) for (let t = s; t < arrival; t++) segPath[t] = segPath[s - 1];
+      }
+      s = e + 1;
+    }
+  }
   // A bar's key: the key of most of its beats (ties go to the downbeat's).
   const path = new Array<number>(n);
   for (let i = 0, s0 = 0; i < n; i++) {
@@ -210,7 +290,7 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[]): 
       // A signature names the key the section starts in: a span from its first bar would only
       // contradict it.
       const againstSignature = i === 0 && section.source === "signature";
-      if ((harmonic || (first >= 0 && long)) && !againstSignature) {
+      if (((harmonic && (requireEvidence === 0 || first >= 0)) || (first >= 0 && long)) && !againstSignature) {
         // Pivot: bars before the first evidence whose notes fit both the old key and the new one.
         const prevKey = spans.length > 0 && spans[spans.length - 1].toIndex === section.fromIndex + i - 1 ? spans[spans.length - 1].key : section.key;
         let p = first;

@@ -48,3 +48,15 @@ export const SIMPLE_MAJOR: readonly number[] = [2, 0, 1, 0, 1, 1, 0, 2, 0, 1, 0,
 
 /** The profiles whose correlations are averaged when the analysis decides a key. */
 export const DECISION_PROFILES: readonly KeyProfile[] = [KRUMHANSL_KESSLER, TEMPERLEY_1999, AARDEN_ESSEN];
+
+/**
+ * Temperley, D. (2007). Music and Probability, MIT Press, ch. 6: the probability that each pitch
+ * class is present in a segment of a piece in the key, counted on the Kostka–Payne textbook
+ * excerpts (index 0 = tonic). Values from memory of the published table; used as probabilities
+ * (pitch-class sets), not as correlation weights.
+ */
+export const TEMPERLEY_2007_PRESENCE: KeyProfile = {
+  name: "Temperley 2007 (Kostka–Payne)",
+  major: [0.748, 0.06, 0.488, 0.082, 0.67, 0.46, 0.096, 0.715, 0.104, 0.366, 0.057, 0.4],
+  minor: [0.712, 0.084, 0.474, 0.618, 0.049, 0.46, 0.105, 0.747, 0.404, 0.067, 0.133, 0.33],
+};
