@@ -110,6 +110,16 @@ describe("sign-in attempts are limited (ASVS 2.2.1)", () => {
     const sixth = await attemptSignIn(user.email, "wrong-password-guess", { address });
     expect(sixth.response.status).toBe(429); // ASVS 2.2.1
   });
+
+  it("gives no fresh per-address budget to a spoofed extra X-Forwarded-For entry (one trusted proxy in the test run)", async () => {
+    const address = uniqueAddress();
+    for (let i = 0; i < 20; i++) {
+      expect((await attemptSignIn(uniqueEmail("spray"), "guess-password-1", { address })).response.status).toBe(401);
+    }
+    // The client writes an address of its choosing in front of what the proxy appended.
+    const spoofed = await attemptSignIn(uniqueEmail("spray"), "guess-password-1", { address: `${uniqueAddress()}, ${address}` });
+    expect(spoofed.response.status).toBe(429); // ASVS 2.2.1
+  });
 });
 
 describe("mail on someone's behalf (ASVS 11.1.4 anti-automation, 11.1.5 business limits)", () => {
