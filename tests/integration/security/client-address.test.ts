@@ -5,9 +5,7 @@ import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { APP_URL } from "../../helpers/env";
 import { createUser, uniqueAddress, uniqueEmail } from "../../helpers/session";
-import { countHostileRequests } from "./hostile";
 
-countHostileRequests("client-address");
 
 /**
  * A second server from the same build with TRUSTED_PROXIES=0 (the default: no proxy in front),
