@@ -6,7 +6,6 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { APP_URL } from "../../helpers/env";
 import { createUser, uniqueAddress, uniqueEmail } from "../../helpers/session";
 
-
 /**
  * A second server from the same build with TRUSTED_PROXIES=0 (the default: no proxy in front),
  * reached from two loopback addresses of our choosing (127.0.0.0/8 is all loopback, RFC 1122
