@@ -14,4 +14,11 @@ export async function register() {
     }
     throw error;
   }
+  await stampPeerAddresses();
+}
+
+/** Client addresses come from the socket (lib/http/peer-address.ts); stamped before any request is answered. */
+async function stampPeerAddresses() {
+  const [http, { stampPeerAddresses: stamp }] = await Promise.all([import("node:http"), import("@/lib/http/peer-address")]);
+  stamp(http);
 }

@@ -23,6 +23,8 @@ const schema = z.object({
   NOTIFY_FLUSH_SECRET: z.string().min(32, "must be at least 32 characters").optional(),
   DEMO_PASSWORD: z.string().min(10).default("ondula-demo-2026"),
   SEED_DEMO: z.enum(["yes", "no"]).optional(),
+  /** Reverse proxies in front of Ondula that append to X-Forwarded-For (lib/http/client-address.ts); 0 uses the socket's peer. */
+  TRUSTED_PROXIES: z.coerce.number().int().min(0).max(10).default(0),
   UPLOAD_MAX_BYTES: intFromEnv(10 * 1024 * 1024),
   MXL_MAX_UNCOMPRESSED_BYTES: intFromEnv(50 * 1024 * 1024),
   MXL_MAX_ENTRIES: intFromEnv(200),

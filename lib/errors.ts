@@ -9,6 +9,7 @@ export type ErrorKind =
   | "not_found"
   | "conflict"
   | "too_large"
+  | "unprocessable"
   | "unsupported"
   | "rate_limited"
   | "quota"
@@ -21,6 +22,7 @@ const STATUS: Record<ErrorKind, number> = {
   not_found: 404,
   conflict: 409,
   too_large: 413,
+  unprocessable: 422,
   unsupported: 415,
   rate_limited: 429,
   quota: 403,

@@ -159,6 +159,8 @@ async function startServices({ recreateDatabase }) {
     DEMO_PASSWORD,
     SEED_DEMO: "yes",
     PORT: String(profile.app),
+    // Tests and benches stand in for many clients by sending X-Forwarded-For, as one proxy would.
+    TRUSTED_PROXIES: process.env.TRUSTED_PROXIES ?? (mode === "test" || mode === "bench" ? "1" : "0"),
     NEXT_TELEMETRY_DISABLED: "1",
   };
   env.NEXTAUTH_SECRET = env.AUTH_SECRET;

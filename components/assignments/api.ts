@@ -2,6 +2,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/r
 import type { AssignmentDto, AssignmentListDto, CreateAssignmentBody, PatchAssignmentBody } from "@/lib/assignments/schema";
 import { ApiError, fetchJson, partUrl } from "@/components/client/fetch-json";
 import { assignmentKeys, notificationKeys } from "@/components/client/keys";
+import { useCreatingMutation } from "@/components/client/creating-mutation";
 
 export const assignmentsQueryOptions = (partId: string) =>
   queryOptions({ queryKey: assignmentKeys.list(partId), queryFn: () => fetchJson<AssignmentListDto>(`${partUrl(partId)}/assignments`) });
@@ -23,10 +24,14 @@ function useAssignmentMutation<V, R>(partId: string, request: (v: V) => Promise<
   });
 }
 
-export const useCreateAssignment = (partId: string) =>
-  useAssignmentMutation(partId, (body: CreateAssignmentBody) =>
-    fetchJson<AssignmentDto>(`${partUrl(partId)}/assignments`, { method: "POST", body: JSON.stringify(body) }),
-  );
+export function useCreateAssignment(partId: string) {
+  const client = useQueryClient();
+  return useCreatingMutation({
+    request: (body: CreateAssignmentBody, headers) =>
+      fetchJson<AssignmentDto>(`${partUrl(partId)}/assignments`, { method: "POST", body: JSON.stringify(body), headers }),
+    onSettled: () => client.invalidateQueries({ queryKey: assignmentKeys.list(partId) }),
+  });
+}
 
 export const useUpdateAssignment = (partId: string) =>
   useAssignmentMutation(partId, ({ id, ...body }: PatchAssignmentBody & { id: string }) =>

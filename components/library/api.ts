@@ -7,6 +7,7 @@ import type { ListedPart } from "@/lib/parts/dto";
 import type { MarkingImport } from "@/lib/parts/import-report";
 import { ApiError, fetchJson, jsonRequest } from "@/components/client/fetch-json";
 import { partKeys } from "@/components/client/keys";
+import { IDEMPOTENCY_HEADER, newIdempotencyKey, useCreatingMutation } from "@/components/client/creating-mutation";
 
 export interface PartListPage {
   items: ListedPart[];
@@ -64,9 +65,8 @@ export function useChoosePart() {
 
 export function useTrySample() {
   const qc = useQueryClient();
-  return useMutation({
-    mutationFn: (name: string) =>
-      fetchJson<UploadResult>("/api/parts/samples", jsonRequest("POST", { name })),
+  return useCreatingMutation({
+    request: (name: string, headers) => fetchJson<UploadResult>("/api/parts/samples", { ...jsonRequest("POST", { name }), headers }),
     onSettled: () => qc.invalidateQueries({ queryKey: partKeys.all }),
   });
 }
@@ -85,6 +85,8 @@ export function uploadPart(file: File, onProgress: (fraction: number) => void, o
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open("POST", "/api/parts");
+    // One upload is one action; trying again after an error is a new one.
+    xhr.setRequestHeader(IDEMPOTENCY_HEADER, newIdempotencyKey());
     xhr.responseType = "json";
     xhr.upload.onprogress = (e) => e.lengthComputable && onProgress(e.loaded / e.total);
     xhr.upload.onload = () => onSent();

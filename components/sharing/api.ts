@@ -3,6 +3,7 @@
 import { useMemo } from "react";
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { fetchJson, jsonRequest as send } from "@/components/client/fetch-json";
+import { useCreatingMutation } from "@/components/client/creating-mutation";
 import { commentKeys, partKeys, proposalKeys, shareKeys, sharedPartKeys } from "@/components/client/keys";
 import type { MarkingDto, MarkingValues } from "@/lib/markings/schema";
 import type { CommentDto, ProposalWithCurrent, ShareDto, SharePermission, ThreadDto, ThreadMarker } from "@/lib/sharing/dto";
@@ -39,8 +40,17 @@ function useShareMutation<V, R>(partId: string, request: (v: V) => Promise<R>) {
   });
 }
 
-export const useInvite = (partId: string) =>
-  useShareMutation(partId, (v: { email: string; permission: SharePermission }) => fetchJson<ShareItem>(`/api/parts/${partId}/shares`, send("POST", v)));
+export function useInvite(partId: string) {
+  const qc = useQueryClient();
+  return useCreatingMutation({
+    request: (v: { email: string; permission: SharePermission }, headers) =>
+      fetchJson<ShareItem>(`/api/parts/${partId}/shares`, { ...send("POST", v), headers }),
+    onSettled: () => {
+      qc.invalidateQueries({ queryKey: shareKeys.list(partId) });
+      qc.invalidateQueries({ queryKey: partKeys.lists() });
+    },
+  });
+}
 export const useResend = (partId: string) =>
   useShareMutation(partId, (shareId: string) => fetchJson<ShareItem>(`/api/parts/${partId}/shares/${shareId}/resend`, send("POST")));
 export const useRevoke = (partId: string) =>
@@ -97,10 +107,17 @@ function useThreadMutation<V, R>(partId: string, threadKey: string, request: (v:
   });
 }
 
-export const usePostComment = (partId: string, threadKey: string) =>
-  useThreadMutation(partId, threadKey, (body: string) =>
-    fetchJson<CommentItem>(`/api/parts/${partId}/comments?thread=${encodeURIComponent(threadKey)}`, send("POST", { body })),
-  );
+export function usePostComment(partId: string, threadKey: string) {
+  const qc = useQueryClient();
+  return useCreatingMutation({
+    request: (body: string, headers) =>
+      fetchJson<CommentItem>(`/api/parts/${partId}/comments?thread=${encodeURIComponent(threadKey)}`, { ...send("POST", { body }), headers }),
+    onSettled: () => {
+      qc.invalidateQueries({ queryKey: commentKeys.thread(partId, threadKey) });
+      qc.invalidateQueries({ queryKey: commentKeys.summary(partId) });
+    },
+  });
+}
 export const useEditComment = (partId: string, threadKey: string) =>
   useThreadMutation(partId, threadKey, (v: { commentId: string; body: string }) =>
     fetchJson<CommentItem>(`/api/parts/${partId}/comments/${v.commentId}`, send("PATCH", { body: v.body })),
@@ -135,10 +152,18 @@ function useProposalMutation<V, R>(partId: string, request: (v: V) => Promise<R>
   });
 }
 
-export const useCreateProposal = (partId: string) =>
-  useProposalMutation(partId, (v: { noteKey: string; baseVersion: number | null; marking: MarkingValues; comment: string }) =>
-    fetchJson<ProposalItem>(`/api/parts/${partId}/proposals`, send("POST", v)),
-  );
+export function useCreateProposal(partId: string) {
+  const qc = useQueryClient();
+  return useCreatingMutation({
+    request: (v: { noteKey: string; baseVersion: number | null; marking: MarkingValues; comment: string }, headers) =>
+      fetchJson<ProposalItem>(`/api/parts/${partId}/proposals`, { ...send("POST", v), headers }),
+    onSettled: () => {
+      qc.invalidateQueries({ queryKey: proposalKeys.list(partId) });
+      qc.invalidateQueries({ queryKey: commentKeys.summary(partId) });
+      qc.invalidateQueries({ predicate: (q) => q.queryKey.includes(partId) });
+    },
+  });
+}
 export const useAcceptProposal = (partId: string) =>
   useProposalMutation(partId, (proposalId: string) =>
     fetchJson<{ proposal: ProposalItem; marking: MarkingDto }>(`/api/parts/${partId}/proposals/${proposalId}/accept`, send("POST")),

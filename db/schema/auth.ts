@@ -43,18 +43,6 @@ export const authTokens = pgTable(
   (t) => [uniqueIndex("auth_tokens_hash_idx").on(t.tokenHash), index("auth_tokens_email_idx").on(t.email)],
 );
 
-/** Attempts counted for abuse limits (sign-in, reset) per account and per address. */
-export const authAttempts = pgTable(
-  "auth_attempts",
-  {
-    id: uuid("id").primaryKey().defaultRandom(),
-    key: text("key").notNull(),
-    succeeded: boolean("succeeded").notNull().default(false),
-    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
-  },
-  (t) => [index("auth_attempts_key_time_idx").on(t.key, t.createdAt)],
-);
-
 export const studios = pgTable("studios", {
   id: uuid("id").primaryKey().defaultRandom(),
   teacherId: uuid("teacher_id").notNull().unique().references(() => users.id, { onDelete: "cascade" }),

@@ -1,12 +1,13 @@
 /**
- * Abuse limits, as data. A rule allows `max` counted attempts per key within `windowMs`; the
- * block lifts when the oldest of the last `max` counted attempts leaves the window.
+ * Abuse limits, as data. A rule allows `max` counted attempts per key within a window of
+ * `windowMs` that opens with the key's first counted attempt (rate-limiter-flexible's fixed
+ * window, counted by server/auth/rate-limit.ts); the block lifts when that window closes.
  */
 export interface LimitRule {
   prefix: string;
   max: number;
   windowMs: number;
-  /** Count only failures since the key's last success (sign-in), or every attempt (reset e-mails). */
+  /** Count only failures (sign-in: a success gives back its own count, never earlier ones), or every attempt (e-mails). */
   counts: "failures" | "all";
 }
 
@@ -30,18 +31,6 @@ export const LIMITS = {
 } satisfies Record<string, LimitRule>;
 
 export const limitKey = (rule: LimitRule, subject: string) => `${rule.prefix}:${subject.trim().toLowerCase()}`;
-
-/**
- * When the key may try again, given the times of its counted attempts (any order), or null when
- * it may try now.
- */
-export function retryAt(rule: LimitRule, counted: Date[], now: Date): Date | null {
-  const inWindow = counted
-    .filter((d) => now.getTime() - d.getTime() < rule.windowMs)
-    .sort((a, b) => b.getTime() - a.getTime());
-  if (inWindow.length < rule.max) return null;
-  return new Date(inWindow[rule.max - 1].getTime() + rule.windowMs);
-}
 
 /** "in 14 minutes" — whole minutes, rounded up, never "in 0 minutes". */
 export function describeWait(until: Date, now: Date): string {

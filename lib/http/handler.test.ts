@@ -57,10 +57,26 @@ describe("handle()", () => {
 });
 
 describe("clientAddress()", () => {
-  it("trusts the last X-Forwarded-For entry (the one the nearest proxy appended)", () => {
-    expect(clientAddress(new Headers({ "x-forwarded-for": "1.2.3.4, 10.0.0.7" }))).toBe("10.0.0.7");
-    expect(clientAddress({ "x-forwarded-for": "198.51.100.2" })).toBe("198.51.100.2");
-    expect(clientAddress(new Headers())).toBe("unknown");
+  const peerHeader = "x-ondula-peer-test";
+  it("with no trusted proxy, takes the socket's peer and ignores X-Forwarded-For (common practice: anyone can send the header)", () => {
+    const headers = new Headers({ "x-forwarded-for": "198.51.100.2", [peerHeader]: "192.0.2.10" });
+    expect(clientAddress(headers, { trustedProxies: 0, peerHeader })).toBe("192.0.2.10");
+    expect(clientAddress({ "x-forwarded-for": "198.51.100.2" }, { trustedProxies: 0, peerHeader })).toBe("unknown");
+  });
+
+  it("with n trusted proxies, takes the n-th X-Forwarded-For entry from the right (the hop count of Express's trust proxy setting)", () => {
+    const headers = new Headers({ "x-forwarded-for": "6.6.6.6, 1.2.3.4, 10.0.0.7", [peerHeader]: "10.0.0.8" });
+    expect(clientAddress(headers, { trustedProxies: 1, peerHeader })).toBe("10.0.0.7");
+    expect(clientAddress(headers, { trustedProxies: 2, peerHeader })).toBe("1.2.3.4");
+    // Fewer entries than proxies: the leftmost; none at all: the peer.
+    expect(clientAddress(headers, { trustedProxies: 5, peerHeader })).toBe("6.6.6.6");
+    expect(clientAddress(new Headers({ [peerHeader]: "10.0.0.8" }), { trustedProxies: 1, peerHeader })).toBe("10.0.0.8");
+  });
+
+  it("gives a spoofed extra entry on the left no new address", () => {
+    const honest = clientAddress({ "x-forwarded-for": "203.0.113.5" }, { trustedProxies: 1, peerHeader });
+    const spoofed = clientAddress({ "x-forwarded-for": "198.51.100.77, 203.0.113.5" }, { trustedProxies: 1, peerHeader });
+    expect(spoofed).toBe(honest);
   });
 });
 

@@ -7,6 +7,9 @@ import type { IncomingMessage } from "node:http";
 import formidable, { errors as formidableErrors, multipart } from "formidable";
 import { AppError } from "@/lib/errors";
 
+/** Room for a multipart body's boundaries and part headers beside the file itself. */
+export const MULTIPART_OVERHEAD_BYTES = 64 * 1024;
+
 export interface ReceivedFile {
   fileName: string;
   bytes: Uint8Array;
@@ -22,7 +25,7 @@ export async function receiveFile(request: Request, { field, maxBytes }: { field
     throw new AppError("unsupported:content_type", `Send the file as multipart/form-data in the field "${field}".`);
   }
   const declared = Number(request.headers.get("content-length") ?? "0");
-  if (declared > maxBytes + 64 * 1024) throw tooLarge(maxBytes);
+  if (declared > maxBytes + MULTIPART_OVERHEAD_BYTES) throw fileTooLarge(maxBytes);
   if (!request.body) throw new AppError("bad_request:empty", "The upload is empty. Choose a MusicXML file and try again.");
 
   const dir = await fs.mkdtemp(path.join(os.tmpdir(), "ondula-upload-"));
@@ -49,7 +52,7 @@ export async function receiveFile(request: Request, { field, maxBytes }: { field
     } catch (err) {
       const e = err as { code?: number; httpCode?: number };
       if (e.code === formidableErrors.biggerThanTotalMaxFileSize || e.code === formidableErrors.biggerThanMaxFileSize || e.httpCode === 413) {
-        throw tooLarge(maxBytes);
+        throw fileTooLarge(maxBytes);
       }
       if (e.code === formidableErrors.maxFilesExceeded) throw new AppError("bad_request:files", "Upload one file at a time.");
       throw new AppError("bad_request:multipart", "The upload could not be read. Try again, or choose the file once more.");
@@ -63,7 +66,8 @@ export async function receiveFile(request: Request, { field, maxBytes }: { field
   }
 }
 
-function tooLarge(maxBytes: number) {
+/** What a file over the upload limit answers (also when an upload's body is read whole first). */
+export function fileTooLarge(maxBytes: number) {
   return new AppError(
     "too_large:file",
     `The file is larger than ${(maxBytes / 1024 / 1024).toFixed(0)} MB, the most Ondula accepts. Export only the part you need, or as compressed .mxl.`,

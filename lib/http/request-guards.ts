@@ -14,9 +14,14 @@ function tooLarge(maxBytes: number): AppError {
  * over the cap is refused without reading, and a streamed (chunked) body is cut off at the cap.
  */
 export async function readCappedText(request: Request, maxBytes = JSON_BODY_MAX_BYTES): Promise<string> {
+  return new TextDecoder("utf-8", { fatal: false }).decode(await readCappedBytes(request, maxBytes));
+}
+
+/** The body's bytes, with the same cap as `readCappedText` (`tooLargeError` names what was too large). */
+export async function readCappedBytes(request: Request, maxBytes = JSON_BODY_MAX_BYTES, tooLargeError: (maxBytes: number) => AppError = tooLarge): Promise<Uint8Array<ArrayBuffer>> {
   const declared = Number(request.headers.get("content-length") ?? "");
-  if (Number.isFinite(declared) && declared > maxBytes) throw tooLarge(maxBytes);
-  if (!request.body) return "";
+  if (Number.isFinite(declared) && declared > maxBytes) throw tooLargeError(maxBytes);
+  if (!request.body) return new Uint8Array();
   const reader = request.body.getReader();
   const chunks: Uint8Array[] = [];
   let total = 0;
@@ -26,11 +31,11 @@ export async function readCappedText(request: Request, maxBytes = JSON_BODY_MAX_
     total += value.byteLength;
     if (total > maxBytes) {
       await reader.cancel().catch(() => undefined);
-      throw tooLarge(maxBytes);
+      throw tooLargeError(maxBytes);
     }
     chunks.push(value);
   }
-  return new TextDecoder("utf-8", { fatal: false }).decode(Buffer.concat(chunks));
+  return new Uint8Array(Buffer.concat(chunks));
 }
 
 function hasBody(request: Request): boolean {

@@ -3,6 +3,7 @@ import type { PartAnalysis, ScoreAnalysis } from "@/lib/analysis/types";
 import { markingsFromSites, type ExtractReport } from "@/lib/export/musicxml-markings";
 import { OWN_SITES } from "@/lib/export/note-sites";
 import { readScoreFile, type ReadLimits } from "@/lib/musicxml";
+import { keepMusicXml } from "@/lib/musicxml/keep-musicxml";
 import type { PartModel, ScoreModel } from "@/lib/musicxml/model";
 import { partDisplayName } from "./part-names";
 
@@ -21,7 +22,8 @@ export interface IngestedScore {
   /**
    * Markings an Ondula export carried in the file, read in the same pass; the stored text
    * (`partwiseXml`) is the file without the elements Ondula wrote (their printed copies would go
-   * stale on the engraving once the markings live in the database).
+   * stale on the engraving once the markings live in the database), keeping only MusicXML
+   * (lib/musicxml/keep-musicxml.ts: no foreign markup, comments or processing instructions).
    */
   ownMarkings: ExtractReport;
 }
@@ -81,7 +83,7 @@ export function ingestScore(bytes: Uint8Array, fileName: string, limits: Partial
     title: (score.title || fallbackTitle).slice(0, 200),
     composer: (score.composer || "").slice(0, 200),
     format,
-    partwiseXml,
+    partwiseXml: keepMusicXml(partwiseXml).xml,
     partList: score.parts.map((p: PartModel, i) => ({ id: p.id, name: partDisplayName(p.name, i) })),
     chosenPartId,
     analysis,

@@ -7,7 +7,7 @@ import { clientAddress } from "@/lib/http/client-address";
 import { safeCallbackPath } from "@/lib/http/safe-redirect";
 import { bumpSessionEpoch } from "@/db/users";
 import { verifyPassword } from "@/lib/auth/password";
-import { pruneAttempts, recordAttempt } from "./rate-limit";
+import { recordAttempt } from "./rate-limit";
 import { linkUseChecks, signInWithLink } from "./sign-in-link";
 
 /** A bcrypt hash of a random string: comparing against it keeps timing equal for unknown accounts. */
@@ -49,8 +49,6 @@ export function authOptions(): NextAuthOptions {
           const passwordOk = await verifyPassword(password, user?.passwordHash ?? DUMMY_HASH);
           const ok = !!user && passwordOk && user.status === "active";
           // The attempt was counted before this comparison, by the route (consumeAttempt).
-          // Old attempts serve no limit; about one sign-in in a hundred clears them out.
-          if (Math.random() < 0.01) void pruneAttempts().catch(() => undefined);
           if (!ok) return null;
           return { id: user.id, email: user.email, name: user.name, epoch: user.sessionEpoch };
         },

@@ -1,13 +1,14 @@
 import "server-only";
-import { and, desc, eq, gt, inArray, lt } from "drizzle-orm";
-import { db } from "@/db/client";
-import { authAttempts } from "@/db/schema";
+import { createHash } from "node:crypto";
+import { RateLimiterPostgres, RateLimiterRes } from "rate-limiter-flexible";
+import { pool } from "@/db/client";
 import { AppError } from "@/lib/errors";
-import { describeWait, limitKey, LIMITS, retryAt, type LimitRule } from "@/lib/auth/rate-limit-rules";
+import { describeWait, limitKey, LIMITS, type LimitRule } from "@/lib/auth/rate-limit-rules";
 
 /**
- * Abuse limits kept in PostgreSQL (table auth_attempts), so every server behind a load balancer
- * counts the same attempts.
+ * Abuse limits counted by rate-limiter-flexible in PostgreSQL (table rate_limits, created by our
+ * migrations), so every server behind a load balancer counts the same attempts. Each count is one
+ * atomic upsert, so parallel attempts cannot all read the same count and pass.
  */
 
 export interface Limited {
@@ -15,19 +16,50 @@ export interface Limited {
   message: string;
 }
 
-async function countedAttempts(rule: LimitRule, key: string, now: Date): Promise<Date[]> {
-  const since = new Date(now.getTime() - rule.windowMs);
-  const conditions = [eq(authAttempts.key, key), gt(authAttempts.createdAt, since)];
-  // A success does not clear earlier failures: an attacker who also knows one account's password
-  // (their own) must not be able to reset the per-address count with it.
-  if (rule.counts === "failures") conditions.push(eq(authAttempts.succeeded, false));
-  const rows = await db()
-    .select({ createdAt: authAttempts.createdAt })
-    .from(authAttempts)
-    .where(and(...conditions))
-    .orderBy(desc(authAttempts.createdAt))
-    .limit(rule.max);
-  return rows.map((r) => r.createdAt);
+const globalForLimits = globalThis as unknown as { ondulaLimiters?: Map<string, RateLimiterPostgres> };
+
+function limiter(rule: LimitRule): RateLimiterPostgres {
+  const limiters = (globalForLimits.ondulaLimiters ??= new Map());
+  let found = limiters.get(rule.prefix);
+  if (!found) {
+    found = new RateLimiterPostgres({
+      storeClient: pool(),
+      storeType: "pool",
+      tableName: "rate_limits",
+      tableCreated: true,
+      // The rule's prefix is already part of the key (limitKey).
+      keyPrefix: "",
+      points: rule.max,
+      duration: Math.ceil(rule.windowMs / 1000),
+      // One limiter sweeps expired rows for all: they share the table.
+      clearExpiredByTimeout: limiters.size === 0,
+    });
+    limiters.set(rule.prefix, found);
+  }
+  return found;
+}
+
+/** The stored key: the column holds 255 characters, and an address typed in may be longer. */
+function storedKey(rule: LimitRule, subject: string): string {
+  const key = limitKey(rule, subject);
+  return key.length <= 200 ? key : `${rule.prefix}:sha256:${createHash("sha256").update(key).digest("hex")}`;
+}
+
+/** The library rejects with its RateLimiterRes when a consume goes over; any other rejection is the store's error. */
+async function counted(promise: Promise<RateLimiterRes>): Promise<RateLimiterRes> {
+  try {
+    return await promise;
+  } catch (error) {
+    if (error instanceof RateLimiterRes) return error;
+    throw error;
+  }
+}
+
+function limitedUntil(until: Date, what: string, now: Date): Limited {
+  return {
+    retryAt: until,
+    message: `Too many ${what}. Try again ${describeWait(until, now)} (after ${until.toISOString().slice(11, 16)} UTC).`,
+  };
 }
 
 /** The latest moment among the rules that block, or null when every rule allows an attempt now. */
@@ -35,48 +67,56 @@ export async function checkLimits(checks: Array<[LimitRule, string]>, what: stri
   const now = new Date();
   let worst: Date | null = null;
   for (const [rule, subject] of checks) {
-    const at = retryAt(rule, await countedAttempts(rule, limitKey(rule, subject), now), now);
-    if (at && (!worst || at > worst)) worst = at;
+    const res = await limiter(rule).get(storedKey(rule, subject));
+    if (!res || res.consumedPoints < rule.max) continue;
+    const at = new Date(now.getTime() + Math.max(res.msBeforeNext, 1000));
+    if (!worst || at > worst) worst = at;
   }
-  if (!worst) return null;
-  return {
-    retryAt: worst,
-    message: `Too many ${what}. Try again ${describeWait(worst, now)} (after ${worst.toISOString().slice(11, 16)} UTC).`,
-  };
+  return worst ? limitedUntil(worst, what, now) : null;
+}
+
+export interface Attempt {
+  checks: Array<[LimitRule, string]>;
 }
 
 /**
  * Counts an attempt before it is made (before the slow password comparison), so parallel
- * attempts cannot all pass one check: the rows are written first as failures, then counted with
- * everything written before them. Blocked, the rows are taken back and the wait returned; let
- * through, the ids come back for `markAttemptSucceeded` once the outcome is known.
+ * attempts cannot all pass: each key's count goes up in one statement, and an attempt that took
+ * a count past its rule's limit is refused and its counts are taken back. Let through, the
+ * attempt comes back for `markAttemptSucceeded` once the outcome is known.
  */
-export async function consumeAttempt(checks: Array<[LimitRule, string]>, what: string): Promise<{ limited: Limited } | { ids: string[] }> {
-  const rows = await db()
-    .insert(authAttempts)
-    .values(checks.map(([rule, subject]) => ({ key: limitKey(rule, subject), succeeded: false })))
-    .returning({ id: authAttempts.id });
-  const ids = rows.map((r) => r.id);
+export async function consumeAttempt(checks: Array<[LimitRule, string]>, what: string): Promise<{ limited: Limited } | { attempt: Attempt }> {
   const now = new Date();
-  let over = false;
-  for (const [rule, subject] of checks) {
-    const counted = await countedAttempts({ ...rule, max: rule.max + 1 }, limitKey(rule, subject), now);
-    if (counted.length > rule.max) over = true;
-  }
-  if (!over) return { ids };
-  await db().delete(authAttempts).where(inArray(authAttempts.id, ids));
-  const limited = await checkLimits(checks, what);
-  return { limited: limited ?? { retryAt: new Date(now.getTime() + 60_000), message: `Too many ${what}. Try again in 1 minute.` } };
+  const results = await Promise.all(checks.map(([rule, subject]) => counted(limiter(rule).consume(storedKey(rule, subject), 1))));
+  let worst: Date | null = null;
+  results.forEach((res, i) => {
+    if (res.consumedPoints <= checks[i][0].max) return;
+    const at = new Date(now.getTime() + Math.max(res.msBeforeNext, 1000));
+    if (!worst || at > worst) worst = at;
+  });
+  if (!worst) return { attempt: { checks } };
+  await Promise.all(checks.map(([rule, subject]) => limiter(rule).reward(storedKey(rule, subject), 1)));
+  return { limited: limitedUntil(worst, what, now) };
 }
 
-export async function markAttemptSucceeded(ids: string[]): Promise<void> {
-  if (ids.length) await db().update(authAttempts).set({ succeeded: true }).where(inArray(authAttempts.id, ids));
+/**
+ * A rule that counts failures gives back the point a successful attempt took, and only that one:
+ * a success does not clear earlier failures, so an attacker who also knows one account's password
+ * (their own) cannot reset the per-address count with it.
+ */
+export async function markAttemptSucceeded({ checks }: Attempt): Promise<void> {
+  await Promise.all(
+    checks.filter(([rule]) => rule.counts === "failures").map(([rule, subject]) => limiter(rule).reward(storedKey(rule, subject), 1)),
+  );
 }
 
+/** Counts an attempt after the fact (a failure always; a success only where the rule counts every attempt). */
 export async function recordAttempt(checks: Array<[LimitRule, string]>, succeeded: boolean): Promise<void> {
-  await db()
-    .insert(authAttempts)
-    .values(checks.map(([rule, subject]) => ({ key: limitKey(rule, subject), succeeded })));
+  await Promise.all(
+    checks
+      .filter(([rule]) => !succeeded || rule.counts === "all")
+      .map(([rule, subject]) => counted(limiter(rule).penalty(storedKey(rule, subject), 1))),
+  );
 }
 
 export function rateLimitError(limited: Limited, code = "rate_limited:sign_in"): AppError {
@@ -96,9 +136,3 @@ export const resetChecks = (email: string, address: string): Array<[LimitRule, s
   [LIMITS.resetAccount, email],
   [LIMITS.resetAddress, address],
 ];
-
-/** Old rows serve no limit; pruned opportunistically so the table stays small. */
-export async function pruneAttempts(olderThanMs = 24 * 3600_000): Promise<void> {
-  await db().delete(authAttempts).where(lt(authAttempts.createdAt, new Date(Date.now() - olderThanMs)));
-}
-

@@ -3,7 +3,7 @@ import path from "node:path";
 import { db } from "@/db/client";
 import { studioMembers } from "@/db/schema";
 import { ensureStudioForTeacher } from "@/db/studios";
-import { ApiClient, createUser, signIn, type TestUser } from "./session";
+import { ApiClient, createUser, signIn, uniqueAddress, type TestUser } from "./session";
 
 /**
  * The access matrix: every API route and server action, called as each of six people, with the
@@ -79,7 +79,8 @@ export async function buildContext(): Promise<MatrixContext> {
   const studio = await ensureStudioForTeacher({ teacherId: teacherWithAccess.id, teacherName: teacherWithAccess.name });
   await db().insert(studioMembers).values({ studioId: studio.id, playerId: owner.id }).onConflictDoNothing();
   const clients = { anonymous: new ApiClient("anonymous") } as Record<Persona, ApiClient>;
-  for (const [persona, user] of Object.entries(users)) clients[persona as Persona] = await signIn(user.email, user.password);
+  // Each persona signs in from an address of its own, so the matrix's many sign-ins never meet a per-address limit.
+  for (const [persona, user] of Object.entries(users)) clients[persona as Persona] = await signIn(user.email, user.password, { address: uniqueAddress() });
   return { users, clients, studioId: studio.id, data: {} };
 }
 

@@ -1,9 +1,10 @@
 import { handle, parseQuery } from "@/lib/http/handler";
-import { receiveFile } from "@/lib/http/multipart";
+import { fileTooLarge, MULTIPART_OVERHEAD_BYTES, receiveFile } from "@/lib/http/multipart";
 import { requireUser } from "@/server/auth/session";
 import { config } from "@/lib/config";
 import { listPartsQuery } from "@/lib/parts/schemas";
 import { listParts, uploadPart } from "@/server/parts";
+import { idempotent } from "@/server/http/idempotency";
 
 export const dynamic = "force-dynamic";
 
@@ -15,6 +16,11 @@ export const GET = handle(async (request) => {
 
 export const POST = handle(async (request) => {
   const user = await requireUser();
-  const upload = await uploadPart(user, () => receiveFile(request, { field: "file", maxBytes: config().UPLOAD_MAX_BYTES }));
-  return Response.json(upload, { status: 201 });
+  const maxBytes = config().UPLOAD_MAX_BYTES;
+  return idempotent(
+    request,
+    user,
+    async (request) => Response.json(await uploadPart(user, () => receiveFile(request, { field: "file", maxBytes })), { status: 201 }),
+    { maxBytes: maxBytes + MULTIPART_OVERHEAD_BYTES, tooLarge: () => fileTooLarge(maxBytes) },
+  );
 });

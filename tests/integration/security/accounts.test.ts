@@ -110,6 +110,16 @@ describe("sign-in attempts are limited (ASVS 2.2.1)", () => {
     const sixth = await attemptSignIn(user.email, "wrong-password-guess", { address });
     expect(sixth.response.status).toBe(429); // ASVS 2.2.1
   });
+
+  it("gives no fresh per-address budget to a spoofed extra X-Forwarded-For entry (one trusted proxy in the test run)", async () => {
+    const address = uniqueAddress();
+    for (let i = 0; i < 20; i++) {
+      expect((await attemptSignIn(uniqueEmail("spray"), "guess-password-1", { address })).response.status).toBe(401);
+    }
+    // The client writes an address of its choosing in front of what the proxy appended.
+    const spoofed = await attemptSignIn(uniqueEmail("spray"), "guess-password-1", { address: `${uniqueAddress()}, ${address}` });
+    expect(spoofed.response.status).toBe(429); // ASVS 2.2.1
+  });
 });
 
 describe("mail on someone's behalf (ASVS 11.1.4 anti-automation, 11.1.5 business limits)", () => {
@@ -202,6 +212,22 @@ describe("information exposure (ASVS 14.3.2, 14.3.3)", () => {
       expect(res.headers.get("x-content-type-options")).toBe("nosniff"); // ASVS 14.4.4
       expect(res.headers.get("content-security-policy")).toMatch(/\bsandbox\b/);
     }
+  });
+
+  it("stores only MusicXML: script, foreign-namespace markup, comments and instructions do not come back (ASVS 12.2.1, 5.2.7)", async () => {
+    const { client } = await createSignedInUser();
+    const planted = fs.readFileSync(FIXTURE, "utf8")
+      .replace("<score-partwise version=\"4.0\">", '<score-partwise version="4.0" xmlns:h="http://www.w3.org/1999/xhtml" onload="alert(1)">')
+      .replace("<part-list>", '<?xml-stylesheet href="https://evil.example/x.xsl"?><!-- planted --><script>alert(2)</script><h:iframe src="https://evil.example/"/><part-list>')
+      .replace("<note>", '<note h:onclick="alert(3)"><h:script>alert(4)</h:script>');
+    const res = await hostile("/api/parts", { method: "POST", body: multipartFile("planted.musicxml", new TextEncoder().encode(planted)) }, client);
+    expect(res.status).toBe(201);
+    const { id } = await res.json();
+    const stored = await (await client.fetch(`/api/parts/${id}/musicxml`)).text();
+    expect(stored).not.toMatch(/script|iframe|alert|onload|onclick|xhtml|<!--|xml-stylesheet/); // ASVS 12.2.1, 5.2.7
+    // The music itself is all there.
+    expect(stored).toContain("<work-title>Two Bars for Sharing</work-title>");
+    expect(stored.match(/<note>/g)?.length).toBe(fs.readFileSync(FIXTURE, "utf8").match(/<note>/g)?.length);
   });
 
   it("a 404 for someone else's part says nothing about it (ASVS 4.2.1)", async () => {

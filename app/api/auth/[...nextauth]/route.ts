@@ -37,7 +37,7 @@ export const POST = answerOutage("auth POST", async (request: Request, context: 
     const attempt = await consumeAttempt(signInChecks(email, clientAddress(request.headers)), "sign-in attempts");
     if ("limited" in attempt) return rateLimitError(attempt.limited).toResponse();
     const response: Response = await NextAuth(authOptions())(replayOf(request, text), context);
-    if (response.headers.getSetCookie().some((c) => /next-auth\.session-token=[^;]/.test(c))) await markAttemptSucceeded(attempt.ids);
+    if (response.headers.getSetCookie().some((c) => /next-auth\.session-token=[^;]/.test(c))) await markAttemptSucceeded(attempt.attempt);
     return response;
   }
   if (nextauth?.[0] === "callback" && nextauth[1] === "sign-in-link") {

@@ -6,6 +6,7 @@ import { requireUser } from "@/server/auth/session";
 import { AppError } from "@/lib/errors";
 import { sampleBody } from "@/lib/parts/schemas";
 import { createPartFromFile } from "@/server/parts";
+import { idempotent } from "@/server/http/idempotency";
 
 export const dynamic = "force-dynamic";
 
@@ -25,13 +26,15 @@ export const GET = handle(async () => {
 export const POST = handle(async (request) => {
   const user = await requireUser();
   assertCan(user, "part:create", { type: "site" });
-  const { name } = await parseJson(request, sampleBody);
-  if (!(await sampleNames()).includes(name)) throw new AppError("not_found:sample", `There is no sample called ${name}.`);
-  const bytes = new Uint8Array(await fs.readFile(path.join(samplesDir(), name)));
-  const { part, importedMarkings, unreadableMarkings } = await createPartFromFile(user, name, bytes);
-  // The same answer as an upload, so the library treats both alike.
-  return Response.json(
-    { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId, importedMarkings, unreadableMarkings, notices: part.readNotices },
-    { status: 201 },
-  );
+  return idempotent(request, user, async (request) => {
+    const { name } = await parseJson(request, sampleBody);
+    if (!(await sampleNames()).includes(name)) throw new AppError("not_found:sample", `There is no sample called ${name}.`);
+    const bytes = new Uint8Array(await fs.readFile(path.join(samplesDir(), name)));
+    const { part, importedMarkings, unreadableMarkings } = await createPartFromFile(user, name, bytes);
+    // The same answer as an upload, so the library treats both alike.
+    return Response.json(
+      { id: part.id, url: `/parts/${part.id}`, parts: part.partList, chosenPart: part.chosenPartId, importedMarkings, unreadableMarkings, notices: part.readNotices },
+      { status: 201 },
+    );
+  });
 });

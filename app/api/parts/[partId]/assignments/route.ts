@@ -3,6 +3,7 @@ import { requireUser } from "@/server/auth/session";
 import { createAssignmentBody } from "@/lib/assignments/schema";
 import { partIdParams } from "@/lib/parts/schemas";
 import { createAssignment, listAssignments } from "@/server/assignments";
+import { idempotent } from "@/server/http/idempotency";
 
 export const dynamic = "force-dynamic";
 
@@ -17,6 +18,8 @@ export const GET = handle(async (_request, { params }) => {
 export const POST = handle(async (request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
-  const body = await parseJson(request, createAssignmentBody);
-  return Response.json(await createAssignment(user, partId, body), { status: 201 });
+  return idempotent(request, user, async (request) => {
+    const body = await parseJson(request, createAssignmentBody);
+    return Response.json(await createAssignment(user, partId, body), { status: 201 });
+  });
 });

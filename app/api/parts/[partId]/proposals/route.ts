@@ -4,6 +4,7 @@ import { requireUser } from "@/server/auth/session";
 import { partIdParams } from "@/lib/parts/schemas";
 import { proposalBody } from "@/lib/sharing/schemas";
 import { createProposal, listProposals } from "@/server/proposals";
+import { idempotent } from "@/server/http/idempotency";
 
 export const dynamic = "force-dynamic";
 
@@ -23,6 +24,8 @@ export const GET = handle(async (request, { params }) => {
 export const POST = handle(async (request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
-  const body = await parseJson(request, proposalBody);
-  return Response.json(await createProposal(user, partId, body), { status: 201 });
+  return idempotent(request, user, async (request) => {
+    const body = await parseJson(request, proposalBody);
+    return Response.json(await createProposal(user, partId, body), { status: 201 });
+  });
 });
