@@ -14,4 +14,7 @@ export async function register() {
     }
     throw error;
   }
+  // Sends the mail queued by requests (the outbox), with retries; see server/outbox/worker.ts.
+  const { startOutboxWorker } = await import("@/server/outbox/worker");
+  await startOutboxWorker();
 }
