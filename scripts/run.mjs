@@ -143,6 +143,7 @@ async function startServices({ recreateDatabase }) {
     ...process.env,
     SMTP_PORT: String(profile.smtp),
     MAIL_API_PORT: String(profile.mailApi),
+    APP_ENV: profile.appEnv,
   });
   await waitForPort(profile.smtp);
   await waitForPort(profile.mailApi);
@@ -172,7 +173,7 @@ async function startServices({ recreateDatabase }) {
 
 // ---------------------------------------------------------------- build
 
-const BUILD_INPUTS = ["app", "components", "lib", "db", "public", "worker", "next.config.mjs", "tailwind.config.ts", "postcss.config.mjs", "tsconfig.json", "package-lock.json"];
+const BUILD_INPUTS = ["app", "components", "lib", "db", "server", "instrumentation.ts", "proxy.ts", "public", "worker", "next.config.mjs", "tailwind.config.ts", "postcss.config.mjs", "tsconfig.json", "package-lock.json"];
 
 function hashTree() {
   const h = crypto.createHash("sha256");
