@@ -39,6 +39,7 @@ const smtp = new SMTPServer({
           to,
           from: parsed.from?.text ?? "",
           subject: parsed.subject ?? "",
+          messageId: parsed.messageId ?? null,
           text,
           html,
           links,
