@@ -5,6 +5,9 @@ import { config } from "@/lib/config";
 import { messageIdFor, sendMail } from "@/lib/mail/send";
 import type { MailJob } from "./queue";
 
+/** Messages sent at once. */
+const SENDERS = 3;
+
 const globalForWorker = globalThis as unknown as { ondulaOutbox?: Promise<PgBoss | null> };
 
 /**
@@ -31,12 +34,15 @@ async function start(): Promise<PgBoss> {
   // Its own small pool, so polling never takes a connection a request is waiting for. pg-boss's
   // maintenance (expiring jobs stuck active, archiving done ones) runs here too; the schema is
   // installed by the migrations, never by a running server.
-  const boss = new PgBoss({ connectionString: DATABASE_URL, schema: JOB_SCHEMA, max: 3, migrate: false, schedule: false, supervise: true });
+  const boss = new PgBoss({ connectionString: DATABASE_URL, schema: JOB_SCHEMA, max: SENDERS + 2, migrate: false, schedule: false, supervise: true });
   boss.on("error", (error) => console.error("[outbox]", error.message));
   await boss.start();
-  await boss.work<MailJob>(MAIL_QUEUE, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
-    await sendMail(job.data.to, job.data.content, { messageId: messageIdFor(job.id, APP_URL) });
-  });
+  // A few independent loops, so one message held by a slow server does not hold up the rest.
+  for (let i = 0; i < SENDERS; i++) {
+    await boss.work<MailJob>(MAIL_QUEUE, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
+      await sendMail(job.data.to, job.data.content, { messageId: messageIdFor(job.id, APP_URL) });
+    });
+  }
   return boss;
 }
 
