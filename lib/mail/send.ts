@@ -6,7 +6,7 @@ import type { MailContent } from "./templates";
 /**
  * Short limits: the outbox worker sends, and a silent or slow SMTP server must fail the attempt
  * (pg-boss retries it later with back-off) rather than hold the worker for nodemailer's defaults
- * (2 minutes to connect, 10 minutes of socket silence).
+ * (2 minutes to connect, 30 s for the greeting, 10 minutes of socket silence).
  */
 export const SMTP_TIMEOUTS = { connectionTimeout: 5_000, greetingTimeout: 5_000, socketTimeout: 15_000, dnsTimeout: 5_000 } as const;
 
@@ -15,14 +15,6 @@ const globalForMail = globalThis as unknown as { ondulaMailer?: Transporter };
 function transporter(): Transporter {
   globalForMail.ondulaMailer ??= nodemailer.createTransport({ url: config().SMTP_URL, ...SMTP_TIMEOUTS });
   return globalForMail.ondulaMailer;
-}
-
-/**
- * A message id for a queued message: the same on every attempt, so a receiver (or a person) can
- * recognise a copy sent twice when an attempt was delivered but not recorded (RFC 5322 §3.6.4).
- */
-export function messageIdFor(jobId: string, appUrl: string): string {
-  return `<${jobId}@${new URL(appUrl).hostname || "ondula.invalid"}>`;
 }
 
 /** Sends one message through the SMTP server in SMTP_URL; only the outbox worker calls this. */

@@ -2,7 +2,8 @@ import "server-only";
 import PgBoss from "pg-boss";
 import { JOB_SCHEMA, MAIL_QUEUE } from "@/db/job-queue";
 import { config } from "@/lib/config";
-import { messageIdFor, sendMail } from "@/lib/mail/send";
+import { messageIdFor } from "@/lib/mail/message-id";
+import { sendMail } from "@/lib/mail/send";
 import type { MailJob } from "./queue";
 
 /** Messages sent at once. */
