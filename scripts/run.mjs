@@ -278,7 +278,8 @@ async function testMode() {
   ensureSystemPackages({ browser: wants("e2e") });
   const results = [];
   const env = await startServices({ recreateDatabase: !flag("keep-db") });
-  const vitestArgs = filter ? [filter] : [];
+  // --filter a,b: each name is a separate Vitest file filter.
+  const vitestArgs = filter ? filter.split(",").filter(Boolean) : [];
   const bin = (p) => path.join(root, "node_modules", ...p.split("/"));
   if (wants("typecheck")) results.push(checkSuite("typecheck", process.execPath, [bin("typescript/bin/tsc"), "--noEmit", "-p", "tsconfig.json"], env));
   if (wants("lint")) results.push(checkSuite("lint", process.execPath, [bin("eslint/bin/eslint.js"), ".", "--max-warnings=0"], env));
