@@ -15,6 +15,9 @@ export async function register() {
     throw error;
   }
   await stampPeerAddresses();
+  // Sends the mail queued by requests (the outbox), with retries; see server/outbox/worker.ts.
+  const { startOutboxWorker } = await import("@/server/outbox/worker");
+  await startOutboxWorker();
 }
 
 /** Client addresses come from the socket (lib/http/peer-address.ts); stamped before any request is answered. */

@@ -18,7 +18,7 @@ const nextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
   // The engraving library is browser-only and large; keep it out of server bundles.
-  serverExternalPackages: ["pg", "smtp-server", "mailparser", "formidable", "rate-limiter-flexible"],
+  serverExternalPackages: ["pg", "pg-boss", "smtp-server", "mailparser", "formidable", "rate-limiter-flexible"],
   outputFileTracingRoot: import.meta.dirname,
   turbopack: { root: import.meta.dirname },
   async headers() {

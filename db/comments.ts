@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, eq, isNull, sql } from "drizzle-orm";
 import type { CommentDto, ThreadDto, ThreadSummary } from "@/lib/sharing/dto";
-import { db } from "./client";
+import { db, type Executor } from "./client";
 import { commentThreads, comments, users, type Comment } from "./schema";
 
 export async function getThreadByKey({ partId, threadKey }: { partId: string; threadKey: string }): Promise<ThreadDto> {
@@ -40,14 +40,16 @@ function toCommentDto(c: Comment, threadKey: string, authorName: string): Commen
 }
 
 /** Adds a comment, creating the thread on first use; a new comment reopens a resolved thread. */
-export async function insertComment({ partId, threadKey, authorId, authorName, body }: {
+export async function insertComment({ partId, threadKey, authorId, authorName, body, tx: outer }: {
   partId: string;
   threadKey: string;
   authorId: string;
   authorName: string;
   body: string;
+  /** The caller's transaction (then this runs in a savepoint of it). */
+  tx?: Executor;
 }): Promise<CommentDto> {
-  return db().transaction(async (tx) => {
+  return (outer ?? db()).transaction(async (tx) => {
     const [thread] = await tx
       .insert(commentThreads)
       .values({ partId, threadKey })

@@ -1,7 +1,7 @@
 import "server-only";
 import { and, desc, eq, inArray, isNull, sql } from "drizzle-orm";
 import type { NotificationDto } from "@/lib/sharing/dto";
-import { db } from "./client";
+import { db, type Executor } from "./client";
 import { notifications, parts, users } from "./schema";
 
 export type NotificationKind = "comment" | "proposal" | "proposal_accepted" | "proposal_declined" | "invitation_accepted" | "assignment";
@@ -13,8 +13,8 @@ export async function insertNotifications(rows: {
   noteKey: string | null;
   actorId: string;
   summary: string;
-}[]): Promise<void> {
-  if (rows.length) await db().insert(notifications).values(rows);
+}[], { tx }: { tx?: Executor } = {}): Promise<void> {
+  if (rows.length) await (tx ?? db()).insert(notifications).values(rows);
 }
 
 export async function listNotificationsForUser({ userId, partId, limit = 50 }: { userId: string; partId?: string; limit?: number }): Promise<NotificationDto[]> {
@@ -76,13 +76,15 @@ export interface ClaimedBatch {
  * stamps `emailed_at` under a transaction-scoped advisory lock on the pair, so two requests at
  * once cannot both send. Null: nothing to send now (the items stay pending).
  */
-export async function claimEmailBatch({ userId, partId, windowMs, now = new Date() }: {
+export async function claimEmailBatch({ userId, partId, windowMs, now = new Date(), tx: outer }: {
   userId: string;
   partId: string;
   windowMs: number;
   now?: Date;
+  /** The caller's transaction: the claim (and its lock) then lasts until that one ends. */
+  tx?: Executor;
 }): Promise<ClaimedBatch | null> {
-  return db().transaction(async (tx) => {
+  return (outer ?? db()).transaction(async (tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${`notify:${userId}:${partId}`}, 0))`);
     const [recipient] = await tx
       .select({ id: users.id, email: users.email, name: users.name, wants: users.emailNotifications, status: users.status })
@@ -110,11 +112,6 @@ export async function claimEmailBatch({ userId, partId, windowMs, now = new Date
       items: pending.map(({ id: _id, ...item }) => item),
     };
   });
-}
-
-/** Undoes a claim whose e-mail could not be sent, so the next event or flush tries again. */
-export async function releaseEmailBatch({ ids }: { ids: string[] }): Promise<void> {
-  if (ids.length) await db().update(notifications).set({ emailedAt: null }).where(inArray(notifications.id, ids));
 }
 
 /** (recipient, part) pairs with unread items not yet e-mailed and no e-mail within the window. */

@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, isNotNull, isNull, sql } from "drizzle-orm";
 import type { ShareDto, ShareStatus } from "@/lib/sharing/dto";
-import { db } from "./client";
+import { db, type Executor } from "./client";
 import { comments, notifications, parts, proposals, shares, users, type Share } from "./schema";
 
 export function shareStatus(s: Pick<Share, "acceptedAt" | "expiresAt">, now = new Date()): ShareStatus {
@@ -60,21 +60,22 @@ export async function getLiveShareByEmail({ partId, email }: { partId: string; e
   return row ?? null;
 }
 
-export async function insertShare(values: {
+export async function insertShare({ tx, ...values }: {
   partId: string;
   email: string;
   permission: "comment" | "propose";
   tokenHash: string;
   invitedBy: string;
   expiresAt: Date;
+  tx?: Executor;
 }): Promise<Share> {
-  const [row] = await db().insert(shares).values(values).returning();
+  const [row] = await (tx ?? db()).insert(shares).values(values).returning();
   return row;
 }
 
 /** A new token for a pending invitation; the old link stops working. */
-export async function renewShareTokenById({ shareId, tokenHash, expiresAt }: { shareId: string; tokenHash: string; expiresAt: Date }): Promise<Share | null> {
-  const [row] = await db()
+export async function renewShareTokenById({ shareId, tokenHash, expiresAt, tx }: { shareId: string; tokenHash: string; expiresAt: Date; tx?: Executor }): Promise<Share | null> {
+  const [row] = await (tx ?? db())
     .update(shares)
     .set({ tokenHash, expiresAt, lastSentAt: new Date() })
     .where(and(eq(shares.id, shareId), isNull(shares.acceptedAt), isNull(shares.revokedAt)))

@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, gt, isNull } from "drizzle-orm";
 import { hashToken, newToken, TOKEN_TTL_MS } from "@/lib/auth/tokens";
-import { db } from "./client";
+import { db, type Executor } from "./client";
 import { studioInvitations, studioMembers, studios, users, type Studio } from "./schema";
 
 export async function getStudioById({ studioId }: { studioId: string }): Promise<Studio | undefined> {
@@ -56,9 +56,9 @@ export async function listStudiosByPlayerId({ playerId }: { playerId: string }) 
     .orderBy(asc(studios.name));
 }
 
-export async function createInvitation({ studioId, email }: { studioId: string; email: string }): Promise<string> {
+export async function createInvitation({ studioId, email, tx }: { studioId: string; email: string; tx?: Executor }): Promise<string> {
   const { token, hash } = newToken();
-  await db().insert(studioInvitations).values({
+  await (tx ?? db()).insert(studioInvitations).values({
     studioId, email: email.trim(), tokenHash: hash, expiresAt: new Date(Date.now() + TOKEN_TTL_MS.studio_invite),
   });
   return token;

@@ -1,6 +1,6 @@
 import { and, eq, gt, isNull, sql } from "drizzle-orm";
 import { hashToken, newToken, TOKEN_TTL_MS } from "@/lib/auth/tokens";
-import { db } from "./client";
+import { db, type Executor } from "./client";
 import { authTokens } from "./schema";
 
 type Purpose = "verify_email" | "reset_password" | "sign_in_link";
@@ -9,14 +9,15 @@ type Purpose = "verify_email" | "reset_password" | "sign_in_link";
  * Stores the hash of a fresh token and returns the token itself, for the link only. `data` keeps
  * what the link needs besides proof of the mailbox (a sign-in link's destination).
  */
-export async function issueToken({ purpose, userId, email, data }: {
+export async function issueToken({ purpose, userId, email, data, tx }: {
   purpose: Purpose;
   userId: string;
   email: string;
   data?: Record<string, string>;
+  tx?: Executor;
 }): Promise<string> {
   const { token, hash } = newToken();
-  await db().insert(authTokens).values({
+  await (tx ?? db()).insert(authTokens).values({
     purpose, userId, email, data: data ?? null, tokenHash: hash, expiresAt: new Date(Date.now() + TOKEN_TTL_MS[purpose]),
   });
   return token;

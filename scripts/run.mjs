@@ -143,6 +143,7 @@ async function startServices({ recreateDatabase }) {
     ...process.env,
     SMTP_PORT: String(profile.smtp),
     MAIL_API_PORT: String(profile.mailApi),
+    APP_ENV: profile.appEnv,
   });
   await waitForPort(profile.smtp);
   await waitForPort(profile.mailApi);
@@ -174,7 +175,7 @@ async function startServices({ recreateDatabase }) {
 
 // ---------------------------------------------------------------- build
 
-const BUILD_INPUTS = ["app", "components", "lib", "db", "public", "worker", "next.config.mjs", "tailwind.config.ts", "postcss.config.mjs", "tsconfig.json", "package-lock.json"];
+const BUILD_INPUTS = ["app", "components", "lib", "db", "server", "instrumentation.ts", "proxy.ts", "public", "worker", "next.config.mjs", "tailwind.config.ts", "postcss.config.mjs", "tsconfig.json", "package-lock.json"];
 
 function hashTree() {
   const h = crypto.createHash("sha256");
@@ -279,7 +280,8 @@ async function testMode() {
   ensureSystemPackages({ browser: wants("e2e") });
   const results = [];
   const env = await startServices({ recreateDatabase: !flag("keep-db") });
-  const vitestArgs = filter ? [filter] : [];
+  // --filter a,b: each name is a separate Vitest file filter.
+  const vitestArgs = filter ? filter.split(",").filter(Boolean) : [];
   const bin = (p) => path.join(root, "node_modules", ...p.split("/"));
   if (wants("typecheck")) results.push(checkSuite("typecheck", process.execPath, [bin("typescript/bin/tsc"), "--noEmit", "-p", "tsconfig.json"], env));
   if (wants("lint")) results.push(checkSuite("lint", process.execPath, [bin("eslint/bin/eslint.js"), ".", "--max-warnings=0"], env));

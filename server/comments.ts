@@ -5,7 +5,8 @@ import { excerpt } from "@/lib/sharing/comment-text";
 import { threadLabel } from "@/lib/sharing/note-label";
 import { deleteCommentById, getCommentById, getThreadByKey, insertComment, setThreadResolved, summarizeThreadsByPartId, updateCommentById } from "@/db/comments";
 import { countOpenProposalsByPartId } from "@/db/proposals";
-import { notifyParticipants } from "./notify";
+import { transaction } from "@/db/client";
+import { notifyParticipants, sweepDueNotifications } from "./notify";
 import { barsOfPart, loadPart } from "./parts";
 import { assertThreadKey } from "./sharing";
 
@@ -18,14 +19,20 @@ export async function getThread(user: CurrentUser, partId: string, threadKey: st
 export async function postComment(user: CurrentUser, o: { partId: string; threadKey: string; body: string }) {
   const { part } = await loadPart(user, o.partId, "part:comment");
   assertThreadKey(part, o.threadKey);
-  const comment = await insertComment({ partId: o.partId, threadKey: o.threadKey, authorId: user.id, authorName: user.name, body: o.body });
-  await notifyParticipants({
-    partId: o.partId,
-    actorId: user.id,
-    kind: "comment",
-    threadKey: o.threadKey,
-    summary: `${user.name} commented on ${threadLabel(o.threadKey, barsOfPart(part))}: “${excerpt(o.body)}”`,
+  // The comment, its notifications and their e-mail are kept together or not at all.
+  const comment = await transaction(async (tx) => {
+    const created = await insertComment({ partId: o.partId, threadKey: o.threadKey, authorId: user.id, authorName: user.name, body: o.body, tx });
+    await notifyParticipants({
+      partId: o.partId,
+      actorId: user.id,
+      kind: "comment",
+      threadKey: o.threadKey,
+      summary: `${user.name} commented on ${threadLabel(o.threadKey, barsOfPart(part))}: “${excerpt(o.body)}”`,
+      tx,
+    });
+    return created;
   });
+  await sweepDueNotifications();
   return comment;
 }
 

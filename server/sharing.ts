@@ -6,7 +6,6 @@ import { AppError } from "@/lib/errors";
 import { shareInviteMail } from "@/lib/mail/sharing-templates";
 import { PART_THREAD } from "@/lib/sharing/schemas";
 import { appLink } from "@/lib/mail/templates";
-import { sendMail } from "@/lib/mail/send";
 import {
   acceptShareById, getLiveShareByEmail, getShareById, getShareByTokenHash, getShareDtoById, insertShare, listSharedPartsForViewer, listSharesByPartId,
   renewShareTokenById, revokeShareById, updateSharePermissionById, type ShareByToken,
@@ -14,6 +13,8 @@ import {
 import { groupByStudent } from "@/lib/sharing/attention";
 import type { Part, Share } from "@/db/schema";
 import { markEmailVerified } from "@/db/users";
+import { transaction, type Executor } from "@/db/client";
+import { queueMail } from "./outbox/queue";
 import { admitMailOnBehalf } from "./auth/mail-limits";
 import { notifyParticipants } from "./notify";
 import { loadPart } from "./parts";
@@ -29,10 +30,12 @@ export function acceptPath(token: string): string {
   return `/share/accept?token=${encodeURIComponent(token)}`;
 }
 
-async function mailInvitation(owner: CurrentUser, part: Pick<Part, "title">, share: Pick<Share, "email" | "permission">, token: string) {
-  await sendMail(
+/** Queues the invitation in the transaction that writes its token. */
+async function mailInvitation(owner: CurrentUser, part: Pick<Part, "title">, share: Pick<Share, "email" | "permission">, token: string, tx: Executor) {
+  await queueMail(
     share.email,
     shareInviteMail({ ownerName: owner.name, partTitle: part.title, permission: share.permission, url: appLink(config().APP_URL, acceptPath(token)) }),
+    { tx },
   );
 }
 
@@ -44,16 +47,19 @@ export async function inviteToPart(owner: CurrentUser, part: Part, email: string
     throw new AppError("conflict:share_exists", `This part is already shared with ${email}. Resend the invitation or change its permission in the list.`, { field: "email" });
   }
   const { token, hash } = newToken();
-  const share = await insertShare({
-    partId: part.id,
-    email,
-    permission,
-    tokenHash: hash,
-    invitedBy: owner.id,
-    expiresAt: new Date(Date.now() + SHARE_TTL_MS),
+  return transaction(async (tx) => {
+    const share = await insertShare({
+      partId: part.id,
+      email,
+      permission,
+      tokenHash: hash,
+      invitedBy: owner.id,
+      expiresAt: new Date(Date.now() + SHARE_TTL_MS),
+      tx,
+    });
+    await mailInvitation(owner, part, share, token, tx);
+    return share;
   });
-  await mailInvitation(owner, part, share, token);
-  return share;
 }
 
 export async function resendInvitation(owner: CurrentUser, part: Part, share: Share): Promise<void> {
@@ -67,9 +73,11 @@ export async function resendInvitation(owner: CurrentUser, part: Part, share: Sh
     });
   }
   const { token, hash } = newToken();
-  const renewed = await renewShareTokenById({ shareId: share.id, tokenHash: hash, expiresAt: new Date(Date.now() + SHARE_TTL_MS) });
-  if (!renewed) throw new AppError("conflict:share_accepted", "This invitation was accepted or withdrawn in the meantime. Reload the list.");
-  await mailInvitation(owner, part, renewed, token);
+  await transaction(async (tx) => {
+    const renewed = await renewShareTokenById({ shareId: share.id, tokenHash: hash, expiresAt: new Date(Date.now() + SHARE_TTL_MS), tx });
+    if (!renewed) throw new AppError("conflict:share_accepted", "This invitation was accepted or withdrawn in the meantime. Reload the list.");
+    await mailInvitation(owner, part, renewed, token, tx);
+  });
 }
 
 export type InvitationLookup =

@@ -4,6 +4,8 @@ export interface CaughtMessage {
   to: string[];
   from: string;
   subject: string;
+  /** The Message-ID header as sent (the outbox gives every message a stable one). */
+  messageId: string | null;
   text: string;
   html: string | null;
   links: string[];

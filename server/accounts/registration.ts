@@ -7,7 +7,8 @@ import { checkLimits, rateLimitError, recordAttempt, resetChecks } from "@/serve
 import type { CurrentUser } from "@/lib/auth/types";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
-import { sendMail } from "@/lib/mail/send";
+import { transaction } from "@/db/client";
+import { queueMail } from "@/server/outbox/queue";
 import { accountExistsMail, appLink, resetPasswordMail, verifyEmailMail } from "@/lib/mail/templates";
 
 /**
@@ -30,7 +31,7 @@ export async function signUp(input: { name: string; email: string; password: str
       mail: async () => {
         const existing = await getUserByEmail({ email: input.email });
         if (!existing || existing.status !== "active") return;
-        await sendMail(existing.email, accountExistsMail({ name: existing.name, url: appLink(config().APP_URL, "/sign-in", { email: existing.email }) }));
+        await queueMail(existing.email, accountExistsMail({ name: existing.name, url: appLink(config().APP_URL, "/sign-in", { email: existing.email }) }));
       },
     };
   }
@@ -38,8 +39,10 @@ export async function signUp(input: { name: string; email: string; password: str
 }
 
 export async function sendVerification({ userId, email, name }: { userId: string; email: string; name: string }) {
-  const token = await issueToken({ purpose: "verify_email", userId, email });
-  await sendMail(email, verifyEmailMail({ name, url: appLink(config().APP_URL, "/verify-email", { token }) }));
+  await transaction(async (tx) => {
+    const token = await issueToken({ purpose: "verify_email", userId, email, tx });
+    await queueMail(email, verifyEmailMail({ name, url: appLink(config().APP_URL, "/verify-email", { token }) }), { tx });
+  });
 }
 
 /** Confirms the address the token was sent to; false when the link is unknown, used or expired. */
@@ -69,8 +72,10 @@ export async function requestPasswordReset({ email, address }: { email: string; 
 async function sendResetLink({ email }: { email: string }) {
   const user = await getUserByEmail({ email });
   if (!user || user.status !== "active") return;
-  const token = await issueToken({ purpose: "reset_password", userId: user.id, email: user.email });
-  await sendMail(user.email, resetPasswordMail({ name: user.name, url: appLink(config().APP_URL, "/reset-password", { token }) }));
+  await transaction(async (tx) => {
+    const token = await issueToken({ purpose: "reset_password", userId: user.id, email: user.email, tx });
+    await queueMail(user.email, resetPasswordMail({ name: user.name, url: appLink(config().APP_URL, "/reset-password", { token }) }), { tx });
+  });
 }
 
 /** Sets the new password and ends every session of the account. */

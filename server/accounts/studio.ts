@@ -12,7 +12,8 @@ import { assertCan } from "@/lib/auth/policy";
 import type { CurrentUser } from "@/lib/auth/types";
 import { config } from "@/lib/config";
 import { AppError } from "@/lib/errors";
-import { sendMail } from "@/lib/mail/send";
+import { transaction } from "@/db/client";
+import { queueMail } from "@/server/outbox/queue";
 import { appLink, studioInviteMail } from "@/lib/mail/templates";
 
 /** The teacher's own studio (created on first use); 404 for anyone who is not a teacher. */
@@ -32,10 +33,13 @@ export async function inviteToStudio(user: CurrentUser, { email }: { email: stri
     throw new AppError("conflict:member", "This person is already in your studio.", { field: "email" });
   }
   const sent = await admitMailOnBehalf(user, email, `studio:${studio.id}`);
-  const token = await createInvitation({ studioId: studio.id, email });
-  await sendMail(email, studioInviteMail({
-    teacherName: user.name, studioName: studio.name, url: appLink(config().APP_URL, "/studio/join", { token }),
-  }));
+  // The invitation and its e-mail are kept together or not at all.
+  await transaction(async (tx) => {
+    const token = await createInvitation({ studioId: studio.id, email, tx });
+    await queueMail(email, studioInviteMail({
+      teacherName: user.name, studioName: studio.name, url: appLink(config().APP_URL, "/studio/join", { token }),
+    }), { tx });
+  });
   await sent();
 }
 

@@ -5,7 +5,8 @@ import { consumeSignInLink, issueToken, peekToken } from "@/db/tokens";
 import { claimAddress, getUserByEmail, getUserById } from "@/db/users";
 import { config } from "@/lib/config";
 import { safeCallbackPath } from "@/lib/http/safe-redirect";
-import { sendMail } from "@/lib/mail/send";
+import { transaction } from "@/db/client";
+import { queueMail } from "@/server/outbox/queue";
 import { appLink, signInLinkMail } from "@/lib/mail/templates";
 import { hashPassword } from "@/lib/auth/password";
 import { checkLimits, rateLimitError, recordAttempt } from "./rate-limit";
@@ -52,8 +53,11 @@ export async function sendSignInLink({ email, callbackUrl }: { email: string; ca
   const user = await getUserByEmail({ email });
   if (!user || user.status !== "active") return;
   const data = callbackUrl ? { callbackUrl: safeCallbackPath(callbackUrl) } : undefined;
-  const token = await issueToken({ purpose: "sign_in_link", userId: user.id, email: user.email, data });
-  await sendMail(user.email, signInLinkMail({ name: user.name, url: appLink(config().APP_URL, SIGN_IN_LINK_PATH, { token }) }));
+  // The link and its e-mail are kept together or not at all.
+  await transaction(async (tx) => {
+    const token = await issueToken({ purpose: "sign_in_link", userId: user.id, email: user.email, data, tx });
+    await queueMail(user.email, signInLinkMail({ name: user.name, url: appLink(config().APP_URL, SIGN_IN_LINK_PATH, { token }) }), { tx });
+  });
 }
 
 export interface SignedInByLink {

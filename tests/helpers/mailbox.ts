@@ -1,4 +1,4 @@
-import { APP_URL } from "./env";
+import { APP_URL, MAIL_API_URL } from "./env";
 import type { CaughtMessage } from "@/lib/mail/caught-message";
 
 export type MailSummary = CaughtMessage;
@@ -22,4 +22,10 @@ export function linkTo(mail: MailSummary, path: string): string {
   const link = mail.links.find((l) => l.startsWith(`${APP_URL}${path}`) || new URL(l).pathname === path);
   if (!link) throw new Error(`no link to ${path} in "${mail.subject}": ${mail.links.join(", ")}`);
   return link;
+}
+
+/** Switches the local mail server's SMTP side (scripts/mail-server.ts): down, silent or up. */
+export async function setSmtp(state: "up" | "down" | "silent"): Promise<void> {
+  const res = await fetch(`${MAIL_API_URL}/smtp/${state}`, { method: "POST" });
+  if (!res.ok) throw new Error(`mail server refused to go ${state}: ${res.status} ${await res.text()}`);
 }

@@ -18,6 +18,8 @@ describe("GET /api/health", () => {
     expect(body.database.ok).toBe(true);
     expect(body.database.migration.count).toBeGreaterThanOrEqual(1);
     expect(body.mail.ok).toBe(true);
+    // The outbox's counts, for an operator to see mail piling up or given up on.
+    expect(body.mail.outbox).toEqual({ waiting: expect.any(Number), active: expect.any(Number), failed: expect.any(Number) });
     expect(typeof body.version).toBe("string");
   });
 });
