@@ -36,6 +36,8 @@ describe("PhraseMap on a 1,000-bar part", () => {
     const onJump = vi.fn();
     render(<PhraseMap noteOrder={noteOrder} noteMeasures={noteMeasures} phrases={phrases} localKeys={localKeys} markings={{}} labelOf={(k) => k} onJump={onJump} />);
     const key = screen.getByRole("button", { name: "Local key: D major, bars 101 to 400" });
+    // The band under the map says what its boxes are, once, for a first-time reader.
+    expect(screen.getByTestId("phrase-map-keys-caption").textContent).toMatch(/another key/);
     fireEvent.click(key);
     expect(onJump).toHaveBeenCalledWith("n400");
   });

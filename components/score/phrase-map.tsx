@@ -5,7 +5,7 @@ import type { LocalKey, PhraseResult } from "@/lib/analysis/types";
 import type { MarkingState } from "@/lib/markings/changes";
 import { ROLE_INFO } from "@/lib/markings/roles";
 import { roleShapePath } from "@/lib/markings/glyph-geometry";
-import { keyName, layoutDots, layoutPhrases, localKeySpans, PHRASE_MIN_PX, xOf } from "@/lib/markings/phrase-map-layout";
+import { keyLabel, keyName, layoutDots, layoutPhrases, localKeySpans, PHRASE_MIN_PX, xOf } from "@/lib/markings/phrase-map-layout";
 import { barSpanName, type WrittenBar } from "@/lib/musicxml/bar-names";
 import { parseNoteKey } from "@/lib/musicxml/note-key";
 
@@ -29,8 +29,6 @@ const STRIP_H = 48;
 const KEY_BAND_H = 24;
 /** The furthest the map zooms in: past this a phrase is a handful of notes. */
 const MAX_ZOOM = 64;
-/** A key's name is written in its span where it fits. */
-const KEY_LABEL_PX = 72;
 
 /** A strip of the whole part: each phrase a span with its start, peak and end, the marked notes and the local keys. */
 /** Memoized: a click on a note re-renders the workspace, and nothing here depends on the selection. */
@@ -174,12 +172,17 @@ export const PhraseMap = memo(function PhraseMap({ noteOrder, phrases, markings,
                 title={label}
                 data-local-key={name}
               >
-                {w >= KEY_LABEL_PX ? name : ""}
+                {keyLabel(k.tonic, k.mode, w)}
               </button>
             );
           })}
         </div>
       </div>
+      {keys.length > 0 ? (
+        <p className="mx-3 text-xs text-graphite" data-testid="phrase-map-keys-caption">
+          Boxes under the map: where the music moves to another key (shaded: minor). Tap one to go there.
+        </p>
+      ) : null}
     </nav>
   );
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { keyName, layoutDots, layoutPhrases, localKeySpans, PHRASE_MIN_PX, xOf } from "./phrase-map-layout";
+import { keyLabel, keyName, layoutDots, layoutPhrases, localKeySpans, PHRASE_MIN_PX, xOf } from "./phrase-map-layout";
 
 describe("phrase map layout", () => {
   it("gives each wide phrase its own span and peak", () => {
@@ -45,5 +45,16 @@ describe("phrase map layout", () => {
     // Spelling as written on a key signature (common practice).
     expect(keyName("F#", "minor")).toBe("F♯ minor");
     expect(keyName("Bb", "major")).toBe("B♭ major");
+  });
+
+  it("writes a key's full name where it fits, the short chord-symbol form where only that fits, else nothing", () => {
+    expect(keyLabel("E", "minor", 120)).toBe("E minor");
+    // "Em" for E minor, "B♭" for B flat major: chord-symbol shorthand (common practice).
+    expect(keyLabel("E", "minor", 50)).toBe("Em");
+    expect(keyLabel("Bb", "major", 40)).toBe("B♭");
+    expect(keyLabel("F#", "minor", 12)).toBe("");
+    // A wider box never gets a shorter name.
+    const lengths = [10, 30, 60, 90, 120].map((w) => keyLabel("C#", "minor", w).length);
+    expect([...lengths].sort((a, b) => a - b)).toEqual(lengths);
   });
 });

@@ -72,6 +72,22 @@ export function keyName(tonic: string, mode: "major" | "minor"): string {
   return `${letter}${accidentals} ${mode}`;
 }
 
+/** Roughly the width of one character of the map's 11 px labels, and a label's side padding. */
+const LABEL_CHAR_PX = 7;
+const LABEL_PAD_PX = 10;
+
+/**
+ * The name written inside a local key's box of `widthPx`: the full name where it fits, else the
+ * short chord-symbol form ("Em", "B♭") a player reads at a glance, else nothing (the box's title
+ * and label still name it in full).
+ */
+export function keyLabel(tonic: string, mode: "major" | "minor", widthPx: number): string {
+  const full = keyName(tonic, mode);
+  if (widthPx >= full.length * LABEL_CHAR_PX + LABEL_PAD_PX) return full;
+  const short = full.replace(/ major$/, "").replace(/ minor$/, "m");
+  return widthPx >= short.length * LABEL_CHAR_PX + LABEL_PAD_PX ? short : "";
+}
+
 /**
  * Each local key's span in note positions: from the first note of its first bar to the last note
  * of its last bar (bars named by their written numbers, as the analysis gives them).
