@@ -400,7 +400,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
     // the music.
     <div className="flex flex-col bg-paper sm:[@media(min-height:40rem)]:h-[calc(100dvh-3.6rem)]" data-testid="workspace">
       <div className="no-print flex flex-wrap items-center gap-x-4 gap-y-1 border-b border-rule px-gutter py-2">
-        <div className="w-full min-w-0 lg:w-auto lg:flex-1">
+        <div className="w-full min-w-0 2xl:w-auto 2xl:flex-1">
           <h1 className="truncate text-xl font-semibold leading-tight">{part.data?.title ?? "…"}</h1>
           <p className="text-sm text-graphite">
             {[part.data?.composer, part.data?.keyLabel, part.data ? `${part.data.measureCount} bars` : null].filter(Boolean).join(" · ")}

@@ -21,7 +21,7 @@ export function SiteHeader({
 }) {
   return (
     <header className="no-print border-b border-rule bg-paper">
-      <nav aria-label="Main" className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-gutter py-3">
+      <nav aria-label="Main" className="flex flex-wrap items-center gap-x-6 gap-y-2 px-gutter py-3">
         <Link href="/" className="font-serif text-xl font-semibold tracking-tight">
           Ondula
         </Link>
@@ -53,7 +53,7 @@ export function SiteHeader({
       </nav>
       {user && !user.emailVerified ? (
         <div className="border-t border-rule bg-paper-deep">
-          <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-3 px-gutter py-2 text-sm">
+          <div className="flex flex-wrap items-center gap-3 px-gutter py-2 text-sm">
             <p>Confirm your e-mail address: we sent a link to <strong>{user.email}</strong>.</p>
             <ActionForm action={resendVerificationAction} inline variant="quiet" submitLabel="Send it again" />
           </div>
