@@ -9,6 +9,8 @@ import { barNumbers, blankFrom, blankMeasures, firstMeasures, listBars, measureC
 // OpenSheetMusicDisplay 2.1.3 stopped: grace notes without a type (Beethoven op. 18 no. 3, bar 94
 // of the first violin: a grace A4 before a whole-note A5) and a trill line started and never
 // stopped (Mozart K. 458, first movement, bar 29 of the first violin).
+import { validateMusicXml } from "@/tests/helpers/musicxml-xsd";
+
 const real = (file: string) => path.resolve(import.meta.dirname, "../../tests/fixtures/real", file);
 function part(file: string, partId = "P1") {
   const { partwiseXml } = readScoreFile(new Uint8Array(fs.readFileSync(real(file))), file);
@@ -37,6 +39,40 @@ describe("mending the text for the engraver", () => {
     expect(count(mended, "start")).toBe(count(mended, "stop"));
     expect(keysOf(mended)).toEqual(keysOf(xml));
   }, 60_000);
+});
+
+describe("harmonies that spell themselves", () => {
+  const harmonies = (t: string) => t.match(/<harmony\b[\s\S]*?<\/harmony>/g) ?? [];
+  const numeralTexts = (t: string) => [...t.matchAll(/<numeral-root text="([^"]*)"/g)].map((m) => m[1]);
+  // Schema errors, with line numbers left out: the mend never adds one (MusicXML 4.0 XSD, tests/fixtures/standards).
+  const errorKinds = async (t: string) => new Set((await validateMusicXml(t)).errors.map((e) => e.replace(/^[^:]*:\d+:\s*/, "")));
+
+  it("hands a Roman numeral written as kind none with a text to the engraver as a numeral (When in Rome, Mozart K. 331)", async () => {
+    const xml = part("when-in-rome/piano-sonatas/mozart-k331-1.mxl");
+    const mended = mendForEngraving(xml);
+    // The file's first chords: root-step text="" with kind text ".A.I{", then "I6", "V6" (from the file).
+    expect(numeralTexts(mended).slice(0, 3)).toEqual([".A.I{", "I6", "V6"]);
+    expect(harmonies(mended).length).toBe(harmonies(xml).length);
+    expect(harmonies(mended).some((h) => /<kind\b[^>]*text="[^"]+"[^>]*>none</.test(h))).toBe(false);
+    expect(keysOf(mended)).toEqual(keysOf(xml));
+    const before = await errorKinds(xml);
+    for (const e of await errorKinds(mended)) expect(before).toContain(e);
+  }, 120_000);
+
+  it("shows a function's words (MusicXML 3.1 function, When in Rome, Beethoven op. 131)", () => {
+    const xml = part("when-in-rome/quartets/beethoven-op131-1.mxl", "P4");
+    // The file's first harmony, under the cello: <function>c#.i64</function> over kind none (from the file).
+    expect(numeralTexts(mendForEngraving(xml))[0]).toBe("c#.i64");
+  }, 60_000);
+
+  it("leaves chord symbols and a plain no-chord sign as they are", () => {
+    const chords = part("music21/leadSheet/fosterBrownHair.mxl");
+    expect(mendForEngraving(chords).match(/<harmony\b[\s\S]*?<\/harmony>/g)).toEqual(chords.match(/<harmony\b[\s\S]*?<\/harmony>/g));
+    const noChord = '<measure number="1"><harmony><root><root-step>C</root-step></root><kind>none</kind></harmony></measure>';
+    expect(mendForEngraving(noChord)).toBe(noChord);
+    const spelledNoChord = '<measure number="1"><harmony><root><root-step>C</root-step></root><kind text="N.C.">none</kind></harmony></measure>';
+    expect(mendForEngraving(spelledNoChord)).toBe(spelledNoChord);
+  });
 });
 
 describe("bars drawn as rests", () => {

@@ -87,9 +87,56 @@ function pairWavyLines(xml: string): string {
   return xml.replace(WAVY, (w, offset: number) => (drop.has(offset) ? "" : w));
 }
 
+const HARMONY = /<harmony\b([^>]*)>([\s\S]*?)<\/harmony>/g;
+const attr = (tag: string, name: string) => new RegExp(`\\b${name}="([^"]*)"`).exec(tag)?.[1];
+
+/**
+ * The words a harmony with kind "none" asks to be shown, or null for a plain "no chord".
+ * MusicXML 4.0: `kind`'s `text` attribute spells the chord kind as printed, `root-step`'s `text`
+ * the root (the root of kind "none" is a placeholder unless spelled), and `function` (3.1, kept for older files) holds a Roman
+ * numeral. Analyses encoded this way (When in Rome's scores: `<kind text="V6">none</kind>`) would
+ * otherwise be drawn "N.C." at every chord.
+ */
+function harmonyWords(body: string): string | null {
+  const kind = /<kind\b([^>]*)>\s*none\s*<\/kind>/.exec(body);
+  if (!kind) return null;
+  const fn = /<function\b[^>]*>([^<]*)<\/function>/.exec(body)?.[1]?.trim();
+  let words = fn ?? "";
+  if (!fn) {
+    const rootTag = /<root-step\b([^>]*)>([^<]*)<\/root-step>/.exec(body);
+    // Kind "none" needs a root by the schema; it is shown only where the file spells it.
+    const root = rootTag ? (attr(rootTag[1], "text") ?? "") : "";
+    const kindText = attr(kind[1], "text");
+    // Without a spelling of its own, kind "none" is the "no chord" sign the engraver draws.
+    if (kindText === undefined) return null;
+    words = `${root}${kindText}`.trim();
+  }
+  return words && words !== "N.C." ? words : null;
+}
+
+/**
+ * A harmony of kind "none" that spells itself (a Roman numeral, a function) is handed to the
+ * engraver as a numeral carrying the same words: OpenSheetMusicDisplay 2.1.3 draws a numeral's
+ * `text` as written and ignores the spelling of kind "none". Offsets and staff stay.
+ */
+function spellHarmonies(xml: string): string {
+  if (!xml.includes("<harmony")) return xml;
+  return xml.replace(HARMONY, (whole, attrs: string, body: string) => {
+    if (body.includes("<numeral")) return whole;
+    const words = harmonyWords(body);
+    if (words === null) return whole;
+    const rest = body
+      .replace(/<root\b[^>]*>[\s\S]*?<\/root>/g, "")
+      .replace(/<function\b[^>]*>[^<]*<\/function>/g, "")
+      .replace(/<kind\b[^>]*>[^<]*<\/kind>/g, "");
+    const text = words.replace(/"/g, "&quot;");
+    return `<harmony${attrs}><numeral><numeral-root text="${text}">1</numeral-root></numeral><kind>none</kind>${rest}</harmony>`;
+  });
+}
+
 /** The known mends, always applied: they change how a note looks, never which notes there are. */
 export function mendForEngraving(xml: string): string {
-  return pairWavyLines(typeGraceNotes(xml));
+  return spellHarmonies(pairWavyLines(typeGraceNotes(xml)));
 }
 
 /** A measure's length in its divisions: the furthest any voice reaches. */

@@ -83,6 +83,22 @@ describe("the real corpus engraves", () => {
     }
   }, 600_000);
 
+  it("draws an analysis's Roman numerals as written, never as no-chord signs (When in Rome, Mozart K. 331)", async () => {
+    // The file writes each numeral as kind "none" spelled by its text attribute: "I6", "V6", …
+    const file = "when-in-rome/piano-sonatas/mozart-k331-1.mxl";
+    const page = await context.newPage();
+    try {
+      const result = await engravePart(page, file, "P1");
+      expect(result.status).toBe("ready");
+      const texts = await page.locator("[data-score-status] svg text").allTextContents();
+      expect(texts).toContain("I6");
+      expect(texts).toContain("V6");
+      expect(texts.filter((t) => t.trim() === "N.C.")).toEqual([]);
+    } finally {
+      await page.close();
+    }
+  }, 600_000);
+
   it("holds the corpus", () => {
     expect(allFiles.length).toBeGreaterThanOrEqual(60);
   });
