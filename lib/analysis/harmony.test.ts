@@ -3,7 +3,7 @@ import { barEvidence } from "./bar-evidence";
 import { CHORD_FIT, chordFit, nameChord } from "./chord-fit";
 import { analyzeScore } from "./index";
 import { buildTimeline, extractMelody } from "./melody";
-import { dominantSupport } from "./tension";
+import { dominantSupport, namesTarget } from "./tension";
 import { buildPart, buildScore } from "./test-part";
 
 const hist = (...pcs: number[]) => {
@@ -51,6 +51,47 @@ describe("naming chords and fitting them to keys (common practice)", () => {
     expect(dominantSupport(new Set([0, 9, 3, 6]), G)).toBe("leading-tone chord"); // F♯°7 = F♯ A C E♭
     expect(dominantSupport(new Set([7, 11, 2]), G)).toBe("against"); // G itself sounds
     expect(dominantSupport(new Set([2]), G)).toBe("unknown");
+    // Two notes of F♯°7 (C and E♭ over the melody's F♯) already spell the diminished seventh.
+    expect(dominantSupport(new Set([0, 3]), G)).toBe("leading-tone chord");
+    // source: Aldwell & Schachter, Harmony and Voice Leading, "V9" (from memory): D–E under F♯ is D9's root and ninth …
+    expect(dominantSupport(new Set([2, 4]), G)).toBe("dominant");
+    // … but without the dominant's root E is the sixth of G against F♯ (C–E: IV of G).
+    expect(dominantSupport(new Set([0, 4]), G)).toBe("against");
+  });
+
+  it("asks a full V or vii° before calling a note of the key the leading tone of another degree", () => {
+    // source: Open Music Theory v1, "Applied chords": V/x and vii°/x hold the leading tone of x.
+    const C = 0;
+    expect(namesTarget(new Set([7, 2]), C)).toBe(true); // G–D under B: V of C
+    expect(namesTarget(new Set([7, 5]), C)).toBe(true); // G–F: V7 without its fifth
+    expect(namesTarget(new Set([2, 5, 8]), C)).toBe(true); // B°7 without B
+    expect(namesTarget(new Set([7]), C)).toBe(false); // one note names no chord
+    expect(namesTarget(new Set([7, 9]), C)).toBe(false); // root and ninth alone: no triad
+    expect(namesTarget(new Set([4, 7]), C)).toBe(false); // E–G: the target's third sounds against B
+  });
+});
+
+describe("applied dominants under a note of the key", () => {
+  it("hears B rising to C over G–D–F in A minor as the leading tone of C (V7/III)", () => {
+    // source: Hutchinson, "Secondary dominant chords": the third of V/x is the leading tone of x.
+    const flute = buildPart("A4:h E5:h | D5:h B4:h | C5:w |]", { id: "P1", fifths: 0, mode: "minor" });
+    const piano = buildPart("[A2,C4,E4]:h [A2,C4,E4]:h | [G2,D4,F4]:h [G2,D4,F4]:h | [C3,E4,G4]:w |]", { id: "P2", fifths: 0, mode: "minor", staff: 1 });
+    const p = analyzeScore(buildScore(flute, piano), "t.musicxml").parts[0];
+    const b = p.suggestions.find((s) => s.role === "tension" && s.pitch === "B4");
+    expect(b?.kind).toBe("applied-leading-tone");
+    expect(b?.confidence).toBeGreaterThanOrEqual(0.5);
+    expect(b?.reason).toContain("leading tone of C");
+  });
+
+  it("keeps E rising to F over C–G in C major the third of I, not V/IV (no seventh)", () => {
+    // common practice: the tonic triad becomes V7/IV only with its added seventh (B♭).
+    const flute = buildPart("G4:h E5:h | F5:h D5:h | C5:w |]", { id: "P1", fifths: 0, mode: "major" });
+    const plain = buildPart("[C3,G3,C4]:h [C3,G3,C4]:h | [F3,A3,C4]:h [G2,B3,D4]:h | [C3,G3,C4]:w |]", { id: "P2", fifths: 0, mode: "major", staff: 1 });
+    const seventh = buildPart("[C3,G3,C4]:h [C3,G3,Bb3]:h | [F3,A3,C4]:h [G2,B3,D4]:h | [C3,G3,C4]:w |]", { id: "P2", fifths: 0, mode: "major", staff: 1 });
+    const eIn = (piano: ReturnType<typeof buildPart>) =>
+      analyzeScore(buildScore(flute, piano), "t.musicxml").parts[0].suggestions.find((s) => s.role === "tension" && s.pitch === "E5");
+    expect(eIn(plain)?.kind).not.toBe("applied-leading-tone");
+    expect(eIn(seventh)?.kind).toBe("applied-leading-tone");
   });
 });
 

@@ -7,7 +7,7 @@
 import { degreeOf, describeDegree, displayKey, inflectionOf, leadingToneLof } from "./degree";
 import type { Key } from "./key";
 import type { MelodyNote } from "./melody";
-import { displayName, mod } from "./spelling";
+import { displayName, mod, pcOfLof } from "./spelling";
 
 import type { TensionKind } from "./types";
 
@@ -40,6 +40,8 @@ export const TENSION_CONFIDENCE = {
   fourthToMinorThird: 0.45,
   raisedResolved: 0.85,
   raisedLeft: 0.4,
+  /** A note of the key rising a half step over a full V or vii° of its target (applied dominant). */
+  appliedLeadingTone: 0.85,
   loweredResolved: 0.8,
   loweredLeft: 0.4,
   appoggiatura: 0.4,
@@ -85,11 +87,30 @@ export function dominantSupport(chord: ReadonlySet<number>, targetPc: number): S
   if (has(0)) return "against";
   // In a fuller sonority (four pitch classes or more) one other note may be passing.
   let foreign = 0;
-  for (const pc of chord) if (![7, 11, 2, 5, 8].includes(mod(pc - targetPc, 12))) foreign++;
+  // With the dominant's root sounding, its major ninth (the target's sixth) belongs too: V9
+  // (Aldwell & Schachter, Harmony and Voice Leading, "V9"; from memory).
+  for (const pc of chord) {
+    const iv = mod(pc - targetPc, 12);
+    if (![7, 11, 2, 5, 8].includes(iv) && !(iv === 9 && has(7))) foreign++;
+  }
   if (foreign > (chord.size >= 4 ? 1 : 0)) return "against";
   if (has(7)) return "dominant";
-  if (has(2) && has(5)) return "leading-tone chord";
+  // Any two of vii°7's upper notes (2, 4, ♭6 of the target) with the leading tone spell it.
+  if (Number(has(2)) + Number(has(5)) + Number(has(8)) >= 2) return "leading-tone chord";
   return "against";
+}
+
+/**
+ * A chord that names its target on its own, without the key's help: V with its root and its fifth
+ * or seventh (t+7 with t+2 or t+5), or two notes of vii°7 (t+2, t+5, t+8). Used for notes of the
+ * key that the key alone would not call leading tones (B rising to C in A minor over G–D).
+ * Source: Open Music Theory v1, "Applied chords"; Hutchinson, "Secondary dominant chords".
+ */
+export function namesTarget(chord: ReadonlySet<number>, targetPc: number): boolean {
+  const support = dominantSupport(chord, targetPc);
+  const has = (iv: number) => chord.has(mod(targetPc + iv, 12));
+  if (support === "dominant") return has(2) || has(5);
+  return support === "leading-tone chord";
 }
 
 const clamp = (v: number) => Math.max(0.05, Math.min(0.98, Math.round(v * 100) / 100));
@@ -133,7 +154,8 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
     const off = n.lof - key.tonicLof;
     const inf = inflectionOf(n.lof, key);
     // Most notes are no tension tone: only the rules' candidates go on.
-    const candidate = off === 5 || off === -1 || (key.mode === "minor" && off === -4) || inf !== 0 || (prev && next && n.metric >= 2);
+    const risesHalfStep = !!next && next.midi === n.midi + 1 && next.lof === n.lof - 5 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9;
+    const candidate = off === 5 || off === -1 || (key.mode === "minor" && off === -4) || inf !== 0 || (prev && next && n.metric >= 2) || risesHalfStep;
     if (!candidate) continue;
     const name = displayName(n.lof);
     const kname = displayKey(key);
@@ -165,6 +187,19 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
           `${name} in ${bar(n)} is ${what} of ${kname}, but it does not resolve: ${motion(n, next)} instead of rising to ${tonic}.`,
         );
       }
+      continue;
+    }
+
+    // Applied dominants: a note of the key (or minor's raised sixth) rising a half step over the
+    // other parts' V or vii° of the note it rises to is that note's leading tone (V/x, vii°/x).
+    const raisedSixth = key.mode === "minor" && off === 3;
+    // In major the tonic triad is also V of IV: without its seventh it stays I (common practice:
+    // the added seventh is what makes I into V7/IV).
+    const harmony = harmonyOf(n);
+    const tonicAsDominant = key.mode === "major" && mod(n.midi + 1 - 5, 12) === pcOfLof(key.tonicLof) && !harmony.has(mod(n.midi + 1 + 5, 12));
+    if (risesHalfStep && (inf === 0 || raisedSixth) && next && !tonicAsDominant && namesTarget(harmony, mod(next.midi, 12))) {
+      const t = displayName(next.lof);
+      push("applied-leading-tone", C.appliedLeadingTone, i + 1, `${name} in ${bar(n)}, ${what} of ${kname}, is the leading tone of ${t} here: the other parts sound the dominant of ${t}, and it rises a half step to ${step(next)}.`);
       continue;
     }
 
