@@ -1,7 +1,11 @@
+import { readFileSync } from "node:fs";
+import path from "node:path";
 import { describe, expect, it } from "vitest";
+import { readScoreFile } from "@/lib/musicxml";
 import { barEvidence } from "./bar-evidence";
 import { CHORD_FIT, chordFit, nameChord } from "./chord-fit";
-import { analyzeScore } from "./index";
+import { analyzePart, analyzeScore } from "./index";
+import { type KeySection, LOCAL_KEY, settleMode } from "./local-keys";
 import { buildTimeline, extractMelody } from "./melody";
 import { dominantSupport, namesTarget } from "./tension";
 import { buildPart, buildScore } from "./test-part";
@@ -139,5 +143,45 @@ describe("cadences and local keys from every part", () => {
     expect(top.length).toBe(p.phrases.length);
     const strongest = Math.max(...p.suggestions.map((s) => s.strength ?? 0));
     expect(top.some((s) => s.strength === strongest)).toBe(true);
+  });
+});
+
+describe("tonicizations, final cadences and an inferred mode", () => {
+  it("keeps a tonicized III without a cadence in A minor, as the experts read Rimsky-Korsakov 23d", () => {
+    // source: tests/fixtures/harmony/rimsky-korsakov-23d.rntxt (Nápoles López et al. 2020, When-in-Rome
+    // conversion, CC BY-SA 4.0): "a: i iv65 | V2/III III6 | V65/vi f: i" — every bar in A minor; the C
+    // major chord is III reached from its applied dominant, not a cadence in C major.
+    const file = path.resolve(import.meta.dirname, "../../tests/fixtures/harmony/rimsky-korsakov-23d.mxl");
+    const { score } = readScoreFile(readFileSync(file), "rimsky-korsakov-23d.mxl");
+    const p = analyzePart(score, score.parts[0]);
+    expect(p.key).toMatchObject({ tonic: "A", mode: "minor" });
+    expect(p.localKeys.filter((k) => k.tonic === "C")).toEqual([]);
+  });
+
+  it("starts a closing key at its cadence: the chords before are applied chords of the old key", () => {
+    // common practice (textbook analyses of modulations): C: I – V7/V – V/V … G: I, the new key
+    // written from the arrival of its tonic from its dominant.
+    const flute = "E5:h G5:h | F#5:h A5:h | C5:h D5:h | C5:h B4:h | A4:h F#4:h | G4:w |]";
+    const piano = "[C3,G3,C4]:h [C3,G3,E4]:h | [D3,A3,C4]:h [D3,F#3,C4]:h | [E3,G3,E4]:h [D3,F#3,A3]:h | [E3,G3,E4]:h [G2,D3,G3]:h | [D3,A3,C4]:h [D3,A3,C4]:h | [G2,D3,B3]:w |]";
+    const score = buildScore(buildPart(flute, { id: "P1", fifths: 0, mode: "major" }), buildPart(piano, { id: "P2", fifths: 0, mode: "major", staff: 1 }));
+    const at = (closingAtCadence: number) => analyzePart(score, score.parts[0], { localKey: { ...LOCAL_KEY, closingAtCadence } }).localKeys.find((k) => k.tonic === "G");
+    expect(at(1)?.fromMeasure).toBe("6");
+    expect(Number(at(0)?.fromMeasure ?? 6)).toBeLessThan(6);
+  });
+
+  it("settles an inferred mode on the key the section opens in", () => {
+    // common practice: music opens on its tonic chord; C major and A minor share the signature.
+    const score = buildScore(
+      buildPart("E5:h G5:h | A5:h F5:h | D5:h B4:h | C5:w |]", { id: "P1", fifths: 0, mode: null }),
+      buildPart("[C3,G3,C4]:h [C3,G3,E4]:h | [F3,A3,C4]:h [F3,A3,C4]:h | [G2,F3,B3]:h [G2,F3,B3]:h | [C3,G3,C4]:w |]", { id: "P2", fifths: 0, mode: null, staff: 1 }),
+    );
+    const part = score.parts[0];
+    const timeline = buildTimeline(score, part);
+    const bars = barEvidence(score, part, timeline, extractMelody(part, timeline));
+    const guess: KeySection = { fromIndex: 0, toIndex: 3, fifths: 0, key: { tonicLof: 3, mode: "minor" }, source: "inferred" };
+    expect(settleMode(guess, bars).key).toEqual({ tonicLof: 0, mode: "major" });
+    expect(settleMode({ ...guess, key: { tonicLof: 0, mode: "major" } }, bars).key).toEqual({ tonicLof: 0, mode: "major" });
+    // A signature's key is never second-guessed.
+    expect(settleMode({ ...guess, source: "signature" }, bars).key).toEqual({ tonicLof: 3, mode: "minor" });
   });
 });

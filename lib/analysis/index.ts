@@ -8,7 +8,7 @@ import { barName, writtenBars } from "@/lib/musicxml/bar-names";
 import type { AnalyzedNote, LocalKey, PartAnalysis, ScoreAnalysis, Suggestion } from "./types";
 import { degreeOf } from "./degree";
 import { type Key, keyFromSignature, majorOf, toKeyResult } from "./key";
-import { type KeySection, type LocalKeyParams, type LocalKeySpan, keySections, localKeysOf } from "./local-keys";
+import { type KeySection, type LocalKeyParams, type LocalKeySpan, keySections, localKeysOf, settleMode } from "./local-keys";
 import { barEvidence, harmonyAt } from "./bar-evidence";
 import { toString as fracString } from "@/lib/musicxml/fraction";
 import { Accompaniment, buildTimeline, extractMelody, type MelodyNote } from "./melody";
@@ -39,6 +39,7 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
   const main = melody.filter((n) => !n.grace);
   const sections: KeySection[] = part.measures.length > 0 ? keySections(part.measures, melody) : [];
   const bars = barEvidence(score, part, timeline, melody);
+  for (const [i, s] of sections.entries()) sections[i] = settleMode(s, bars, options.localKey);
   const spans: LocalKeySpan[] = sections.flatMap((s) => localKeysOf(s, bars, options.localKey));
 
   const keyAtMeasure: Key[] = part.measures.map(() => majorOf(0));
