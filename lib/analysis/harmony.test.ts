@@ -119,6 +119,21 @@ describe("cadences and local keys from every part", () => {
     expect(bars[0].melodyOnly).toBe(false);
   });
 
+  it("hears no cadence on a chord with its minor seventh: C7 after G7 is V7/IV, not I", () => {
+    // common practice: the added minor seventh turns a major triad into a dominant (Hutchinson, "Secondary dominant chords").
+    const melody = buildPart("D5:h F5:h | E5:h E5:h |]", { id: "P1", fifths: 0, mode: "major" });
+    const plain = buildPart("[G2,B3,F4]:h [G2,B3,F4]:h | [C3,C4,E4]:h [C3,C4,E4]:h |]", { id: "P2", fifths: 0, mode: "major", staff: 1 });
+    const seventh = buildPart("[G2,B3,F4]:h [G2,B3,F4]:h | [C3,Bb3,E4]:h [C3,Bb3,E4]:h |]", { id: "P2", fifths: 0, mode: "major", staff: 1 });
+    const arrival = (piano: ReturnType<typeof buildPart>) => {
+      const s = buildScore(melody, piano);
+      const part = s.parts[0];
+      const timeline = buildTimeline(s, part);
+      return barEvidence(s, part, timeline, extractMelody(part, timeline))[1].cadence.get(C_MAJOR) ?? 0;
+    };
+    expect(arrival(plain)).toBeGreaterThan(0);
+    expect(arrival(seventh)).toBe(0);
+  });
+
   it("finds the modulation to G major with the piano's help and names the dominant under the leading tone", () => {
     const p = analyzeScore(score, "t.musicxml").parts[0];
     expect(p.key).toMatchObject({ tonic: "C", mode: "major" });
