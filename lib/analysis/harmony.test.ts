@@ -7,7 +7,8 @@ import { CHORD_FIT, chordFit, nameChord } from "./chord-fit";
 import { analyzePart, analyzeScore } from "./index";
 import { type KeySection, LOCAL_KEY, settleMode } from "./local-keys";
 import { buildTimeline, extractMelody } from "./melody";
-import { dominantSupport, namesTarget } from "./tension";
+import { lofOfName } from "./spelling";
+import { dominantSupport, namesTarget, spelledAsRoot } from "./tension";
 import { buildPart, buildScore } from "./test-part";
 
 const hist = (...pcs: number[]) => {
@@ -72,6 +73,23 @@ describe("naming chords and fitting them to keys (common practice)", () => {
     expect(namesTarget(new Set([7]), C)).toBe(false); // one note names no chord
     expect(namesTarget(new Set([7, 9]), C)).toBe(false); // root and ninth alone: no triad
     expect(namesTarget(new Set([4, 7]), C)).toBe(false); // E–G: the target's third sounds against B
+  });
+});
+
+describe("a diminished seventh chord names its root by its spelling", () => {
+  it("takes C♯ as the leading tone of D under C♯–E–G–B♭, not under A♯–C♯–E–G", () => {
+    // source: Hutchinson, "Secondary dominant chords": vii°7/x is built on x's leading tone, in stacked minor thirds.
+    const lof = (name: string) => lofOfName(name);
+    expect(spelledAsRoot(new Set([lof("E"), lof("G"), lof("Bb")]), lof("C#"))).toBe(true);
+    expect(spelledAsRoot(new Set([lof("A#"), lof("E"), lof("G")]), lof("C#"))).toBe(false);
+    expect(spelledAsRoot(new Set([lof("G")]), lof("C#"))).toBe(true); // one note: spelling says nothing
+    const flute = buildPart("C5:h C#5:h | D5:w |]", { id: "P1", fifths: 0, mode: "major" });
+    const under = (chord: string) => {
+      const piano = buildPart(`[C3,E3,G3]:h ${chord}:h | [D3,F3,A3]:w |]`, { id: "P2", fifths: 0, mode: "major", staff: 1 });
+      return analyzeScore(buildScore(flute, piano), "t.musicxml").parts[0].suggestions.find((s) => s.role === "tension" && s.pitch === "C#5");
+    };
+    expect(under("[E3,G3,Bb3]")?.confidence).toBeGreaterThanOrEqual(0.5);
+    expect(under("[A#2,E3,G3]")?.confidence ?? 0).toBeLessThan(0.5);
   });
 });
 

@@ -94,6 +94,7 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
       const now = accompaniment.empty ? noChord : accompaniment.soundingAt(n.measureIndex, n.pos);
       return now.size >= 2 ? now : harmonyAt(bars, n.measureIndex, n.onset);
     },
+    spelledAt: (n) => (accompaniment.empty ? noChord : accompaniment.spelledAt(n.measureIndex, n.pos)),
     bar,
   });
   const keyStarts = new Set(sections.slice(1).map((s) => s.fromIndex));

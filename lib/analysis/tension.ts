@@ -68,7 +68,22 @@ export interface TensionContext {
   /** The harmony under a note for judging a leading tone: what sounds at its onset, or over its
    * beat when only one other note sounds (figuration). Defaults to `chordAt`. */
   harmonyAt?: (n: MelodyNote) => Set<number>;
+  /** The other parts' notes sounding at a note's onset, spelled (line of fifths); optional. */
+  spelledAt?: (n: MelodyNote) => Set<number>;
   bar: (n: MelodyNote) => string;
+}
+
+/**
+ * A diminished seventh chord sounds the same from any of its four notes; its spelling names the
+ * root. A note is the leading tone under it only when the other notes are spelled a minor third,
+ * a diminished fifth and a diminished seventh above it (B–D–F–A♭ for B; A♯–C♯–E–G puts C♯ third,
+ * not root). Common practice (Hutchinson, "Secondary dominant chords": vii°7/x is built on x's
+ * leading tone). True when the spelling is unknown (fewer than two notes).
+ */
+export function spelledAsRoot(spelled: ReadonlySet<number>, lof: number): boolean {
+  if (spelled.size < 2) return true;
+  for (const l of spelled) if (![0, -3, -6, -9].includes(l - lof)) return false;
+  return true;
 }
 
 export type Support = "dominant" | "leading-tone chord" | "against" | "unknown";
@@ -146,6 +161,13 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
   const harmonyOf = ctx.harmonyAt ?? chordAt;
   const C = TENSION_CONFIDENCE;
   const out: TensionFinding[] = [];
+  // The harmony's verdict on a note as the leading tone of the note a half step up; a diminished
+  // seventh chord spelled on another root speaks against it.
+  const spelledSupport = (harmony: Set<number>, n: MelodyNote): Support => {
+    const support = dominantSupport(harmony, mod(n.midi + 1, 12));
+    if (support !== "leading-tone chord" || !ctx.spelledAt) return support;
+    return spelledAsRoot(ctx.spelledAt(n), n.lof) ? support : "against";
+  };
   for (let i = 0; i < seq.length; i++) {
     const n = seq[i];
     const key = keyAt(n);
@@ -173,7 +195,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
       const tonic = displayName(key.tonicLof);
       if (res) {
         const how = res.direct ? "it rises a half step to" : "after a short ornament it rises a half step to";
-        const support = dominantSupport(harmonyOf(n), mod(n.midi + 1, 12));
+        const support = spelledSupport(harmonyOf(n), n);
         const base = res.direct ? C.leadingToneResolved : C.leadingToneOrnamented;
         if (support === "unknown") push("leading-tone", base, res.index, `${name} is ${what} of ${kname}; ${how} ${step(seq[res.index])}.`);
         else if (support === "against") push("leading-tone", C.noDominantSupport, res.index, `${name} in ${bar(n)} is ${what} of ${kname}, but the harmony under it is no dominant of ${tonic}: a passing note more than a leading tone; ${how} ${step(seq[res.index])}.`);
@@ -197,7 +219,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
     // the added seventh is what makes I into V7/IV).
     const harmony = harmonyOf(n);
     const tonicAsDominant = key.mode === "major" && mod(n.midi + 1 - 5, 12) === pcOfLof(key.tonicLof) && !harmony.has(mod(n.midi + 1 + 5, 12));
-    if (risesHalfStep && (inf === 0 || raisedSixth) && next && !tonicAsDominant && namesTarget(harmony, mod(next.midi, 12))) {
+    if (risesHalfStep && (inf === 0 || raisedSixth) && next && !tonicAsDominant && namesTarget(harmony, mod(next.midi, 12)) && spelledSupport(harmony, n) !== "against") {
       const t = displayName(next.lof);
       push("applied-leading-tone", C.appliedLeadingTone, i + 1, `${name} in ${bar(n)}, ${what} of ${kname}, is the leading tone of ${t} here: the other parts sound the dominant of ${t}, and it rises a half step to ${step(next)}.`);
       continue;
@@ -231,7 +253,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
       const target = n.lof - 5;
       if (next && next.midi === n.midi + 1 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9) {
         const t = displayName(target);
-        const support = dominantSupport(harmonyOf(n), mod(n.midi + 1, 12));
+        const support = spelledSupport(harmonyOf(n), n);
         if (support === "unknown") push("raised", C.raisedResolved, i + 1, `${name} is ${what} in ${kname}, a leading tone to ${t}; it rises a half step to ${step(next)}.`);
         else if (support === "against") push("raised", C.noDominantSupport, i + 1, `${name} in ${bar(n)} is ${what} in ${kname}, but the harmony under it is no dominant of ${t}: a chromatic passing note more than a leading tone to ${t}; it rises a half step to ${step(next)}.`);
         else push("raised", C.raisedResolved + C.dominantSupport, i + 1, `${name} leads to ${t} under the ${support} of ${t} (${bar(n)}, ${kname}): ${what}, a leading tone to ${t}; it rises a half step to ${step(next)}.`);
