@@ -56,6 +56,9 @@ describe("naming chords and fitting them to keys (common practice)", () => {
     expect(dominantSupport(new Set([0, 9, 3, 6]), G)).toBe("leading-tone chord"); // F♯°7 = F♯ A C E♭
     expect(dominantSupport(new Set([7, 11, 2]), G)).toBe("against"); // G itself sounds
     expect(dominantSupport(new Set([2]), G)).toBe("unknown");
+    // One note outside D9 and F♯°7 (C♯, the raised fourth of G) already rules them out.
+    expect(dominantSupport(new Set([1]), G)).toBe("against");
+    expect(dominantSupport(new Set([11]), G)).toBe("against"); // B, G's third
     // Two notes of F♯°7 (C and E♭ over the melody's F♯) already spell the diminished seventh.
     expect(dominantSupport(new Set([0, 3]), G)).toBe("leading-tone chord");
     // source: Aldwell & Schachter, Harmony and Voice Leading, "V9" (from memory): D–E under F♯ is D9's root and ninth …

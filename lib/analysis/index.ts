@@ -89,10 +89,13 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
     seq: main,
     keyAt,
     chordAt: (n) => (accompaniment.empty ? noChord : accompaniment.soundingAt(n.measureIndex, n.pos)),
-    // Figuration (one note at a time under the melody) shows its chord over the beat.
+    // Figuration (one note at a time under the melody) shows its chord over the beat; where the
+    // beat shows none, the one note sounding still counts.
     harmonyAt: (n) => {
       const now = accompaniment.empty ? noChord : accompaniment.soundingAt(n.measureIndex, n.pos);
-      return now.size >= 2 ? now : harmonyAt(bars, n.measureIndex, n.onset);
+      if (now.size >= 2) return now;
+      const beat = harmonyAt(bars, n.measureIndex, n.onset);
+      return beat.size > 0 ? beat : now;
     },
     spelledAt: (n) => (accompaniment.empty ? noChord : accompaniment.spelledAt(n.measureIndex, n.pos)),
     bar,

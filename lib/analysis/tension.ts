@@ -93,12 +93,18 @@ export type Support = "dominant" | "leading-tone chord" | "against" | "unknown";
  * the target (root t+7, with its fifth t+2, seventh t+5 or ninth t+8) or vii°(7) (third t+2 and
  * fifth t+5, seventh t+8) — and nothing else (one passing note allowed among four pitch classes or
  * more): the target itself, its third or sixth against the note make it a passing note over
- * another chord. Unknown with fewer than two notes.
+ * another chord. One note alone is unknown, unless it lies outside V9 and vii°7 of the target
+ * (its third, its raised fourth, its lowered second or seventh): then against.
  * Source: Open Music Theory v1, "Applied chords"; Hutchinson, "Secondary dominant chords".
  */
 export function dominantSupport(chord: ReadonlySet<number>, targetPc: number): Support {
-  if (chord.size < 2) return "unknown";
   const has = (iv: number) => chord.has(mod(targetPc + iv, 12));
+  if (chord.size === 1) {
+    // One note alone names no chord, but one outside V9 and vii°7 of the target rules them out.
+    const [pc] = chord;
+    return [0, 7, 11, 2, 5, 8, 9].includes(mod(pc - targetPc, 12)) ? "unknown" : "against";
+  }
+  if (chord.size < 2) return "unknown";
   if (has(0)) return "against";
   // In a fuller sonority (four pitch classes or more) one other note may be passing.
   let foreign = 0;
