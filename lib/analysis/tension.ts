@@ -149,6 +149,9 @@ function findResolution(seq: readonly MelodyNote[], i: number, targetMidi: numbe
     if (n.pos - t.end > RESOLUTION_WINDOW.maxSpan + 1e-9) return null;
     if (n.midi === targetMidi) return { index: j, direct: false };
     if (Math.abs(n.midi - t.midi) > 2 || n.dur > t.dur + 1e-9) return null;
+    // The same letter with another accidental (A♯ then A♮) cancels the tension tone: the harmony
+    // has moved on, and what follows resolves nothing.
+    if (n.step === t.step && n.lof !== t.lof) return null;
   }
   return null;
 }
