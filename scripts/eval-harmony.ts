@@ -128,7 +128,7 @@ function ondulaKeys(score: ScoreModel, options: AnalyzeOptions = {}): { keys: Ar
   }
   const leadingTones = new Set<string>();
   for (const s of a.suggestions) {
-    if (s.role === "tension" && s.confidence >= 0.5 && s.resolvesTo !== null && (s.kind === "leading-tone" || s.kind === "raised")) leadingTones.add(s.note);
+    if (s.role === "tension" && s.confidence >= 0.5 && s.resolvesTo !== null && (s.kind === "leading-tone" || s.kind === "raised" || s.kind === "applied-leading-tone")) leadingTones.add(s.note);
   }
   return { keys, leadingTones };
 }
@@ -158,6 +158,14 @@ export function evaluatePiece(piece: PieceInput, trace?: (line: string) => void,
   if (trace) {
     trace(`${piece.name}  expert: ${gold.map(show).join(" ")}`);
     trace(`${" ".repeat(piece.name.length)}  Ondula: ${gold.map((_, i) => show(ondula.keys[i])).join(" ")}`);
+    // Every leading tone the two disagree on, with its bar and the expert's beat and chord.
+    for (const n of melody) {
+      const said = ondula.leadingTones.has(n.note.key);
+      if (said === goldLt.has(n.note.key)) continue;
+      const m = measureNo(n);
+      const beat = beatOf(rt, m, n.onset);
+      trace(`  ${said ? "extra" : "missed"} leading tone ${n.note.pitch?.name ?? "?"} bar ${m} beat ${Number(beat.toFixed(3))} (expert ${chordAt(rt, m, beat)?.figure ?? "-"}, Ondula ${show(ondula.keys[n.measureIndex])})`);
+    }
   }
   const out = {} as Record<Method, MethodCounts>;
   for (const method of METHODS) {

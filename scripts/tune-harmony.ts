@@ -20,6 +20,7 @@ const GRID: Record<keyof LocalKeyParams, number[]> = {
   requireEvidence: [0, 1],
   foreignWeight: [0, 0.2, 0.5, 1, 2, 4],
   startAtCadence: [0, 1, 2, 4, 8],
+  closingAtCadence: [0, 1],
   presenceWeight: [0, 0.02, 0.05, 0.1, 0.2, 0.4],
 };
 

@@ -173,7 +173,9 @@ function addBassCadences(sounding: Sounding[], mark: Mark, chord: (pos: number, 
       if ((rootPosition || firstInversion) && !has(prev.pcs, tonic + 10) && !has(cur.pcs, tonic + 11)) {
         const major = has(cur.pcs, tonic + 4);
         const minor = has(cur.pcs, tonic + 3);
-        if (major || !minor) mark(t, tonic, CADENCE_WEIGHT.bassCadence);
+        // A major chord with its minor seventh is itself a dominant (V7/IV), no tonic arriving.
+        const dominantSeventh = major && has(cur.pcs, tonic + 10);
+        if ((major || !minor) && !dominantSeventh) mark(t, tonic, CADENCE_WEIGHT.bassCadence);
         if (minor || !major) mark(t, 12 + tonic, CADENCE_WEIGHT.bassCadence);
       }
     }

@@ -8,7 +8,7 @@ import { barName, writtenBars } from "@/lib/musicxml/bar-names";
 import type { AnalyzedNote, LocalKey, PartAnalysis, ScoreAnalysis, Suggestion } from "./types";
 import { degreeOf } from "./degree";
 import { type Key, keyFromSignature, majorOf, toKeyResult } from "./key";
-import { type KeySection, type LocalKeyParams, type LocalKeySpan, keySections, localKeysOf } from "./local-keys";
+import { type KeySection, type LocalKeyParams, type LocalKeySpan, keySections, localKeysOf, settleMode } from "./local-keys";
 import { barEvidence, harmonyAt } from "./bar-evidence";
 import { toString as fracString } from "@/lib/musicxml/fraction";
 import { Accompaniment, buildTimeline, extractMelody, type MelodyNote } from "./melody";
@@ -18,7 +18,7 @@ import { phraseSuggestions, rankByPhrase, tensionSuggestions } from "./suggestio
 import { findTensions } from "./tension";
 
 /** Bump whenever results change: stored analyses with another version are recomputed. */
-export const ANALYSIS_VERSION = 4;
+export const ANALYSIS_VERSION = 5;
 
 export interface AnalyzeOptions {
   /** For a staff carrying two players: whose line is analysed (the upper by default). */
@@ -39,6 +39,7 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
   const main = melody.filter((n) => !n.grace);
   const sections: KeySection[] = part.measures.length > 0 ? keySections(part.measures, melody) : [];
   const bars = barEvidence(score, part, timeline, melody);
+  for (const [i, s] of sections.entries()) sections[i] = settleMode(s, bars, options.localKey);
   const spans: LocalKeySpan[] = sections.flatMap((s) => localKeysOf(s, bars, options.localKey));
 
   const keyAtMeasure: Key[] = part.measures.map(() => majorOf(0));
@@ -88,11 +89,15 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
     seq: main,
     keyAt,
     chordAt: (n) => (accompaniment.empty ? noChord : accompaniment.soundingAt(n.measureIndex, n.pos)),
-    // Figuration (one note at a time under the melody) shows its chord over the beat.
+    // Figuration (one note at a time under the melody) shows its chord over the beat; where the
+    // beat shows none, the one note sounding still counts.
     harmonyAt: (n) => {
       const now = accompaniment.empty ? noChord : accompaniment.soundingAt(n.measureIndex, n.pos);
-      return now.size >= 2 ? now : harmonyAt(bars, n.measureIndex, n.onset);
+      if (now.size >= 2) return now;
+      const beat = harmonyAt(bars, n.measureIndex, n.onset);
+      return beat.size > 0 ? beat : now;
     },
+    spelledAt: (n) => (accompaniment.empty ? noChord : accompaniment.spelledAt(n.measureIndex, n.pos)),
     bar,
   });
   const keyStarts = new Set(sections.slice(1).map((s) => s.fromIndex));

@@ -43,11 +43,14 @@ export interface LocalKeySpan {
  * Besides the correlation: `presenceWeight` × log P(the beat's pitch-class set | key) (Temperley
  * 2007), `foreignWeight` × the share of the window's time outside the key's scale
  * (Longuet-Higgins & Steedman 1971), `chordWeight` × the chord's fit. `startAtCadence`: a new key
- * starts at its tonic's arrival from its dominant when that comes within so many bars (0 = off).
+ * starts at its tonic's arrival from its dominant when that comes within so many bars (0 = off);
+ * `closingAtCadence` 1: a new key that ends the section starts at that arrival however far it is
+ * (common practice in textbook analyses: the chords before the final cadence are applied chords of
+ * the old key). A run in the relative key needs a cadence or `minMeasures` bars (see below).
  * `requireEvidence` 1 asks a foreign note of harmonised spans too (off: the tuning rejected it).
  * The values were set by scripts/tune-harmony.ts on the tuning half of tests/fixtures/harmony.
  */
-export const LOCAL_KEY = { windowMeasures: 2, margin: 0.6, homeBonus: 0.1, neighbourWeight: 0.35, minMeasures: 3, openingChord: 0.3, chordWeight: 1, presenceWeight: 0.2, startAtCadence: 2, requireEvidence: 0, foreignWeight: 1 } as const;
+export const LOCAL_KEY = { windowMeasures: 2, margin: 0.6, homeBonus: 0.1, neighbourWeight: 0.35, minMeasures: 3, openingChord: 0.3, chordWeight: 1, presenceWeight: 0.2, startAtCadence: 2, requireEvidence: 0, foreignWeight: 1, closingAtCadence: 1 } as const;
 
 export type LocalKeyParams = { [K in keyof typeof LOCAL_KEY]: number };
 
@@ -139,6 +142,19 @@ function foreignShares(hist: ArrayLike<number>, out: Float64Array): void {
   }
 }
 
+/**
+ * Where the file gives no mode, the guess (keySections) and its relative key share the notes of
+ * one signature and stand alike in the reading; the one the section opens in is its key (common
+ * practice: music opens on its tonic chord). The relative key's bars then read as a local key.
+ */
+export function settleMode(section: KeySection, bars: readonly BarEvidence[], params: LocalKeyParams = LOCAL_KEY): KeySection {
+  if (section.source !== "inferred") return section;
+  const relative: Key = section.key.mode === "major" ? { tonicLof: section.key.tonicLof + 3, mode: "minor" } : { tonicLof: section.key.tonicLof - 3, mode: "major" };
+  const first = localKeysOf(section, bars, params)[0];
+  const opensRelative = first !== undefined && first.fromIndex === section.fromIndex && keyIndexOf(first.key) === keyIndexOf(relative);
+  return opensRelative ? { ...section, key: relative } : section;
+}
+
 /** Key index 0–11 = major on that pitch class, 12–23 = minor. */
 const keyIndexOf = (k: Key) => (k.mode === "major" ? 0 : 12) + pcOfLof(k.tonicLof);
 
@@ -147,7 +163,7 @@ const keyIndexOf = (k: Key) => (k.mode === "major" ? 0 : 12) + pcOfLof(k.tonicLo
  * home of the path: bars that fit it as well as another key stay in it.
  */
 export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], params: LocalKeyParams = LOCAL_KEY): LocalKeySpan[] {
-  const { windowMeasures, margin, homeBonus, neighbourWeight, minMeasures, openingChord, chordWeight, presenceWeight, startAtCadence, requireEvidence, foreignWeight } = params;
+  const { windowMeasures, margin, homeBonus, neighbourWeight, minMeasures, openingChord, chordWeight, presenceWeight, startAtCadence, requireEvidence, foreignWeight, closingAtCadence } = params;
   const n = section.toIndex - section.fromIndex + 1;
   if (n < 1) return [];
   const home = keyIndexOf(section.key);
@@ -233,10 +249,28 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], p
       if (segPath[s] !== segPath[s - 1]) {
         let arrival = -1;
         for (let t = s; t <= e && arrival < 0; t++) if ((segs[t].cadence.get(segPath[s]) ?? 0) >= CADENCE_WEIGHT.bassCadence) arrival = t;
-        if (arrival > s && arrival - s <= startAtCadence * (m / n)) for (let t = s; t < arrival; t++) segPath[t] = segPath[s - 1];
+        const closing = e === m - 1 && segPath[s] !== home && closingAtCadence > 0;
+        if (arrival > s && (closing || arrival - s <= startAtCadence * (m / n))) for (let t = s; t < arrival; t++) segPath[t] = segPath[s - 1];
       }
       s = e + 1;
     }
+  }
+  // The relative key shares every note of the key's scale: pitch content cannot tell a tonicized
+  // vi (or III) from a modulation, a cadence can. A run in the relative key of the key before it,
+  // shorter than `minMeasures` with no arrival on its tonic from its dominant, stays in that key
+  // (common practice: a tonicization is written as applied chords, V/vi – vi).
+  for (let s = 1; s < m; ) {
+    let e = s;
+    while (e + 1 < m && segPath[e + 1] === segPath[s]) e++;
+    const before = segPath[s - 1];
+    const k = segPath[s];
+    const relative = before < 12 ? k === 12 + ((before + 9) % 12) : k === (before + 3) % 12;
+    if (relative && k !== home && e - s + 1 < minMeasures * (m / n)) {
+      let arrival = false;
+      for (let t = s; t <= e && !arrival; t++) if ((segs[t].cadence.get(k) ?? 0) >= CADENCE_WEIGHT.bassCadence) arrival = true;
+      if (!arrival) for (let t = s; t <= e; t++) segPath[t] = before;
+    }
+    s = e + 1;
   }
   // A bar's key: the key of most of its beats (ties go to the downbeat's).
   const path = new Array<number>(n);

@@ -167,7 +167,7 @@ export function extractMelody(part: PartModel, timeline: Timeline, line?: PartMo
  * Bucketed by measure for speed.
  */
 export class Accompaniment {
-  private buckets = new Map<number, Array<{ pos: number; end: number; pc: number }>>();
+  private buckets = new Map<number, Array<{ pos: number; end: number; pc: number; lof: number }>>();
 
   constructor(score: ScoreModel, part: PartModel, timeline: Timeline, melody: readonly MelodyNote[] = []) {
     // This part's own notes count only when it has some outside the melody line.
@@ -183,7 +183,7 @@ export class Accompaniment {
         if (start === undefined) continue;
         const pos = start + frac(n.onset);
         const list = this.buckets.get(n.measureIndex) ?? [];
-        list.push({ pos, end: pos + frac(n.duration), pc: ((n.pitch.midi % 12) + 12) % 12 });
+        list.push({ pos, end: pos + frac(n.duration), pc: ((n.pitch.midi % 12) + 12) % 12, lof: lofOf(n.pitch.step, n.pitch.alter) });
         this.buckets.set(n.measureIndex, list);
       }
     }
@@ -198,6 +198,15 @@ export class Accompaniment {
     const out = new Set<number>();
     for (let i = measureIndex; i >= Math.max(0, measureIndex - 2); i--) {
       for (const e of this.buckets.get(i) ?? []) if (e.pos <= pos + 1e-9 && e.end > pos + 1e-9) out.add(e.pc);
+    }
+    return out;
+  }
+
+  /** The same notes as `soundingAt`, spelled (line of fifths): E♭ and D♯ apart. */
+  spelledAt(measureIndex: number, pos: number): Set<number> {
+    const out = new Set<number>();
+    for (let i = measureIndex; i >= Math.max(0, measureIndex - 2); i--) {
+      for (const e of this.buckets.get(i) ?? []) if (e.pos <= pos + 1e-9 && e.end > pos + 1e-9) out.add(e.lof);
     }
     return out;
   }

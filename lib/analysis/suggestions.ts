@@ -30,6 +30,7 @@ const KIND_TEXT: Record<TensionKind, string> = {
   "lowered-sixth": "lowered sixth",
   "fourth-to-minor-third": "fourth degree",
   raised: "raised note",
+  "applied-leading-tone": "leading tone",
   lowered: "lowered note",
   appoggiatura: "accented dissonance",
 };

@@ -47,6 +47,16 @@ describe("leading tones (Open Music Theory; Hutchinson)", () => {
     expect(b.reason).toContain("bar 1");
     expect(b.reason).toContain("C major");
   });
+
+  it("lets a short turn delay the resolution, but not one through the same letter inflected (B, B♭, C)", () => {
+    // common practice: an ornament decorates the leading tone before it rises; its own chromatic
+    // inflection (B♮ → B♭) cancels the leading tone — Hutchinson §3.3, the leading tone is the
+    // note a half step below the tonic, and B♭ is the subtonic.
+    const turned = analyze("E5:q D5:q B4:q A4:e C5:e | C5:w |]", 0);
+    expect(pitchOf(turned, find(turned, "B4").resolvesTo)).toBe("C5");
+    const inflected = analyze("E5:q D5:q B4:q Bb4:e C5:e | C5:w |]", 0);
+    expect(find(inflected, "B4").resolvesTo).toBeNull();
+  });
 });
 
 describe("other tendency tones", () => {

@@ -7,7 +7,7 @@
 import { degreeOf, describeDegree, displayKey, inflectionOf, leadingToneLof } from "./degree";
 import type { Key } from "./key";
 import type { MelodyNote } from "./melody";
-import { displayName, mod } from "./spelling";
+import { displayName, mod, pcOfLof } from "./spelling";
 
 import type { TensionKind } from "./types";
 
@@ -40,6 +40,8 @@ export const TENSION_CONFIDENCE = {
   fourthToMinorThird: 0.45,
   raisedResolved: 0.85,
   raisedLeft: 0.4,
+  /** A note of the key rising a half step over a full V or vii° of its target (applied dominant). */
+  appliedLeadingTone: 0.85,
   loweredResolved: 0.8,
   loweredLeft: 0.4,
   appoggiatura: 0.4,
@@ -66,7 +68,22 @@ export interface TensionContext {
   /** The harmony under a note for judging a leading tone: what sounds at its onset, or over its
    * beat when only one other note sounds (figuration). Defaults to `chordAt`. */
   harmonyAt?: (n: MelodyNote) => Set<number>;
+  /** The other parts' notes sounding at a note's onset, spelled (line of fifths); optional. */
+  spelledAt?: (n: MelodyNote) => Set<number>;
   bar: (n: MelodyNote) => string;
+}
+
+/**
+ * A diminished seventh chord sounds the same from any of its four notes; its spelling names the
+ * root. A note is the leading tone under it only when the other notes are spelled a minor third,
+ * a diminished fifth and a diminished seventh above it (B–D–F–A♭ for B; A♯–C♯–E–G puts C♯ third,
+ * not root). Common practice (Hutchinson, "Secondary dominant chords": vii°7/x is built on x's
+ * leading tone). True when the spelling is unknown (fewer than two notes).
+ */
+export function spelledAsRoot(spelled: ReadonlySet<number>, lof: number): boolean {
+  if (spelled.size < 2) return true;
+  for (const l of spelled) if (![0, -3, -6, -9].includes(l - lof)) return false;
+  return true;
 }
 
 export type Support = "dominant" | "leading-tone chord" | "against" | "unknown";
@@ -76,20 +93,45 @@ export type Support = "dominant" | "leading-tone chord" | "against" | "unknown";
  * the target (root t+7, with its fifth t+2, seventh t+5 or ninth t+8) or vii°(7) (third t+2 and
  * fifth t+5, seventh t+8) — and nothing else (one passing note allowed among four pitch classes or
  * more): the target itself, its third or sixth against the note make it a passing note over
- * another chord. Unknown with fewer than two notes.
+ * another chord. One note alone is unknown, unless it lies outside V9 and vii°7 of the target
+ * (its third, its raised fourth, its lowered second or seventh): then against.
  * Source: Open Music Theory v1, "Applied chords"; Hutchinson, "Secondary dominant chords".
  */
 export function dominantSupport(chord: ReadonlySet<number>, targetPc: number): Support {
-  if (chord.size < 2) return "unknown";
   const has = (iv: number) => chord.has(mod(targetPc + iv, 12));
+  if (chord.size === 1) {
+    // One note alone names no chord, but one outside V9 and vii°7 of the target rules them out.
+    const [pc] = chord;
+    return [0, 7, 11, 2, 5, 8, 9].includes(mod(pc - targetPc, 12)) ? "unknown" : "against";
+  }
+  if (chord.size < 2) return "unknown";
   if (has(0)) return "against";
   // In a fuller sonority (four pitch classes or more) one other note may be passing.
   let foreign = 0;
-  for (const pc of chord) if (![7, 11, 2, 5, 8].includes(mod(pc - targetPc, 12))) foreign++;
+  // With the dominant's root sounding, its major ninth (the target's sixth) belongs too: V9
+  // (Aldwell & Schachter, Harmony and Voice Leading, "V9"; from memory).
+  for (const pc of chord) {
+    const iv = mod(pc - targetPc, 12);
+    if (![7, 11, 2, 5, 8].includes(iv) && !(iv === 9 && has(7))) foreign++;
+  }
   if (foreign > (chord.size >= 4 ? 1 : 0)) return "against";
   if (has(7)) return "dominant";
-  if (has(2) && has(5)) return "leading-tone chord";
+  // Any two of vii°7's upper notes (2, 4, ♭6 of the target) with the leading tone spell it.
+  if (Number(has(2)) + Number(has(5)) + Number(has(8)) >= 2) return "leading-tone chord";
   return "against";
+}
+
+/**
+ * A chord that names its target on its own, without the key's help: V with its root and its fifth
+ * or seventh (t+7 with t+2 or t+5), or two notes of vii°7 (t+2, t+5, t+8). Used for notes of the
+ * key that the key alone would not call leading tones (B rising to C in A minor over G–D).
+ * Source: Open Music Theory v1, "Applied chords"; Hutchinson, "Secondary dominant chords".
+ */
+export function namesTarget(chord: ReadonlySet<number>, targetPc: number): boolean {
+  const support = dominantSupport(chord, targetPc);
+  const has = (iv: number) => chord.has(mod(targetPc + iv, 12));
+  if (support === "dominant") return has(2) || has(5);
+  return support === "leading-tone chord";
 }
 
 const clamp = (v: number) => Math.max(0.05, Math.min(0.98, Math.round(v * 100) / 100));
@@ -107,6 +149,9 @@ function findResolution(seq: readonly MelodyNote[], i: number, targetMidi: numbe
     if (n.pos - t.end > RESOLUTION_WINDOW.maxSpan + 1e-9) return null;
     if (n.midi === targetMidi) return { index: j, direct: false };
     if (Math.abs(n.midi - t.midi) > 2 || n.dur > t.dur + 1e-9) return null;
+    // The same letter with another accidental (A♯ then A♮) cancels the tension tone: the harmony
+    // has moved on, and what follows resolves nothing.
+    if (n.step === t.step && n.lof !== t.lof) return null;
   }
   return null;
 }
@@ -125,6 +170,13 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
   const harmonyOf = ctx.harmonyAt ?? chordAt;
   const C = TENSION_CONFIDENCE;
   const out: TensionFinding[] = [];
+  // The harmony's verdict on a note as the leading tone of the note a half step up; a diminished
+  // seventh chord spelled on another root speaks against it.
+  const spelledSupport = (harmony: Set<number>, n: MelodyNote): Support => {
+    const support = dominantSupport(harmony, mod(n.midi + 1, 12));
+    if (support !== "leading-tone chord" || !ctx.spelledAt) return support;
+    return spelledAsRoot(ctx.spelledAt(n), n.lof) ? support : "against";
+  };
   for (let i = 0; i < seq.length; i++) {
     const n = seq[i];
     const key = keyAt(n);
@@ -133,7 +185,8 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
     const off = n.lof - key.tonicLof;
     const inf = inflectionOf(n.lof, key);
     // Most notes are no tension tone: only the rules' candidates go on.
-    const candidate = off === 5 || off === -1 || (key.mode === "minor" && off === -4) || inf !== 0 || (prev && next && n.metric >= 2);
+    const risesHalfStep = !!next && next.midi === n.midi + 1 && next.lof === n.lof - 5 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9;
+    const candidate = off === 5 || off === -1 || (key.mode === "minor" && off === -4) || inf !== 0 || (prev && next && n.metric >= 2) || risesHalfStep;
     if (!candidate) continue;
     const name = displayName(n.lof);
     const kname = displayKey(key);
@@ -151,7 +204,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
       const tonic = displayName(key.tonicLof);
       if (res) {
         const how = res.direct ? "it rises a half step to" : "after a short ornament it rises a half step to";
-        const support = dominantSupport(harmonyOf(n), mod(n.midi + 1, 12));
+        const support = spelledSupport(harmonyOf(n), n);
         const base = res.direct ? C.leadingToneResolved : C.leadingToneOrnamented;
         if (support === "unknown") push("leading-tone", base, res.index, `${name} is ${what} of ${kname}; ${how} ${step(seq[res.index])}.`);
         else if (support === "against") push("leading-tone", C.noDominantSupport, res.index, `${name} in ${bar(n)} is ${what} of ${kname}, but the harmony under it is no dominant of ${tonic}: a passing note more than a leading tone; ${how} ${step(seq[res.index])}.`);
@@ -165,6 +218,19 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
           `${name} in ${bar(n)} is ${what} of ${kname}, but it does not resolve: ${motion(n, next)} instead of rising to ${tonic}.`,
         );
       }
+      continue;
+    }
+
+    // Applied dominants: a note of the key (or minor's raised sixth) rising a half step over the
+    // other parts' V or vii° of the note it rises to is that note's leading tone (V/x, vii°/x).
+    const raisedSixth = key.mode === "minor" && off === 3;
+    // In major the tonic triad is also V of IV: without its seventh it stays I (common practice:
+    // the added seventh is what makes I into V7/IV).
+    const harmony = harmonyOf(n);
+    const tonicAsDominant = key.mode === "major" && mod(n.midi + 1 - 5, 12) === pcOfLof(key.tonicLof) && !harmony.has(mod(n.midi + 1 + 5, 12));
+    if (risesHalfStep && (inf === 0 || raisedSixth) && next && !tonicAsDominant && namesTarget(harmony, mod(next.midi, 12)) && spelledSupport(harmony, n) !== "against") {
+      const t = displayName(next.lof);
+      push("applied-leading-tone", C.appliedLeadingTone, i + 1, `${name} in ${bar(n)}, ${what} of ${kname}, is the leading tone of ${t} here: the other parts sound the dominant of ${t}, and it rises a half step to ${step(next)}.`);
       continue;
     }
 
@@ -196,7 +262,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
       const target = n.lof - 5;
       if (next && next.midi === n.midi + 1 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9) {
         const t = displayName(target);
-        const support = dominantSupport(harmonyOf(n), mod(n.midi + 1, 12));
+        const support = spelledSupport(harmonyOf(n), n);
         if (support === "unknown") push("raised", C.raisedResolved, i + 1, `${name} is ${what} in ${kname}, a leading tone to ${t}; it rises a half step to ${step(next)}.`);
         else if (support === "against") push("raised", C.noDominantSupport, i + 1, `${name} in ${bar(n)} is ${what} in ${kname}, but the harmony under it is no dominant of ${t}: a chromatic passing note more than a leading tone to ${t}; it rises a half step to ${step(next)}.`);
         else push("raised", C.raisedResolved + C.dominantSupport, i + 1, `${name} leads to ${t} under the ${support} of ${t} (${bar(n)}, ${kname}): ${what}, a leading tone to ${t}; it rises a half step to ${step(next)}.`);

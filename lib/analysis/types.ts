@@ -10,6 +10,7 @@ export type TensionKind =
   | "lowered-sixth"
   | "fourth-to-minor-third"
   | "raised"
+  | "applied-leading-tone"
   | "lowered"
   | "appoggiatura";
 
@@ -66,7 +67,9 @@ export interface Suggestion {
    * itself stays in time order. Always set by this version. */
   rank?: number;
   /** For a tension tone, which rule found it: "leading-tone" (of the local key), "raised" (a
-   * chromatic note leading up, e.g. the leading tone of an applied dominant), "fourth-to-third"… */
+   * chromatic note leading up, e.g. the leading tone of an applied dominant),
+   * "applied-leading-tone" (a note of the key rising a half step over the other parts' V or vii°
+   * of the note it rises to), "fourth-to-third"… */
   kind?: TensionKind;
 }
 
