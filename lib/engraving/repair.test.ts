@@ -75,6 +75,36 @@ describe("harmonies that spell themselves", () => {
   });
 });
 
+describe("a tempo written as words and a metronome mark", () => {
+  const dir = (inner: string) => `<measure number="1"><direction placement="above">${inner}<sound tempo="72"/></direction></measure>`;
+  const words = (t: string) => `<direction-type><words>${t}</words></direction-type>`;
+  const metronome = (inner: string) => `<direction-type><metronome>${inner}</metronome></direction-type>`;
+
+  it("joins the mark to the words, one direction, nothing else touched (ours: the cadenza's opening)", () => {
+    const xml = part("ours/cadenza-long-bar.musicxml");
+    const mended = mendForEngraving(xml);
+    expect(mended).toContain("<words>Andante ♩ = 72</words>");
+    expect(mended).not.toContain("<metronome");
+    expect(keysOf(mended)).toEqual(keysOf(xml));
+  });
+
+  it("writes a dotted beat with its dot, and a real edition's tempo too (Mozart K. 331: Andante grazioso, eighth = 120)", () => {
+    expect(mendForEngraving(dir(words("Allegro") + metronome("<beat-unit>quarter</beat-unit><beat-unit-dot/><per-minute>96</per-minute>")))).toBe(
+      dir("<direction-type><words>Allegro ♩. = 96</words></direction-type>"),
+    );
+    expect(mendForEngraving(part("when-in-rome/piano-sonatas/mozart-k331-1.mxl"))).toMatch(/>Andante grazioso ♪ = 120<\/words>/);
+  });
+
+  it("leaves a mark alone without words, and a metric modulation or a half-note beat as written", () => {
+    const alone = dir(metronome("<beat-unit>quarter</beat-unit><per-minute>60</per-minute>"));
+    expect(mendForEngraving(alone)).toBe(alone);
+    const modulation = dir(words("Più mosso") + metronome("<beat-unit>quarter</beat-unit><beat-unit>eighth</beat-unit>"));
+    expect(mendForEngraving(modulation)).toBe(modulation);
+    const half = dir(words("Alla breve") + metronome("<beat-unit>half</beat-unit><per-minute>60</per-minute>"));
+    expect(mendForEngraving(half)).toBe(half);
+  });
+});
+
 describe("bars drawn as rests", () => {
   const xml = mendForEngraving(part("music21/haydn/opus74no1/movement4.mxl"));
 

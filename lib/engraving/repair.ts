@@ -134,9 +134,38 @@ function spellHarmonies(xml: string): string {
   });
 }
 
+const NOTE_SIGNS: Record<string, string> = { quarter: "♩", eighth: "♪" };
+
+/**
+ * A tempo written as words and a metronome mark in one direction ("Andante ♩ = 72", the way
+ * notation programs export a tempo text) is drawn by OpenSheetMusicDisplay 2.1.3 with both at the
+ * same spot, one over the other. The mark is handed over as part of the words instead. Only the
+ * plain forms (a quarter or eighth, dotted or not, per minute) are joined; others stay as written.
+ */
+function joinTempoWords(xml: string): string {
+  if (!xml.includes("<metronome")) return xml;
+  return xml.replace(/<direction\b[^>]*>[\s\S]*?<\/direction>/g, (direction) => {
+    if (!direction.includes("<metronome") || !direction.includes("<words")) return direction;
+    const metronomeType = /<direction-type>\s*(<metronome\b[^>]*>([\s\S]*?)<\/metronome>)\s*<\/direction-type>/.exec(direction);
+    if (!metronomeType) return direction;
+    const body = metronomeType[2];
+    const units = [...body.matchAll(/<beat-unit>\s*([a-z0-9]+)\s*<\/beat-unit>/g)].map((m) => m[1]);
+    const perMinute = /<per-minute>\s*([^<]*?)\s*<\/per-minute>/.exec(body)?.[1];
+    if (units.length !== 1 || !NOTE_SIGNS[units[0]] || !perMinute) return direction;
+    const dots = ".".repeat((body.match(/<beat-unit-dot\b/g) ?? []).length);
+    const mark = `${NOTE_SIGNS[units[0]]}${dots} = ${perMinute}`;
+    const words = [...direction.matchAll(/<words\b[^>]*>([^<]*)<\/words>/g)];
+    const last = words[words.length - 1];
+    if (!last || last.index === undefined) return direction;
+    const closeAt = last.index + last[0].length - "</words>".length;
+    const joined = `${direction.slice(0, closeAt).replace(/\s+$/, "")} ${mark}${direction.slice(closeAt)}`;
+    return joined.replace(metronomeType[0], "");
+  });
+}
+
 /** The known mends, always applied: they change how a note looks, never which notes there are. */
 export function mendForEngraving(xml: string): string {
-  return spellHarmonies(pairWavyLines(typeGraceNotes(xml)));
+  return joinTempoWords(spellHarmonies(pairWavyLines(typeGraceNotes(xml))));
 }
 
 /** A measure's length in its divisions: the furthest any voice reaches. */

@@ -99,6 +99,27 @@ describe("the real corpus engraves", () => {
     }
   }, 600_000);
 
+  it("draws a tempo's words and metronome mark side by side, not one over the other (ours: the cadenza)", async () => {
+    const file = "ours/cadenza-long-bar.musicxml";
+    const page = await context.newPage();
+    try {
+      const result = await engravePart(page, file, "P1");
+      expect(result.status).toBe("ready");
+      const boxes = await page.locator("[data-score-status] svg text").evaluateAll((els) =>
+        els.map((e) => {
+          const r = e.getBoundingClientRect();
+          return { text: e.textContent ?? "", left: r.left, right: r.right, top: r.top, bottom: r.bottom };
+        }),
+      );
+      const tempo = boxes.find((b) => b.text === "Andante ♩ = 72");
+      expect(tempo, boxes.map((b) => b.text).join(" | ")).toBeTruthy();
+      const overlapping = boxes.filter((b) => b !== tempo && b.left < tempo!.right && b.right > tempo!.left && b.top < tempo!.bottom && b.bottom > tempo!.top);
+      expect(overlapping.map((b) => b.text)).toEqual([]);
+    } finally {
+      await page.close();
+    }
+  }, 600_000);
+
   it("holds the corpus", () => {
     expect(allFiles.length).toBeGreaterThanOrEqual(60);
   });
