@@ -1,8 +1,8 @@
 /**
  * Guards speed work on the analysis: its results must not change. Analyses every score under
  * tests/fixtures/ and samples/ plus generated parts (scripts/bench/analysis.ts), every part (and
- * for a staff of two players both lines), and writes one canonical JSON file per score: the
- * analysis, or the reader's refusal.
+ * for a staff of two players both lines), as written and again with every key's mode removed, and
+ * writes one canonical JSON file per score and way: the analysis, or the reader's refusal.
  *
  *   npx tsx scripts/analysis-snapshot.ts write test-results/analysis-before
  *   npx tsx scripts/analysis-snapshot.ts compare test-results/analysis-before
@@ -41,25 +41,34 @@ function canonical(v: unknown): string {
   });
 }
 
-function* analyzeAll(): Generator<{ name: string; json: string }> {
+function inputs(): Array<{ name: string; load: () => Uint8Array }> {
   const inputs: Array<{ name: string; load: () => Uint8Array }> = [];
   for (const dir of ["tests/fixtures", "samples"]) {
     for (const f of files(path.join(root, dir))) inputs.push({ name: path.relative(root, f), load: () => fs.readFileSync(f) });
   }
   for (const n of [1_000, 20_000]) inputs.push({ name: `generated-${n}`, load: () => new TextEncoder().encode(generatePart(n)) });
-  for (const { name, load } of inputs) {
-    let result: unknown;
-    try {
-      const { score } = readScoreFile(load(), name, { maxFileBytes: Infinity, maxNotes: Infinity });
-      result = score.parts.map((p) => {
-        const players = twoPlayersOf(p);
-        return players ? { upper: analyzePart(score, p, { line: "upper" }), lower: analyzePart(score, p, { line: "lower" }) } : analyzePart(score, p);
-      });
-    } catch (err) {
-      const e = err as Error & { code?: string };
-      result = { refused: e.code ?? e.name, message: e.message };
+  return inputs;
+}
+
+/** Every part analysed as `analyzeScore` does, then again with every key's mode removed (so the
+ * key and its changes are inferred from the notes). */
+function* analyzeAll(): Generator<{ name: string; json: string }> {
+  for (const { name, load } of inputs()) {
+    for (const modes of ["as written", "no modes"] as const) {
+      let result: unknown;
+      try {
+        const { score } = readScoreFile(load(), name, { maxFileBytes: Infinity, maxNotes: Infinity });
+        if (modes === "no modes") for (const p of score.parts) for (const m of p.measures) m.key = { ...m.key, mode: null };
+        result = score.parts.map((p) => {
+          const players = twoPlayersOf(p);
+          return players ? { upper: analyzePart(score, p, { line: "upper" }), lower: analyzePart(score, p, { line: "lower" }) } : analyzePart(score, p);
+        });
+      } catch (err) {
+        const e = err as Error & { code?: string };
+        result = { refused: e.code ?? e.name, message: e.message };
+      }
+      yield { name: modes === "as written" ? name : `${name} (${modes})`, json: canonical(result) };
     }
-    yield { name, json: canonical(result) };
   }
 }
 
