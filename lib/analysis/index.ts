@@ -2,7 +2,7 @@
  * The analysis of a score, part by part: key, local keys, degrees, tension tones with their
  * resolutions, phrases, and the suggestions built from them. Pure and deterministic.
  */
-import type { PartModel, ScoreModel } from "@/lib/musicxml/model";
+import type { Fraction, PartModel, ScoreModel } from "@/lib/musicxml/model";
 import { lineOf, twoPlayersOf, type Line } from "@/lib/musicxml/lines";
 import { barName, writtenBars } from "@/lib/musicxml/bar-names";
 import type { AnalyzedNote, LocalKey, PartAnalysis, ScoreAnalysis, Suggestion } from "./types";
@@ -72,13 +72,14 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
     .sort((a, b) => a.i - b.i)
     .map((x) => x.k);
 
+  const fraction = fractionTexts();
   const notes: AnalyzedNote[] = melody.map((m) => ({
     key: m.note.key,
     measure: m.note.measureNumber,
     pitch: m.note.pitch?.name ?? "",
     midi: m.midi,
-    onset: fracString(m.note.onset),
-    duration: fracString(m.note.duration),
+    onset: fraction(m.note.onset),
+    duration: fraction(m.note.duration),
     degree: degreeOf(m.lof, keyAt(m)),
   }));
 
@@ -117,6 +118,18 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
     phrases: phrases.map((p) => ({ start: main[p.start].note.key, peak: main[p.peak].note.key, end: main[p.end].note.key })),
     suggestions,
     ...(players && line ? { lines: { writtenAs: players.writtenAs, line } } : {}),
+  };
+}
+
+/** `fracString` keeping one string per fraction: a long part repeats a few onsets and durations. */
+function fractionTexts(): (f: Fraction) => string {
+  const byDen = new Map<number, Map<number, string>>();
+  return (f) => {
+    let byNum = byDen.get(f.den);
+    if (!byNum) byDen.set(f.den, (byNum = new Map()));
+    let text = byNum.get(f.num);
+    if (text === undefined) byNum.set(f.num, (text = fracString(f)));
+    return text;
   };
 }
 

@@ -34,15 +34,24 @@ export interface LbdmNote {
  * note k − 1 and note k. Times in any unit (beats in the published examples).
  */
 export function lbdm(notes: readonly LbdmNote[]): number[] {
-  const n = notes.length;
+  return lbdmBy(
+    notes.length,
+    (i) => notes[i].pitch,
+    (i) => notes[i].onset,
+    (i) => notes[i].offset,
+  );
+}
+
+/** `lbdm` over `n` notes read through accessors (a long melody need not be copied into notes). */
+export function lbdmBy(n: number, pitch: (i: number) => number, onset: (i: number) => number, offset: (i: number) => number): number[] {
   if (n === 0) return [];
   const pp: number[] = [];
   const po: number[] = [];
   const pr: number[] = [];
   for (let i = 0; i < n - 1; i++) {
-    pp.push(Math.abs(notes[i + 1].pitch - notes[i].pitch));
-    po.push(notes[i + 1].onset - notes[i].onset);
-    pr.push(Math.max(0, notes[i + 1].onset - notes[i].offset));
+    pp.push(Math.abs(pitch(i + 1) - pitch(i)));
+    po.push(onset(i + 1) - onset(i));
+    pr.push(Math.max(0, onset(i + 1) - offset(i)));
   }
   const sp = changeStrength(pp);
   const so = changeStrength(po);

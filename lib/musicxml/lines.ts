@@ -74,25 +74,28 @@ export function twoPlayersOf(part: PartModel): TwoPlayers | null {
 }
 
 function writingOf(part: PartModel): Omit<TwoPlayers, "apart"> | null {
-  // One pass over the notes (a long part has a hundred thousand): the sounding notes, their
-  // voices, and whether two of them share a slot with different pitches.
-  const sounding: Note[] = [];
+  // One pass over the notes (a long part has a hundred thousand): how many sound, their staff
+  // and voices, and whether two of them share a slot with different pitches.
+  let count = 0;
+  let staff = 0;
   const voiceSet = new Set<string>();
   const instants = new Instants();
   for (const n of part.notes) {
     if (!played(n) || n.isGrace) continue;
-    if (sounding.length > 0 && n.staff !== sounding[0].staff) return null;
-    sounding.push(n);
+    if (count === 0) staff = n.staff;
+    else if (n.staff !== staff) return null;
+    count++;
     voiceSet.add(n.voice);
     instants.add(n);
   }
-  if (sounding.length < 2) return null;
-  const staff = sounding[0].staff;
+  if (count < 2) return null;
+  const sounding = () => part.notes.filter((n) => played(n) && !n.isGrace);
 
   const voices = [...voiceSet].sort(byNumber);
   if (voices.length >= 2) {
-    const upper = spans(sounding.filter((n) => n.voice === voices[0]));
-    const lower = sounding.filter((n) => n.voice !== voices[0]);
+    const all = sounding();
+    const upper = spans(all.filter((n) => n.voice === voices[0]));
+    const lower = all.filter((n) => n.voice !== voices[0]);
     if (lower.some((n) => overlaps(upper, n.onsetSeconds, n.onsetSeconds + n.durationSeconds))) {
       return { writtenAs: "voices", staff, voices: [voices[0], voices[1]] };
     }
@@ -106,38 +109,41 @@ function writingOf(part: PartModel): Omit<TwoPlayers, "apart"> | null {
  * those of one instant: they are compared inside each instant rather than keyed one by one.
  */
 class Instants {
+  /** The notes of the current instant: the first `size` (the array is reused). */
   private group: Note[] = [];
+  private size = 0;
   private found = false;
   private ordered = true;
 
   add(n: Note): void {
     if (this.found || !this.ordered) return;
-    const last = this.group[this.group.length - 1];
+    const last = this.size > 0 ? this.group[this.size - 1] : null;
     const order = last ? last.measureIndex - n.measureIndex || cmp(last.onset, n.onset) : 0;
     if (order > 0) this.ordered = false;
     else if (order < 0) this.close();
-    this.group.push(n);
+    this.group[this.size++] = n;
   }
 
-  hasChord(sounding: readonly Note[]): boolean {
-    if (!this.ordered) return hasChordByKey(sounding);
+  hasChord(sounding: () => readonly Note[]): boolean {
+    if (!this.ordered) return hasChordByKey(sounding());
     this.close();
     return this.found;
   }
 
   private close(): void {
     const g = this.group;
-    if (g.length > 16) this.found = hasChordByKey(g);
+    const size = this.size;
+    if (size > 16) this.found = hasChordByKey(g.slice(0, size));
     else {
-      for (let x = 0; x < g.length && !this.found; x++) {
-        for (let y = x + 1; y < g.length; y++) {
+      for (let x = 0; x < size && !this.found; x++) {
+        for (let y = x + 1; y < size; y++) {
           const p = g[x];
           const q = g[y];
           if (q.voice === p.voice && q.onset.num === p.onset.num && q.onset.den === p.onset.den && q.pitch!.midi !== p.pitch!.midi) this.found = true;
         }
       }
     }
-    g.length = 0;
+    this.size = 0;
   }
 }
 
