@@ -47,7 +47,13 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
   const keyAt = (n: MelodyNote) => keyAtMeasure[n.measureIndex];
   // Reasons name bars as the part writes them ("bar 12", "the pickup").
   const written = writtenBars(part.measures);
-  const bar = (n: MelodyNote) => barName(written, n.measureIndex);
+  // One name per bar, however many reasons name it.
+  const barNames = new Map<number, string>();
+  const bar = (n: MelodyNote) => {
+    let name = barNames.get(n.measureIndex);
+    if (name === undefined) barNames.set(n.measureIndex, (name = barName(written, n.measureIndex)));
+    return name;
+  };
 
   const first = sections[0];
   const sig = part.measures[0]?.key ?? { fifths: 0, mode: null };
