@@ -6,7 +6,7 @@
  * own raised degrees that resolve up a half step stand in for the cadence. One pass over the
  * notes, bucketed by bar: linear in their number.
  */
-import type { PartModel, ScoreModel } from "@/lib/musicxml/model";
+import type { Note, PartModel, ScoreModel } from "@/lib/musicxml/model";
 import { toNumber as frac } from "@/lib/musicxml/fraction";
 import type { MelodyNote, Timeline } from "./melody";
 import { lofOf, mod } from "./spelling";
@@ -40,10 +40,13 @@ export interface BarEvidence {
   melodyOnly: boolean;
 }
 
+/** The notes that sound, every part: start, end and pitch of each, in columns (a long score has
+ * a hundred thousand; one object each would be as many allocations). */
 interface Sounding {
-  pos: number;
-  end: number;
-  midi: number;
+  pos: Float64Array;
+  end: Float64Array;
+  midi: Float64Array;
+  count: number;
 }
 
 /** Weights of cadential evidence (added to a key's mean correlation in the bar of arrival). */
@@ -56,34 +59,43 @@ export function barEvidence(score: ScoreModel, part: PartModel, timeline: Timeli
     const beatType = m.time?.beatType ?? 4;
     return beats % 3 === 0 && beats > 3 && beatType >= 8 ? 3 / beatType : 1 / beatType;
   });
+  // Every beat's histogram is a view on one buffer, and a cadence map is made when a cadence
+  // arrives (few beats hold one): a long part has tens of thousands of beats.
+  const beatCount = timeline.measureLength.map((len, i) => Math.max(1, Math.round(len / beatLength[i] + 0.49)));
+  const hists = new Float64Array(12 * beatCount.reduce((a, b) => a + b, 0));
+  let used = 0;
   const bars: BarEvidence[] = Array.from({ length: count }, (_, i) => ({
     hist: new Array<number>(12).fill(0),
-    segments: Array.from({ length: Math.max(1, Math.round(timeline.measureLength[i] / beatLength[i] + 0.49)) }, () => ({
-      hist: new Float64Array(12),
-      cadence: new Map<number, number>(),
+    segments: Array.from({ length: beatCount[i] }, () => ({
+      hist: hists.subarray(used, (used += 12)),
+      cadence: NO_CADENCE,
       harmony: 0,
       firstBass: -1,
       firstPcs: 0,
     })),
     beatLength: beatLength[i],
     lofs: new Set<number>(),
-    cadence: new Map<number, number>(),
+    cadence: NO_CADENCE,
     melodyOnly: true,
   }));
-  const inMelody = new Set(melody.map((m) => m.note));
-  const sounding: Sounding[] = [];
+  const inMelody = melodyMarks(part.notes, melody);
+  const total = score.parts.reduce((c, p) => c + p.notes.length, 0);
+  const sounding: Sounding = { pos: new Float64Array(total), end: new Float64Array(total), midi: new Float64Array(total), count: 0 };
   for (const p of score.parts) {
-    for (const n of p.notes) {
+    for (let i = 0; i < p.notes.length; i++) {
+      const n = p.notes[i];
       if (n.isRest || n.isCue || n.isGrace || !n.pitch || n.measureIndex >= count) continue;
       const bar = bars[n.measureIndex];
       bar.hist[mod(n.pitch.midi, 12)] += frac(n.duration) * 4;
       bar.lofs.add(lofOf(n.pitch.step, n.pitch.alter));
-      const melodyNote = p === part && inMelody.has(n);
+      const melodyNote = p === part && inMelody[i] === 1;
       if (!melodyNote) bar.melodyOnly = false;
       const onset = frac(n.onset);
       const pos = timeline.measureStart[n.measureIndex] + onset;
       const dur = frac(n.duration);
-      sounding.push({ pos, end: pos + dur, midi: n.pitch.midi });
+      sounding.pos[sounding.count] = pos;
+      sounding.end[sounding.count] = pos + dur;
+      sounding.midi[sounding.count++] = n.pitch.midi;
       // Spread the note over the beats it sounds in (within its bar).
       const segs = bar.segments;
       const bl = beatLength[n.measureIndex];
@@ -104,8 +116,8 @@ export function barEvidence(score: ScoreModel, part: PartModel, timeline: Timeli
   };
   const mark = (pos: number, key: number, w: number) => {
     const b = barOf(timeline, pos);
-    add(bars[b].cadence, key, w);
-    add(segmentAt(pos).cadence, key, w);
+    add(bars[b], key, w);
+    add(segmentAt(pos), key, w);
   };
   const chord = (pos: number, bass: number, pcs: number) => {
     const seg = segmentAt(pos);
@@ -117,6 +129,24 @@ export function barEvidence(score: ScoreModel, part: PartModel, timeline: Timeli
   addBassCadences(sounding, mark, chord);
   addMelodicLeadingTones(melody, bars, mark);
   return bars;
+}
+
+/** 1 for each of the part's notes that is in the melody. The melody keeps the part's order: one
+ * walk matches them, without a set of a long part's notes (a set when the order differs). */
+function melodyMarks(notes: readonly Note[], melody: readonly MelodyNote[]): Uint8Array {
+  const marks = new Uint8Array(notes.length);
+  let j = 0;
+  for (let i = 0; i < notes.length && j < melody.length; i++) {
+    if (notes[i] === melody[j].note) {
+      marks[i] = 1;
+      j++;
+    }
+  }
+  if (j < melody.length) {
+    const inMelody = new Set(melody.map((m) => m.note));
+    for (let i = 0; i < notes.length; i++) marks[i] = inMelody.has(notes[i]) ? 1 : 0;
+  }
+  return marks;
 }
 
 function barOf(timeline: Timeline, pos: number): number {
@@ -131,31 +161,41 @@ function barOf(timeline: Timeline, pos: number): number {
   return lo;
 }
 
-function add(cadence: Map<number, number>, key: number, w: number): void {
-  cadence.set(key, Math.max(cadence.get(key) ?? 0, w));
+/** The cadence map of a bar or beat with no cadence yet; never written to. */
+const NO_CADENCE: Map<number, number> = new Map();
+
+function add(at: { cadence: Map<number, number> }, key: number, w: number): void {
+  if (at.cadence === NO_CADENCE) at.cadence = new Map();
+  at.cadence.set(key, Math.max(at.cadence.get(key) ?? 0, w));
 }
 
 type Mark = (pos: number, key: number, w: number) => void;
 
 /** Chords at each onset (every sounding note), and V → I motions between consecutive chords. */
-function addBassCadences(sounding: Sounding[], mark: Mark, chord: (pos: number, bass: number, pcs: number) => void): void {
-  if (sounding.length === 0) return;
-  sounding.sort((a, b) => a.pos - b.pos);
-  const active: Sounding[] = [];
+function addBassCadences(sounding: Sounding, mark: Mark, chord: (pos: number, bass: number, pcs: number) => void): void {
+  const { pos, end, midi, count } = sounding;
+  if (count === 0) return;
+  // The notes by start (ties in the order read); one part's notes come in that order already.
+  let order: ArrayLike<number> | null = null;
+  for (let k = 1; k < count && !order; k++) {
+    if (pos[k] < pos[k - 1]) order = Array.from({ length: count }, (_, x) => x).sort((a, b) => pos[a] - pos[b] || a - b);
+  }
+  const at = (k: number) => (order ? order[k] : k);
+  const active: number[] = [];
   let prev: { bass: number; pcs: number } | null = null;
   let i = 0;
-  while (i < sounding.length) {
-    const t = sounding[i].pos;
-    while (i < sounding.length && sounding[i].pos <= t + 1e-9) active.push(sounding[i++]);
+  while (i < count) {
+    const t = pos[at(i)];
+    while (i < count && pos[at(i)] <= t + 1e-9) active.push(at(i++));
     // Drop notes that ended; the list holds only what sounds now (a few notes).
     let w = 0;
-    for (const s of active) if (s.end > t + 1e-9) active[w++] = s;
+    for (const s of active) if (end[s] > t + 1e-9) active[w++] = s;
     active.length = w;
     let bass = Infinity;
     let pcs = 0;
     for (const s of active) {
-      bass = Math.min(bass, s.midi);
-      pcs |= 1 << mod(s.midi, 12);
+      bass = Math.min(bass, midi[s]);
+      pcs |= 1 << mod(midi[s], 12);
     }
     if (active.length < 2) {
       prev = null;

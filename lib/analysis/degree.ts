@@ -39,9 +39,11 @@ export function leadingToneLof(key: Key): number {
  * (melodic and harmonic minor; Hutchinson treats them as diatonic). */
 export function inKey(noteLof: number, key: Key): boolean {
   const off = noteLof - key.tonicLof;
-  const set = key.mode === "major" ? MAJOR_OFFSETS : [...MINOR_OFFSETS, 3, 5];
+  const set = key.mode === "major" ? MAJOR_OFFSETS : MINOR_IN_KEY;
   return set.includes(off);
 }
+
+const MINOR_IN_KEY = [...MINOR_OFFSETS, 3, 5];
 
 const NAMES = ["tonic", "supertonic", "mediant", "subdominant", "dominant", "submediant", "seventh"];
 const ORDINALS = ["first", "second", "third", "fourth", "fifth", "sixth", "seventh"];
@@ -74,7 +76,16 @@ function describe(noteLof: number, key: Key): string {
   return `a ${how} ${ORDINALS[d - 1]} degree`;
 }
 
+const keyNameCache = new Map<number, string>();
+
 /** "B♭ major", "F♯ minor". */
 export function displayKey(key: Key): string {
-  return `${displayName(key.tonicLof)} ${key.mode}`;
+  // Asked for every candidate tension tone of a long part: one string per key.
+  const id = key.tonicLof * 2 + (key.mode === "major" ? 0 : 1);
+  let text = keyNameCache.get(id);
+  if (text === undefined) {
+    text = `${displayName(key.tonicLof)} ${key.mode}`;
+    keyNameCache.set(id, text);
+  }
+  return text;
 }

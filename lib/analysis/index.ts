@@ -2,7 +2,7 @@
  * The analysis of a score, part by part: key, local keys, degrees, tension tones with their
  * resolutions, phrases, and the suggestions built from them. Pure and deterministic.
  */
-import type { PartModel, ScoreModel } from "@/lib/musicxml/model";
+import type { Fraction, PartModel, ScoreModel } from "@/lib/musicxml/model";
 import { lineOf, twoPlayersOf, type Line } from "@/lib/musicxml/lines";
 import { barName, writtenBars } from "@/lib/musicxml/bar-names";
 import type { AnalyzedNote, LocalKey, PartAnalysis, ScoreAnalysis, Suggestion } from "./types";
@@ -48,7 +48,13 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
   const keyAt = (n: MelodyNote) => keyAtMeasure[n.measureIndex];
   // Reasons name bars as the part writes them ("bar 12", "the pickup").
   const written = writtenBars(part.measures);
-  const bar = (n: MelodyNote) => barName(written, n.measureIndex);
+  // One name per bar, however many reasons name it.
+  const barNames = new Map<number, string>();
+  const bar = (n: MelodyNote) => {
+    let name = barNames.get(n.measureIndex);
+    if (name === undefined) barNames.set(n.measureIndex, (name = barName(written, n.measureIndex)));
+    return name;
+  };
 
   const first = sections[0];
   const sig = part.measures[0]?.key ?? { fifths: 0, mode: null };
@@ -73,13 +79,14 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
     .sort((a, b) => a.i - b.i)
     .map((x) => x.k);
 
+  const fraction = fractionTexts();
   const notes: AnalyzedNote[] = melody.map((m) => ({
     key: m.note.key,
     measure: m.note.measureNumber,
     pitch: m.note.pitch?.name ?? "",
     midi: m.midi,
-    onset: fracString(m.note.onset),
-    duration: fracString(m.note.duration),
+    onset: fraction(m.note.onset),
+    duration: fraction(m.note.duration),
     degree: degreeOf(m.lof, keyAt(m)),
   }));
 
@@ -122,6 +129,18 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
     phrases: phrases.map((p) => ({ start: main[p.start].note.key, peak: main[p.peak].note.key, end: main[p.end].note.key })),
     suggestions,
     ...(players && line ? { lines: { writtenAs: players.writtenAs, line } } : {}),
+  };
+}
+
+/** `fracString` keeping one string per fraction: a long part repeats a few onsets and durations. */
+function fractionTexts(): (f: Fraction) => string {
+  const byDen = new Map<number, Map<number, string>>();
+  return (f) => {
+    let byNum = byDen.get(f.den);
+    if (!byNum) byDen.set(f.den, (byNum = new Map()));
+    let text = byNum.get(f.num);
+    if (text === undefined) byNum.set(f.num, (text = fracString(f)));
+    return text;
   };
 }
 

@@ -5,7 +5,7 @@
  */
 import type { Measure } from "@/lib/musicxml/model";
 import { inKey } from "./degree";
-import { type Key, fifthsOf, inferMode, keyFromSignature } from "./key";
+import { type Key, fifthsOf, inferMode, keyFromSignature, majorOf } from "./key";
 import { type BarEvidence, CADENCE_WEIGHT, type Segment } from "./bar-evidence";
 import { chordFit, nameChord } from "./chord-fit";
 import { keyScoresMean } from "./key-finding";
@@ -56,6 +56,10 @@ export type LocalKeyParams = { [K in keyof typeof LOCAL_KEY]: number };
 
 export function keySections(measures: readonly Measure[], melody: readonly MelodyNote[]): KeySection[] {
   const sections: KeySection[] = [];
+  // A section without a mode reads its own notes: one pass hands each section its notes (in melody
+  // order), however many sections there are.
+  const sectionAt = new Int32Array(measures.length);
+  const unknown: number[] = [];
   let start = 0;
   for (let i = 1; i <= measures.length; i++) {
     const cur = measures[i];
@@ -64,16 +68,22 @@ export function keySections(measures: readonly Measure[], melody: readonly Melod
       i === measures.length || (cur.keyChanged && (cur.key.fifths !== prev.key.fifths || cur.key.mode !== prev.key.mode));
     if (!boundary) continue;
     const sig = prev.key;
-    const notes = melody.filter((n) => n.measureIndex >= start && n.measureIndex < i);
     const fromSig = keyFromSignature(sig.fifths, sig.mode);
+    sectionAt.fill(sections.length, start, i);
+    if (!fromSig) unknown.push(sections.length);
     sections.push({
       fromIndex: start,
       toIndex: i - 1,
       fifths: sig.fifths,
-      key: fromSig ?? inferMode(sig.fifths, notes).key,
+      key: fromSig ?? majorOf(sig.fifths),
       source: fromSig ? "signature" : "inferred",
     });
     start = i;
+  }
+  if (unknown.length > 0) {
+    const notes = sections.map((): MelodyNote[] => []);
+    for (const n of melody) if (n.measureIndex >= 0 && n.measureIndex < measures.length) notes[sectionAt[n.measureIndex]].push(n);
+    for (const k of unknown) sections[k].key = inferMode(sections[k].fifths, notes[k]).key;
   }
   if (sections.length === 0) sections.push({ fromIndex: 0, toIndex: -1, fifths: 0, key: { tonicLof: 0, mode: "major" }, source: "inferred" });
   return sections;

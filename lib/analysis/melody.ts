@@ -83,14 +83,18 @@ export function metricStrength(onset: number, measure: Measure): number {
  * Cue notes are left out (another instrument plays them).
  */
 export function melodyVoice(part: PartModel): { staff: number; voice: string } | null {
+  // One pass over the notes: each staff's voices weighed, the highest staff's kept.
+  const byStaff = new Map<number, Map<string, number>>();
   let topStaff = Infinity;
-  for (const n of part.notes) if (!n.isRest && !n.isCue && n.pitch) topStaff = Math.min(topStaff, n.staff);
-  if (topStaff === Infinity) return null;
-  const weight = new Map<string, number>();
   for (const n of part.notes) {
-    if (n.isRest || n.isCue || !n.pitch || n.staff !== topStaff) continue;
-    weight.set(n.voice, (weight.get(n.voice) ?? 0) + frac(n.duration) + 1e-6);
+    if (n.isRest || n.isCue || !n.pitch) continue;
+    topStaff = Math.min(topStaff, n.staff);
+    let staffWeight = byStaff.get(n.staff);
+    if (!staffWeight) byStaff.set(n.staff, (staffWeight = new Map()));
+    staffWeight.set(n.voice, (staffWeight.get(n.voice) ?? 0) + frac(n.duration) + 1e-6);
   }
+  if (topStaff === Infinity) return null;
+  const weight = byStaff.get(topStaff) as Map<string, number>;
   let best = "";
   let bestW = -1;
   for (const [voice, w] of [...weight].sort((a, b) => a[0].localeCompare(b[0], "en", { numeric: true }))) {

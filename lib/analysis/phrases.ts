@@ -5,7 +5,7 @@
  * length keeps slivers out (Lerdahl & Jackendoff's GPR 1: avoid groups of a single event).
  */
 import type { Measure } from "@/lib/musicxml/model";
-import { lbdm } from "./lbdm";
+import { lbdmBy } from "./lbdm";
 import type { MelodyNote } from "./melody";
 
 export const PHRASE = {
@@ -136,7 +136,12 @@ export function findPhrases(seq: readonly MelodyNote[], measures: readonly Measu
   const n = seq.length;
   if (n === 0) return [];
   // Quarter notes as the time unit, like the published LBDM examples.
-  const b = lbdm(seq.map((m) => ({ pitch: m.midi, onset: m.pos * 4, offset: m.end * 4 })));
+  const b = lbdmBy(
+    n,
+    (i) => seq[i].midi,
+    (i) => seq[i].pos * 4,
+    (i) => seq[i].end * 4,
+  );
   const firstBar = measures.length > 0 ? Math.max(...measures.slice(0, 2).map((m) => m.length.num / m.length.den)) : 1;
   const minLen = PHRASE.minMeasureShare * firstBar;
   const bounds = new IndexSet(n);

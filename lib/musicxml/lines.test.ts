@@ -147,4 +147,17 @@ describe("the upper and lower line of a staff with two players", () => {
     const stops = read(partwise([attrs(1) + note("A", 5, 1) + note("D", 5, 1, { chord: true }) + note("G", 5, 1) + note("F", 5, 1) + note("E", 5, 1), ...Array.from({ length: 4 }, () => note("D", 5, 4))])).score.parts[0];
     expect(twoPlayersOf(stops)).toBeNull();
   });
+
+  it("finds the chords whatever order the notes are listed in, and in a crowded instant (our sample)", () => {
+    const part = ours("two-flutes-chords.musicxml");
+    const expected = twoPlayersOf(part);
+    expect(expected).toMatchObject({ writtenAs: "chords" });
+    // The reader lists notes in time order; a part listed otherwise gives the same answer.
+    expect(twoPlayersOf({ ...part, notes: [...part.notes].reverse() })).toEqual(expected);
+    // Twenty unisons at one instant are one note for two players; a second pitch among them is a chord.
+    const unisons = Array.from({ length: 20 }, () => note("A", 5, 4, { chord: true })).join("").replace("<chord/>", "");
+    expect(twoPlayersOf(read(partwise([attrs(1) + unisons])).score.parts[0])).toBeNull();
+    const chord = unisons + note("D", 5, 4, { chord: true });
+    expect(twoPlayersOf(read(partwise([attrs(1) + chord])).score.parts[0])).toMatchObject({ writtenAs: "chords" });
+  });
 });

@@ -19,6 +19,7 @@
  *   note in the model. Cue notes belong to neither player and pass through to both lines.
  * Directions such as "1." or "a2" are not read: the notes alone decide.
  */
+import { cmp } from "./fraction";
 import type { Note, PartModel } from "./model";
 
 export const LINES = ["upper", "lower"] as const;
@@ -73,27 +74,88 @@ export function twoPlayersOf(part: PartModel): TwoPlayers | null {
 }
 
 function writingOf(part: PartModel): Omit<TwoPlayers, "apart"> | null {
-  const sounding = part.notes.filter((n) => played(n) && !n.isGrace);
-  if (sounding.length < 2) return null;
-  const staff = sounding[0].staff;
-  if (sounding.some((n) => n.staff !== staff)) return null;
+  // One pass over the notes (a long part has a hundred thousand): how many sound, their staff
+  // and voices, and whether two of them share a slot with different pitches.
+  let count = 0;
+  let staff = 0;
+  const voiceSet = new Set<string>();
+  const instants = new Instants();
+  for (const n of part.notes) {
+    if (!played(n) || n.isGrace) continue;
+    if (count === 0) staff = n.staff;
+    else if (n.staff !== staff) return null;
+    count++;
+    voiceSet.add(n.voice);
+    instants.add(n);
+  }
+  if (count < 2) return null;
+  const sounding = () => part.notes.filter((n) => played(n) && !n.isGrace);
 
-  const voices = [...new Set(sounding.map((n) => n.voice))].sort(byNumber);
+  const voices = [...voiceSet].sort(byNumber);
   if (voices.length >= 2) {
-    const upper = spans(sounding.filter((n) => n.voice === voices[0]));
-    const lower = sounding.filter((n) => n.voice !== voices[0]);
+    const all = sounding();
+    const upper = spans(all.filter((n) => n.voice === voices[0]));
+    const lower = all.filter((n) => n.voice !== voices[0]);
     if (lower.some((n) => overlaps(upper, n.onsetSeconds, n.onsetSeconds + n.durationSeconds))) {
       return { writtenAs: "voices", staff, voices: [voices[0], voices[1]] };
     }
   }
+  return instants.hasChord(sounding) ? { writtenAs: "chords", staff, voices: null } : null;
+}
+
+/**
+ * Whether two notes of one slot (sounding, not grace, one staff) have different pitches, fed one
+ * note at a time. The reader lists notes in time order, so a slot's notes come together among
+ * those of one instant: they are compared inside each instant rather than keyed one by one.
+ */
+class Instants {
+  /** The notes of the current instant: the first `size` (the array is reused). */
+  private group: Note[] = [];
+  private size = 0;
+  private found = false;
+  private ordered = true;
+
+  add(n: Note): void {
+    if (this.found || !this.ordered) return;
+    const last = this.size > 0 ? this.group[this.size - 1] : null;
+    const order = last ? last.measureIndex - n.measureIndex || cmp(last.onset, n.onset) : 0;
+    if (order > 0) this.ordered = false;
+    else if (order < 0) this.close();
+    this.group[this.size++] = n;
+  }
+
+  hasChord(sounding: () => readonly Note[]): boolean {
+    if (!this.ordered) return hasChordByKey(sounding());
+    this.close();
+    return this.found;
+  }
+
+  private close(): void {
+    const g = this.group;
+    const size = this.size;
+    if (size > 16) this.found = hasChordByKey(g.slice(0, size));
+    else {
+      for (let x = 0; x < size && !this.found; x++) {
+        for (let y = x + 1; y < size; y++) {
+          const p = g[x];
+          const q = g[y];
+          if (q.voice === p.voice && q.onset.num === p.onset.num && q.onset.den === p.onset.den && q.pitch!.midi !== p.pitch!.midi) this.found = true;
+        }
+      }
+    }
+    this.size = 0;
+  }
+}
+
+function hasChordByKey(sounding: readonly Note[]): boolean {
   const pitchesAt = new Map<string, number>();
   for (const n of sounding) {
     const slot = slotOf(n);
     const first = pitchesAt.get(slot);
     if (first === undefined) pitchesAt.set(slot, n.pitch!.midi);
-    else if (first !== n.pitch!.midi) return { writtenAs: "chords", staff, voices: null };
+    else if (first !== n.pitch!.midi) return true;
   }
-  return null;
+  return false;
 }
 
 /**
