@@ -24,6 +24,8 @@ import { listMarkingsByPartId } from "@/db/markings";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import type { Part } from "@/db/schema";
 import { randomUUID } from "node:crypto";
+import { cache } from "react";
+import { firstTextOf } from "@/lib/engraving/opening";
 
 export function readLimits() {
   const c = config();
@@ -43,7 +45,13 @@ export const PART_NOT_FOUND = "This part does not exist, or it has not been shar
  * not see answers 404 exactly like a part that does not exist.
  */
 export async function loadPart(user: CurrentUser, partId: string, action: Action): Promise<PartAccess> {
-  const access = await getPartAccessById({ partId, viewerId: user.id });
+  return allowed(user, action, await getPartAccessById({ partId, viewerId: user.id }));
+}
+
+/** The part's row read once for a page's render: its title (metadata) and its body ask alike. */
+const readPartForPage = cache((partId: string, viewerId: string) => getPartAccessById({ partId, viewerId }));
+
+function allowed(user: CurrentUser, action: Action, access: PartAccess | null): PartAccess {
   if (!access) throw new AppError("not_found:part", PART_NOT_FOUND);
   assertCan(user, action, {
     type: "part",
@@ -70,7 +78,7 @@ export async function loadPartForPage({ partId, action, path }: { partId: string
   if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(path)}`);
   if (!UUID.test(partId)) notFound();
   try {
-    return { user, access: await loadPart(user, partId, action) };
+    return { user, access: allowed(user, action, await readPartForPage(partId, user.id)) };
   } catch (err) {
     if (err instanceof AppError && (err.status === 404 || err.status === 403)) notFound();
     throw err;
@@ -81,8 +89,11 @@ export async function loadPartForPage({ partId, action, path }: { partId: string
 export async function partTitleForViewer(partId: string): Promise<string | null> {
   const user = await getCurrentUser();
   if (!user || !UUID.test(partId)) return null;
-  const access = await loadPart(user, partId, "part:view").catch(() => null);
-  return access?.part.title ?? null;
+  try {
+    return allowed(user, "part:view", await readPartForPage(partId, user.id)).part.title;
+  } catch {
+    return null;
+  }
 }
 
 
@@ -294,13 +305,20 @@ export async function exportPart(user: CurrentUser, partId: string, format: "mus
  * What the workspace page carries: the part, the text to engrave and the markings, so engraving
  * starts without a round trip (the analysis, history and discussion are asked for once drawn).
  */
+/**
+ * The workspace page: the part, its markings and decisions, and the text it engraves first — the
+ * whole text of a short part, only the opening of a long one (`opening`; the browser fetches the
+ * whole text beside the engraving library, so the page stays small and its notes come sooner).
+ */
 export async function loadWorkspace({ partId, path }: { partId: string; path: string }) {
   const { user, access } = await loadPartForPage({ partId, action: "part:view", path });
   const [markings, decisions] = await Promise.all([listMarkingsByPartId({ partId }), listDecisionsByPartId({ partId })]);
+  const first = firstTextOf(access.part.musicxml, (xml) => selectPartsXml(xml, [access.part.chosenPartId]));
   return {
     viewerId: user.id,
     part: partDto(access),
-    musicxml: selectPartsXml(access.part.musicxml, [access.part.chosenPartId]),
+    musicxml: first.whole,
+    opening: first.opening,
     markings,
     decisions,
   };
