@@ -19,7 +19,7 @@ import type { MarkingValues } from "@/lib/markings/schema";
 import { selectPartsXml } from "@/lib/musicxml";
 import type { listPartsQuery, patchPartBody } from "@/lib/parts/schemas";
 import type { z } from "zod";
-import { deletePartById, getPartAccessById, insertPart, listPartsForViewer, newPartValues, storeAnalysisById, storeLineAnalysisById, updatePartById, type PartAccess } from "@/db/parts";
+import { deletePartById, getPartAccessById, getPartTextAccessById, insertPart, listPartsForViewer, newPartValues, storeAnalysisById, storeLineAnalysisById, updatePartById, type PartAccess, type PartTextAccess } from "@/db/parts";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import type { Part } from "@/db/schema";
@@ -48,10 +48,16 @@ export async function loadPart(user: CurrentUser, partId: string, action: Action
   return allowed(user, action, await getPartAccessById({ partId, viewerId: user.id }));
 }
 
+/** `loadPart` without the analyses and uploaded bytes: for what draws the part. */
+export async function loadPartText(user: CurrentUser, partId: string, action: Action): Promise<PartTextAccess> {
+  return allowed(user, action, await getPartTextAccessById({ partId, viewerId: user.id }));
+}
+
 /** The part's row read once for a page's render: its title (metadata) and its body ask alike. */
 const readPartForPage = cache((partId: string, viewerId: string) => getPartAccessById({ partId, viewerId }));
+const readPartTextForPage = cache((partId: string, viewerId: string) => getPartTextAccessById({ partId, viewerId }));
 
-function allowed(user: CurrentUser, action: Action, access: PartAccess | null): PartAccess {
+function allowed<A extends PartTextAccess>(user: CurrentUser, action: Action, access: A | null): A {
   if (!access) throw new AppError("not_found:part", PART_NOT_FOUND);
   assertCan(user, action, {
     type: "part",
@@ -74,11 +80,18 @@ export interface CreatedPart {
  * and answers "not found" for a part the viewer may not see, exactly as for one that is not there.
  */
 export async function loadPartForPage({ partId, action, path }: { partId: string; action: Action; path: string }): Promise<{ user: CurrentUser; access: PartAccess }> {
+  return loadForPage({ partId, action, path }, readPartForPage);
+}
+
+async function loadForPage<A extends PartTextAccess>(
+  { partId, action, path }: { partId: string; action: Action; path: string },
+  read: (partId: string, viewerId: string) => Promise<A | null>,
+): Promise<{ user: CurrentUser; access: A }> {
   const user = await getCurrentUser();
   if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(path)}`);
   if (!UUID.test(partId)) notFound();
   try {
-    return { user, access: allowed(user, action, await readPartForPage(partId, user.id)) };
+    return { user, access: allowed(user, action, await read(partId, user.id)) };
   } catch (err) {
     if (err instanceof AppError && (err.status === 404 || err.status === 403)) notFound();
     throw err;
@@ -90,7 +103,7 @@ export async function partTitleForViewer(partId: string): Promise<string | null>
   const user = await getCurrentUser();
   if (!user || !UUID.test(partId)) return null;
   try {
-    return allowed(user, "part:view", await readPartForPage(partId, user.id)).part.title;
+    return allowed(user, "part:view", await readPartTextForPage(partId, user.id)).part.title;
   } catch {
     return null;
   }
@@ -179,7 +192,7 @@ export function lineAnalysisKey(partId: string, line: Line): string {
   return `${ANALYSIS_VERSION}:${partId}:${line}`;
 }
 
-export function partDto(access: PartAccess) {
+export function partDto(access: PartTextAccess) {
   const p = access.part;
   return {
     id: p.id,
@@ -215,7 +228,7 @@ export async function listParts(user: CurrentUser, q: z.infer<typeof listPartsQu
 }
 
 export async function getPart(user: CurrentUser, partId: string): Promise<PartDto> {
-  return partDto(await loadPart(user, partId, "part:view"));
+  return partDto(await loadPartText(user, partId, "part:view"));
 }
 
 /**
@@ -311,7 +324,7 @@ export async function exportPart(user: CurrentUser, partId: string, format: "mus
  * whole text beside the engraving library, so the page stays small and its notes come sooner).
  */
 export async function loadWorkspace({ partId, path }: { partId: string; path: string }) {
-  const { user, access } = await loadPartForPage({ partId, action: "part:view", path });
+  const { user, access } = await loadForPage({ partId, action: "part:view", path }, readPartTextForPage);
   const [markings, decisions] = await Promise.all([listMarkingsByPartId({ partId }), listDecisionsByPartId({ partId })]);
   const first = firstTextOf(access.part.musicxml, (xml) => selectPartsXml(xml, [access.part.chosenPartId]));
   return {

@@ -5,11 +5,15 @@
  */
 import { firstMeasures, measureCount } from "./repair";
 
-/** The bars drawn first. */
-export const OPENING_BARS = 24;
+/**
+ * The bars drawn first: four lines of music, which fill a laptop's screen under the workspace's
+ * toolbar (each bar drawn costs the first paint a few milliseconds; a taller screen shows the
+ * rest a moment later, with the whole part).
+ */
+export const OPENING_BARS = 16;
 
 /** A part of more bars than this is drawn in two steps. */
-export const TWO_STEP_BARS = 2 * OPENING_BARS;
+export const TWO_STEP_BARS = 48;
 
 /** Whether the (single-part) text is drawn in two steps. */
 export function isLongPart(xml: string): boolean {

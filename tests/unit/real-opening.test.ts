@@ -42,11 +42,11 @@ describe("the workspace page's first text", () => {
     expect(count.short).toBeGreaterThan(10);
   }, 300_000);
 
-  it("cuts the benchmark's 1,000-bar part to its first 24 bars", () => {
+  it("cuts the benchmark's 1,000-bar part to its opening bars", () => {
     const { partwiseXml, score } = readScoreFile(new TextEncoder().encode(generatePartXml({ measures: 1000, seed: 1000 })), "bench.musicxml", limits);
     expect(expectSameFirstText(keepMusicXml(partwiseXml).xml, score.parts[0].id, "bench")).toBe("long");
     const { opening } = firstTextOf(keepMusicXml(partwiseXml).xml, (xml) => selectPartsXml(xml, [score.parts[0].id]));
-    expect(measureCount(opening!)).toBe(24);
+    expect(measureCount(opening!)).toBe(OPENING_BARS);
   });
 
   it("sends a part of exactly 48 bars whole and one of 49 as its opening", () => {
