@@ -139,5 +139,5 @@ export function saveRetryDelay(failureCount: number, error: unknown, random = Ma
 
 export const partUrl = (partId: string) => `/api/parts/${encodeURIComponent(partId)}`;
 
-/** The chosen part's MusicXML (the workspace page preloads it for a long part). */
+/** The chosen part's MusicXML. */
 export const musicXmlUrl = (partId: string) => `${partUrl(partId)}/musicxml`;

@@ -163,12 +163,17 @@ async function setDepth(value: string) {
 }
 
 describe("Workspace", () => {
-  it("engraves a long part's opening from the page while its whole text is on its way, then hands over the whole", async () => {
+  it("engraves a long part's opening from the page, asks for the whole text once it is drawn, then hands the whole over", async () => {
+    engraving.hold = true;
     server.holdText = true;
     open({ opening: "<score-partwise><!-- the first bars --></score-partwise>" });
     await screen.findByTestId("score");
-    // The opening is drawn and its notes selectable before the text has arrived.
     expect(engraving.given[0]).toEqual({ xml: undefined, opening: "<score-partwise><!-- the first bars --></score-partwise>" });
+    // Nothing competes with drawing the opening: the whole text is asked for after it.
+    await waitFor(() => expect(server.requests.some((r) => r.url === "/api/parts/part-1/markings")).toBe(true));
+    expect(server.requests.filter((r) => r.url === "/api/parts/part-1/musicxml")).toEqual([]);
+    act(() => engraving.finish());
+    // The opening's notes are selectable before the whole text has arrived.
     await waitFor(() => expect(hit(K[0])).not.toBeNull());
     await waitFor(() => expect(server.requests.filter((r) => r.url === "/api/parts/part-1/musicxml")).toHaveLength(1));
     act(() => server.sendText());

@@ -88,13 +88,14 @@ function prefersReducedMotion(): boolean {
 
 function WorkspaceScreen({ partId, viewerId, opening }: { partId: string; viewerId: string; opening: string | null }) {
   const part = usePart(partId);
-  const xml = useMusicXml(partId);
-  // What is known of the text so far: the whole, else the opening (the same header and first bars).
-  const text = xml.data ?? opening ?? undefined;
   // What the first drawing does not need is asked for once the score is on the screen (or could
   // not be engraved): on a small machine the requests and the server's answers would otherwise
-  // compete with the engraving and delay its first paint.
+  // compete with the engraving and delay its first paint. That includes a long part's whole text:
+  // its opening came with the page, and the whole is drawn only when the page is idle.
   const [scoreSettled, setScoreSettled] = useState(false);
+  const xml = useMusicXml(partId, { enabled: opening === null || scoreSettled });
+  // What is known of the text so far: the whole, else the opening (the same header and first bars).
+  const text = xml.data ?? opening ?? undefined;
   const afterScore = { enabled: scoreSettled || xml.isError };
   // The player's line of a two-player staff is part of the analysis' key: a change asks again.
   const analysis = useAnalysis(partId, { ...afterScore, line: part.data?.line });

@@ -219,7 +219,9 @@ const section: BenchSection = {
       for (let i = 0; i < RUNS; i++) {
         bare.push(await timeToReady(page, `${APP_URL}/dev/bare-score/${id}`));
         workspace.push(await timeToReady(page, `${APP_URL}/parts/${id}`));
+        if (process.env.BENCH_STAGES) console.log(`${bars} bars, workspace run ${i + 1}:`, JSON.stringify(await stagesOf(page)), `bare ${Math.round(bare[i].drawn)}`);
       }
+      console.log(`${bars} bars, workspace ÷ bare run by run:`, workspace.map((w, i) => (w.drawn / bare[i].drawn).toFixed(2)).join(" "));
       if (process.env.BENCH_PROFILE) {
         await profileLoad(page, async () => void (await timeToReady(page, `${APP_URL}/parts/${id}`)), `workspace-${bars}`);
         await profileLoad(page, async () => void (await timeToReady(page, `${APP_URL}/dev/bare-score/${id}`)), `bare-${bars}`);

@@ -1,9 +1,7 @@
 import type { Metadata } from "next";
-import { preload } from "react-dom";
 import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query";
 import { loadWorkspace, partTitleForViewer } from "@/server/parts";
 import { decisionKeys, markingKeys, partKeys } from "@/components/client/keys";
-import { musicXmlUrl } from "@/components/client/fetch-json";
 import { Workspace } from "@/components/screens/workspace";
 
 export const dynamic = "force-dynamic";
@@ -17,15 +15,13 @@ export default async function PartWorkspacePage({ params }: { params: Promise<{ 
   const { partId } = await params;
   // The text to engrave first and the markings travel with the page, so engraving starts without
   // a round trip: a short part's whole text, a long part's opening only (its whole text, as large
-  // as the page would be, is fetched beside the engraving library: the browser starts on it from
-  // the page's head). The analysis (as large as the text), the history and the discussion's
-  // counts are asked for once the score is drawn. The client keeps all of it fresh through the
-  // same query keys.
+  // as the page would be, is asked for once the opening is drawn, and drawn when the page is
+  // idle). The analysis (as large as the text), the history and the discussion's counts are asked
+  // for once the score is drawn. The client keeps all of it fresh through the same query keys.
   const page = await loadWorkspace({ partId, path: `/parts/${partId}` });
   const queryClient = new QueryClient();
   queryClient.setQueryData(partKeys.detail(partId), page.part);
   if (page.musicxml !== null) queryClient.setQueryData(partKeys.musicxml(partId), page.musicxml);
-  else preload(musicXmlUrl(partId), { as: "fetch", crossOrigin: "anonymous" });
   queryClient.setQueryData(markingKeys.list(partId), { markings: page.markings });
   queryClient.setQueryData(decisionKeys.list(partId), { decisions: page.decisions });
   return (
