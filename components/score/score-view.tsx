@@ -293,9 +293,20 @@ export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTe
       setLeftOut(barNumbers(text, [...bad].sort((a, b) => a - b)));
     };
 
-    /** The whole text, mended, once it is there. */
+    /** Once per engraving: what the page holds back until then can be asked for. */
+    let settled = false;
+    const settle = () => {
+      if (settled || cancelled) return;
+      settled = true;
+      onSettledRef.current?.();
+    };
+
+    /** The whole text, mended, once it is there (the page may hold it back until settled). */
     const whole = async () => {
-      if (wholeRef.current === undefined) await new Promise<void>((resolve) => (wholeArrived.current = resolve));
+      if (wholeRef.current === undefined) {
+        settle();
+        await new Promise<void>((resolve) => (wholeArrived.current = resolve));
+      }
       const text = wholeRef.current!;
       drawnWholeRef.current = text;
       return mend ? mendForEngraving(text) : text;
@@ -327,14 +338,14 @@ export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTe
       }
       if (cancelled) return;
       if (drewOpening) {
-        afterPaint(() => !cancelled && onSettledRef.current?.());
+        afterPaint(settle);
         await new Promise<void>((resolve) => afterPaint(() => whenIdle(() => resolve())));
         text ??= await whole();
         if (cancelled) return;
         await drawWhole(text);
       } else {
         await drawWhole(text ?? (await whole()));
-        afterPaint(() => !cancelled && onSettledRef.current?.());
+        afterPaint(settle);
       }
     })().catch((e: unknown) => {
       if (cancelled) return;
