@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, desc, eq, ilike, isNotNull, isNull, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, getTableColumns, ilike, isNotNull, isNull, or, sql, type SQL } from "drizzle-orm";
 import { AppError } from "@/lib/errors";
 import type { ListedPart, PartPermission, PartSort } from "@/lib/parts/dto";
 import type { IngestedScore } from "@/lib/parts/ingest";
@@ -14,6 +14,14 @@ import { markings, parts, shares, users, type NewPart, type Part } from "./schem
 
 export interface PartAccess {
   part: Part;
+  permission: PartPermission;
+}
+
+/** The part without its analyses and uploaded bytes (each as large as the text, or larger). */
+export type PartText = Omit<Part, "analysis" | "lineAnalysis" | "sourceBytes">;
+
+export interface PartTextAccess {
+  part: PartText;
   permission: PartPermission;
 }
 
@@ -45,6 +53,28 @@ const partSummaryColumns = {
 export async function getPartAccessById({ partId, viewerId }: { partId: string; viewerId: string }): Promise<PartAccess | null> {
   const [row] = await db()
     .select({ part: parts, permission: shares.permission })
+    .from(parts)
+    .leftJoin(
+      shares,
+      and(eq(shares.partId, parts.id), eq(shares.userId, viewerId), isNotNull(shares.acceptedAt), isNull(shares.revokedAt)),
+    )
+    .where(eq(parts.id, partId))
+    .limit(1);
+  if (!row) return null;
+  if (row.part.ownerId === viewerId) return { part: row.part, permission: "owner" };
+  if (row.permission) return { part: row.part, permission: row.permission };
+  return null;
+}
+
+const { analysis: _analysis, lineAnalysis: _lineAnalysis, sourceBytes: _sourceBytes, ...partTextColumns } = getTableColumns(parts);
+
+/**
+ * `getPartAccessById` for what draws the part (its text, title, tempo, permission): the analyses
+ * and the uploaded bytes, megabytes on a long part, are not read.
+ */
+export async function getPartTextAccessById({ partId, viewerId }: { partId: string; viewerId: string }): Promise<PartTextAccess | null> {
+  const [row] = await db()
+    .select({ part: partTextColumns, permission: shares.permission })
     .from(parts)
     .leftJoin(
       shares,

@@ -19,11 +19,13 @@ import type { MarkingValues } from "@/lib/markings/schema";
 import { selectPartsXml } from "@/lib/musicxml";
 import type { listPartsQuery, patchPartBody } from "@/lib/parts/schemas";
 import type { z } from "zod";
-import { deletePartById, getPartAccessById, insertPart, listPartsForViewer, newPartValues, storeAnalysisById, storeLineAnalysisById, updatePartById, type PartAccess } from "@/db/parts";
+import { deletePartById, getPartAccessById, getPartTextAccessById, insertPart, listPartsForViewer, newPartValues, storeAnalysisById, storeLineAnalysisById, updatePartById, type PartAccess, type PartTextAccess } from "@/db/parts";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import type { Part } from "@/db/schema";
 import { randomUUID } from "node:crypto";
+import { cache } from "react";
+import { firstTextOf } from "@/lib/engraving/opening";
 
 export function readLimits() {
   const c = config();
@@ -43,7 +45,19 @@ export const PART_NOT_FOUND = "This part does not exist, or it has not been shar
  * not see answers 404 exactly like a part that does not exist.
  */
 export async function loadPart(user: CurrentUser, partId: string, action: Action): Promise<PartAccess> {
-  const access = await getPartAccessById({ partId, viewerId: user.id });
+  return allowed(user, action, await getPartAccessById({ partId, viewerId: user.id }));
+}
+
+/** `loadPart` without the analyses and uploaded bytes: for what draws the part. */
+export async function loadPartText(user: CurrentUser, partId: string, action: Action): Promise<PartTextAccess> {
+  return allowed(user, action, await getPartTextAccessById({ partId, viewerId: user.id }));
+}
+
+/** The part's row read once for a page's render: its title (metadata) and its body ask alike. */
+const readPartForPage = cache((partId: string, viewerId: string) => getPartAccessById({ partId, viewerId }));
+const readPartTextForPage = cache((partId: string, viewerId: string) => getPartTextAccessById({ partId, viewerId }));
+
+function allowed<A extends PartTextAccess>(user: CurrentUser, action: Action, access: A | null): A {
   if (!access) throw new AppError("not_found:part", PART_NOT_FOUND);
   assertCan(user, action, {
     type: "part",
@@ -66,11 +80,18 @@ export interface CreatedPart {
  * and answers "not found" for a part the viewer may not see, exactly as for one that is not there.
  */
 export async function loadPartForPage({ partId, action, path }: { partId: string; action: Action; path: string }): Promise<{ user: CurrentUser; access: PartAccess }> {
+  return loadForPage({ partId, action, path }, readPartForPage);
+}
+
+async function loadForPage<A extends PartTextAccess>(
+  { partId, action, path }: { partId: string; action: Action; path: string },
+  read: (partId: string, viewerId: string) => Promise<A | null>,
+): Promise<{ user: CurrentUser; access: A }> {
   const user = await getCurrentUser();
   if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(path)}`);
   if (!UUID.test(partId)) notFound();
   try {
-    return { user, access: await loadPart(user, partId, action) };
+    return { user, access: allowed(user, action, await read(partId, user.id)) };
   } catch (err) {
     if (err instanceof AppError && (err.status === 404 || err.status === 403)) notFound();
     throw err;
@@ -81,8 +102,11 @@ export async function loadPartForPage({ partId, action, path }: { partId: string
 export async function partTitleForViewer(partId: string): Promise<string | null> {
   const user = await getCurrentUser();
   if (!user || !UUID.test(partId)) return null;
-  const access = await loadPart(user, partId, "part:view").catch(() => null);
-  return access?.part.title ?? null;
+  try {
+    return allowed(user, "part:view", await readPartTextForPage(partId, user.id)).part.title;
+  } catch {
+    return null;
+  }
 }
 
 
@@ -168,7 +192,7 @@ export function lineAnalysisKey(partId: string, line: Line): string {
   return `${ANALYSIS_VERSION}:${partId}:${line}`;
 }
 
-export function partDto(access: PartAccess) {
+export function partDto(access: PartTextAccess) {
   const p = access.part;
   return {
     id: p.id,
@@ -204,7 +228,7 @@ export async function listParts(user: CurrentUser, q: z.infer<typeof listPartsQu
 }
 
 export async function getPart(user: CurrentUser, partId: string): Promise<PartDto> {
-  return partDto(await loadPart(user, partId, "part:view"));
+  return partDto(await loadPartText(user, partId, "part:view"));
 }
 
 /**
@@ -294,13 +318,20 @@ export async function exportPart(user: CurrentUser, partId: string, format: "mus
  * What the workspace page carries: the part, the text to engrave and the markings, so engraving
  * starts without a round trip (the analysis, history and discussion are asked for once drawn).
  */
+/**
+ * The workspace page: the part, its markings and decisions, and the text it engraves first — the
+ * whole text of a short part, only the opening of a long one (`opening`; the browser fetches the
+ * whole text beside the engraving library, so the page stays small and its notes come sooner).
+ */
 export async function loadWorkspace({ partId, path }: { partId: string; path: string }) {
-  const { user, access } = await loadPartForPage({ partId, action: "part:view", path });
+  const { user, access } = await loadForPage({ partId, action: "part:view", path }, readPartTextForPage);
   const [markings, decisions] = await Promise.all([listMarkingsByPartId({ partId }), listDecisionsByPartId({ partId })]);
+  const first = firstTextOf(access.part.musicxml, (xml) => selectPartsXml(xml, [access.part.chosenPartId]));
   return {
     viewerId: user.id,
     part: partDto(access),
-    musicxml: selectPartsXml(access.part.musicxml, [access.part.chosenPartId]),
+    musicxml: first.whole,
+    opening: first.opening,
     markings,
     decisions,
   };

@@ -138,3 +138,6 @@ export function saveRetryDelay(failureCount: number, error: unknown, random = Ma
 }
 
 export const partUrl = (partId: string) => `/api/parts/${encodeURIComponent(partId)}`;
+
+/** The chosen part's MusicXML. */
+export const musicXmlUrl = (partId: string) => `${partUrl(partId)}/musicxml`;

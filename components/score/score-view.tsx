@@ -9,7 +9,8 @@ import { measureNoteBoxes, noteBoxesFromModel, type StageOffset } from "./measur
 import { measureSystems, type SystemBox } from "./measure-systems";
 import { collectOsmdNotes } from "./osmd-note-keys";
 import { findUndrawableMeasures } from "./find-undrawable";
-import { barNumbers, blankMeasures, firstMeasures, listBars, measureCount, mendForEngraving } from "@/lib/engraving/repair";
+import { barNumbers, blankMeasures, firstMeasures, listBars, mendForEngraving } from "@/lib/engraving/repair";
+import { isLongPart, OPENING_BARS } from "@/lib/engraving/opening";
 
 export interface ScoreLayout {
   boxes: NoteBox[];
@@ -20,7 +21,13 @@ export interface ScoreLayout {
 }
 
 export interface ScoreViewProps {
-  xml: string;
+  /** The part's whole text; undefined while it is on its way (only with `opening`). */
+  xml: string | undefined;
+  /**
+   * The first bars of a long part, when the page has them before the whole text: drawn (and
+   * selectable) at once, the whole when it has arrived and the page is idle.
+   */
+  opening?: string | null;
   zoom: number;
   /** Called after every render (load, zoom, resize) with the notes' new positions. */
   onLayout: (layout: ScoreLayout) => void;
@@ -47,9 +54,6 @@ export interface ScoreViewProps {
 }
 
 const RESIZE_DEBOUNCE_MS = 200;
-
-/** A long part's opening, drawn first: a screen or two of music. */
-const OPENING_BARS = 24;
 
 /** What the player reads when some bars are shown as rests. */
 export function leftOutMessage(bars: readonly string[]): string {
@@ -114,7 +118,7 @@ if (typeof window !== "undefined") void loadEngraver();
  * is loaded on pages that show a score. Every render rebuilds its SVG; we never attach anything
  * to it and re-measure the notes instead.
  */
-export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layoutFrom = "model", onSettled, mend = true }: ScoreViewProps) {
+export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTextPx = 0, layoutFrom = "model", onSettled, mend = true }: ScoreViewProps) {
   const stageRef = useRef<HTMLDivElement>(null);
   const hostRef = useRef<HTMLDivElement>(null);
   const osmdRef = useRef<OpenSheetMusicDisplay | null>(null);
@@ -131,6 +135,22 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
     onLayoutRef.current = onLayout;
     onSettledRef.current = onSettled;
   }, [onLayout, onSettled]);
+
+  // The whole text can arrive after the opening was drawn: the drawing waits for it without
+  // starting again. Once the opening given is no longer the part's (a new text), it is not used.
+  const wholeRef = useRef(xml);
+  const wholeArrived = useRef<(() => void) | null>(null);
+  const drawnWholeRef = useRef<string | null>(null);
+  const [openingStale, setOpeningStale] = useState(false);
+  useEffect(() => {
+    wholeRef.current = xml;
+    if (xml === undefined) return;
+    wholeArrived.current?.();
+    if (drawnWholeRef.current !== null && xml !== drawnWholeRef.current) setOpeningStale(true);
+  }, [xml]);
+  const firstOpening = openingStale ? null : opening;
+  // What a fresh engraving starts from: the opening given, else the whole text.
+  const start = firstOpening ?? xml;
 
   // Where the engraving's SVG sits in the stage. Assumed from the last check (the host has no
   // padding, so it starts at 0, 0) and verified once the browser has laid the page out anyway.
@@ -273,15 +293,40 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
       setLeftOut(barNumbers(text, [...bad].sort((a, b) => a - b)));
     };
 
+    /** Once per engraving: what the page holds back until then can be asked for. */
+    let settled = false;
+    const settle = () => {
+      if (settled || cancelled) return;
+      settled = true;
+      onSettledRef.current?.();
+    };
+
+    /** The whole text, mended, once it is there (the page may hold it back until settled). */
+    const whole = async () => {
+      if (wholeRef.current === undefined) {
+        settle();
+        await new Promise<void>((resolve) => (wholeArrived.current = resolve));
+      }
+      const text = wholeRef.current!;
+      drawnWholeRef.current = text;
+      return mend ? mendForEngraving(text) : text;
+    };
+
     (async () => {
       performance.mark("ondula:engraver-import");
       ({ OpenSheetMusicDisplay: OSMD } = await loadEngraver());
       performance.mark("ondula:engraver-loaded");
       if (cancelled) return;
       host.replaceChildren();
-      const text = mend ? mendForEngraving(xml) : xml;
       // A long part: its opening is drawn (and selectable) first, the whole when the page is idle.
-      const opening = fromModel && measureCount(text) > OPENING_BARS * 2 ? mendForEngraving(firstMeasures(text, OPENING_BARS)) : null;
+      // The page may have sent only the opening; otherwise it is cut from the whole text here.
+      let text: string | null = null;
+      let opening: string | null = null;
+      if (firstOpening !== null && fromModel) opening = mendForEngraving(firstOpening);
+      else {
+        text = await whole();
+        opening = fromModel && isLongPart(text) ? mendForEngraving(firstMeasures(text, OPENING_BARS)) : null;
+      }
       let drewOpening = false;
       if (opening) {
         try {
@@ -293,13 +338,14 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
       }
       if (cancelled) return;
       if (drewOpening) {
-        afterPaint(() => !cancelled && onSettledRef.current?.());
+        afterPaint(settle);
         await new Promise<void>((resolve) => afterPaint(() => whenIdle(() => resolve())));
+        text ??= await whole();
         if (cancelled) return;
         await drawWhole(text);
       } else {
-        await drawWhole(text);
-        afterPaint(() => !cancelled && onSettledRef.current?.());
+        await drawWhole(text ?? (await whole()));
+        afterPaint(settle);
       }
     })().catch((e: unknown) => {
       if (cancelled) return;
@@ -312,10 +358,13 @@ export function ScoreView({ xml, zoom, onLayout, children, minTextPx = 0, layout
     });
     return () => {
       cancelled = true;
+      wholeArrived.current = null;
       osmdRef.current = null;
       host.replaceChildren();
     };
-  }, [xml, render, minTextPx, fromModel, attempt, mend]);
+    // `xml` is read through wholeRef: its arrival after the opening does not start again.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [start, render, minTextPx, fromModel, attempt, mend]);
 
   /**
    * Drawing again at a new zoom or width can fail where the first drawing did not (a line of music

@@ -9,9 +9,10 @@ import { K, fakeBoxes } from "@/components/score/test-fixtures";
 
 // The engraving library cannot run in jsdom: the score view reports a fixed layout instead, at
 // once or, while `engraving.hold` is set, when the test calls `engraving.finish()`.
-const engraving = vi.hoisted(() => ({ hold: false, finish: () => {} }));
+const engraving = vi.hoisted(() => ({ hold: false, finish: () => {}, given: [] as Array<{ xml: string | undefined; opening: string | null | undefined }> }));
 vi.mock("@/components/score/score-view", () => ({
-  ScoreView: ({ onLayout, onSettled, children }: ScoreViewProps) => {
+  ScoreView: ({ xml, opening, onLayout, onSettled, children }: ScoreViewProps) => {
+    engraving.given.push({ xml, opening });
     useEffect(() => {
       const publish = () => {
         onLayout({ boxes: fakeBoxes, width: 800, height: 400, systems: [] });
@@ -35,6 +36,9 @@ class FakeServer {
   writesDown: { retryAfter: number } | "network" | null = null;
   /** Marking writes that land but whose answer is lost on the way back. */
   answersLost = 0;
+  /** While set, the part's text is answered only when `sendText()` is called. */
+  holdText = false;
+  sendText = () => {};
   analysis: PartAnalysis = {
     id: "P1", name: "Flute", measureCount: 3, noteCount: 5,
     key: { tonic: "C", mode: "major", fifths: 0, source: "signature" }, localKeys: [],
@@ -71,7 +75,10 @@ class FakeServer {
     const json = (data: unknown, status = 200) => new Response(JSON.stringify(data), { status, headers: { "content-type": "application/json" } });
     if (path === "" && method === "PATCH" && body.line) this.line = body.line;
     if (path === "") return json({ id: "part-1", title: "Little Air", composer: "A. Maker", keyLabel: "C major", tempo: 60, chosenPartId: "P1", ...(this.lowerAnalysis ? { line: this.line } : {}), parts: [], measureCount: 3, noteCount: 5, version: 1, updatedAt: "", permission: "owner" });
-    if (path === "/musicxml") return new Response("<score-partwise/>", { status: 200 });
+    if (path === "/musicxml") {
+      if (this.holdText) await new Promise<void>((resolve) => (this.sendText = resolve));
+      return new Response("<score-partwise/>", { status: 200 });
+    }
     if (path === "/analysis") {
       if (!this.lowerAnalysis) return json(this.analysis);
       const line = url.searchParams.get("line") ?? this.line;
@@ -119,6 +126,7 @@ let server: FakeServer;
 
 beforeEach(() => {
   engraving.hold = false;
+  engraving.given = [];
   // Each test's fetch reaches its own server: a write still retrying from an earlier test never lands in this one.
   const own = (server = new FakeServer());
   vi.stubGlobal("fetch", vi.fn((input: string, init?: RequestInit) => own.fetch(input, init)));
@@ -130,10 +138,10 @@ afterEach(() => {
 
 afterEach(() => onlineManager.setOnline(true));
 
-function open(): { client: QueryClient } {
+function open({ opening }: { opening?: string } = {}): { client: QueryClient } {
   const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
   const wrap = ({ children }: { children: ReactNode }) => <QueryClientProvider client={client}>{children}</QueryClientProvider>;
-  render(<Workspace partId="part-1" />, { wrapper: wrap });
+  render(<Workspace partId="part-1" opening={opening} />, { wrapper: wrap });
   return { client };
 }
 
@@ -155,6 +163,23 @@ async function setDepth(value: string) {
 }
 
 describe("Workspace", () => {
+  it("engraves a long part's opening from the page, asks for the whole text once it is drawn, then hands the whole over", async () => {
+    engraving.hold = true;
+    server.holdText = true;
+    open({ opening: "<score-partwise><!-- the first bars --></score-partwise>" });
+    await screen.findByTestId("score");
+    expect(engraving.given[0]).toEqual({ xml: undefined, opening: "<score-partwise><!-- the first bars --></score-partwise>" });
+    // Nothing competes with drawing the opening: the whole text is asked for after it.
+    await waitFor(() => expect(server.requests.some((r) => r.url === "/api/parts/part-1/markings")).toBe(true));
+    expect(server.requests.filter((r) => r.url === "/api/parts/part-1/musicxml")).toEqual([]);
+    act(() => engraving.finish());
+    // The opening's notes are selectable before the whole text has arrived.
+    await waitFor(() => expect(hit(K[0])).not.toBeNull());
+    await waitFor(() => expect(server.requests.filter((r) => r.url === "/api/parts/part-1/musicxml")).toHaveLength(1));
+    act(() => server.sendText());
+    await waitFor(() => expect(engraving.given.at(-1)).toEqual({ xml: "<score-partwise/>", opening: "<score-partwise><!-- the first bars --></score-partwise>" }));
+  });
+
   it("asks for the analysis, history, comments and notifications only once the score is drawn", async () => {
     engraving.hold = true;
     open();

@@ -51,12 +51,15 @@ import { ShareButton } from "@/components/sharing/share-dialog";
 import { UnreadBadge } from "@/components/ui/unread-badge";
 import { CountBadge } from "@/components/ui/count-badge";
 
-/** The marking workspace of one part: the engraved score with our overlay, and its panels. */
-/** `viewerId`: the signed-in person, so the discussion knows which comments are theirs. */
-export function Workspace({ partId, viewerId = "" }: { partId: string; viewerId?: string }) {
+/**
+ * The marking workspace of one part: the engraved score with our overlay, and its panels.
+ * `viewerId`: the signed-in person, so the discussion knows which comments are theirs.
+ * `opening`: a long part's first bars as the page sent them (its whole text is fetched).
+ */
+export function Workspace({ partId, viewerId = "", opening = null }: { partId: string; viewerId?: string; opening?: string | null }) {
   return (
     <EditorStoreProvider partId={partId}>
-      <WorkspaceScreen partId={partId} viewerId={viewerId} />
+      <WorkspaceScreen partId={partId} viewerId={viewerId} opening={opening} />
     </EditorStoreProvider>
   );
 }
@@ -83,13 +86,16 @@ function prefersReducedMotion(): boolean {
   return typeof window !== "undefined" && window.matchMedia?.("(prefers-reduced-motion: reduce)").matches === true;
 }
 
-function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: string }) {
+function WorkspaceScreen({ partId, viewerId, opening }: { partId: string; viewerId: string; opening: string | null }) {
   const part = usePart(partId);
-  const xml = useMusicXml(partId);
   // What the first drawing does not need is asked for once the score is on the screen (or could
   // not be engraved): on a small machine the requests and the server's answers would otherwise
-  // compete with the engraving and delay its first paint.
+  // compete with the engraving and delay its first paint. That includes a long part's whole text:
+  // its opening came with the page, and the whole is drawn only when the page is idle.
   const [scoreSettled, setScoreSettled] = useState(false);
+  const xml = useMusicXml(partId, { enabled: opening === null || scoreSettled });
+  // What is known of the text so far: the whole, else the opening (the same header and first bars).
+  const text = xml.data ?? opening ?? undefined;
   const afterScore = { enabled: scoreSettled || xml.isError };
   // The player's line of a two-player staff is part of the analysis' key: a change asks again.
   const analysis = useAnalysis(partId, { ...afterScore, line: part.data?.line });
@@ -134,13 +140,13 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
   const noteOrder = useMemo(() => (analysis.data?.notes ?? []).map((n) => n.key), [analysis.data]);
   // A transposing part is shown as written; the player is told how it sounds.
   const sounding = useMemo(() => {
-    const t = xml.data ? transpositionOf(xml.data) : null;
-    return t ? soundingSentence(partNameOf(xml.data!), t, analysis.data?.key ?? null) : null;
-  }, [xml.data, analysis.data]);
+    const t = text ? transpositionOf(text) : null;
+    return t ? soundingSentence(partNameOf(text!), t, analysis.data?.key ?? null) : null;
+  }, [text, analysis.data]);
   const noteMeasures = useMemo(() => (analysis.data?.notes ?? []).map((n) => n.measure), [analysis.data]);
   const notesByKey = useMemo(() => new Map((analysis.data?.notes ?? []).map((n) => [n.key, n])), [analysis.data]);
   const chosenPartId = part.data?.chosenPartId;
-  const bars = useMemo(() => (xml.data && chosenPartId ? writtenBarsFromText(xml.data, chosenPartId) : []), [xml.data, chosenPartId]);
+  const bars = useMemo(() => (text && chosenPartId ? writtenBarsFromText(text, chosenPartId) : []), [text, chosenPartId]);
   const labelOf = useCallback((key: string) => noteLabel(key, bars, notesByKey.get(key)), [bars, notesByKey]);
   const durations = useMemo(() => noteDurations(analysis.data?.notes ?? [], tempo), [analysis.data, tempo]);
   const resolutions = useMemo(() => resolutionsOf(analysis.data?.suggestions ?? []), [analysis.data]);
@@ -502,7 +508,7 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
         </div>
       ) : null}
 
-      <WorkspaceHint showHint={canEdit && xml.data !== undefined && Object.keys(markings).length === 0} />
+      <WorkspaceHint showHint={canEdit && text !== undefined && Object.keys(markings).length === 0} />
 
       <div className="relative flex min-h-0 flex-1">
         <div ref={scrollerRef} className="min-w-0 flex-1 overflow-auto" data-testid="score-scroller" data-scroll-x>
@@ -520,8 +526,11 @@ function WorkspaceScreen({ partId, viewerId }: { partId: string; viewerId: strin
               Arrow keys move from note to note, up and down move by bar, Shift extends the selection, Enter opens the marking
               panel, Escape clears the selection, Delete clears the marking, Ctrl+C and Ctrl+V copy and paste a marking.
             </p>
-            {xml.data ? (
-              <ScoreView xml={xml.data} zoom={zoom} onLayout={onLayout} onSettled={settleScore}>
+            {xml.isError && opening ? (
+              <p className="p-gutter text-danger" role="alert">The rest of the music could not be loaded: {xml.error.message}</p>
+            ) : null}
+            {text ? (
+              <ScoreView xml={xml.data} opening={opening} zoom={zoom} onLayout={onLayout} onSettled={settleScore}>
                 <MarkingOverlay
                   boxes={boxes}
                   width={size.width}

@@ -18,6 +18,8 @@ type SignedInClient = Awaited<ReturnType<typeof createSignedInUser>>["client"];
 
 const APP_URL = process.env.APP_URL ?? "http://127.0.0.1:3000";
 const RUNS = Number(process.env.BENCH_RUNS ?? 7);
+/** The part sizes to time (`BENCH_BARS=1000` times only the long part, e.g. to repeat its runs). */
+const SIZES = (process.env.BENCH_BARS ?? "10,100,300,1000").split(",").map(Number);
 
 /**
  * Records, inside the page, the moment (ms since navigation start) a condition first holds in the
@@ -203,7 +205,7 @@ const section: BenchSection = {
     const rows: Array<Record<string, string | number>> = [];
     let firstPartId = "";
     let markedClicks: number[] = [];
-    for (const bars of [10, 100, 300, 1000]) {
+    for (const bars of SIZES) {
       const xml = new TextEncoder().encode(generatePartXml({ measures: bars, seed: bars }));
       const res = await client.fetch("/api/parts", { method: "POST", body: multipartFile(`bench-${bars}.musicxml`, xml) });
       const { id } = (await res.json()) as { id: string };
@@ -217,7 +219,9 @@ const section: BenchSection = {
       for (let i = 0; i < RUNS; i++) {
         bare.push(await timeToReady(page, `${APP_URL}/dev/bare-score/${id}`));
         workspace.push(await timeToReady(page, `${APP_URL}/parts/${id}`));
+        if (process.env.BENCH_STAGES) console.log(`${bars} bars, workspace run ${i + 1}:`, JSON.stringify(await stagesOf(page)), `bare ${Math.round(bare[i].drawn)}`);
       }
+      console.log(`${bars} bars, workspace ÷ bare run by run:`, workspace.map((w, i) => (w.drawn / bare[i].drawn).toFixed(2)).join(" "));
       if (process.env.BENCH_PROFILE) {
         await profileLoad(page, async () => void (await timeToReady(page, `${APP_URL}/parts/${id}`)), `workspace-${bars}`);
         await profileLoad(page, async () => void (await timeToReady(page, `${APP_URL}/dev/bare-score/${id}`)), `bare-${bars}`);

@@ -2,7 +2,7 @@ import { handle, parseParams } from "@/lib/http/handler";
 import { requireUser } from "@/server/auth/session";
 import { selectPartsXml } from "@/lib/musicxml";
 import { partIdParams } from "@/lib/parts/schemas";
-import { loadPart } from "@/server/parts";
+import { loadPartText } from "@/server/parts";
 
 export const dynamic = "force-dynamic";
 
@@ -10,7 +10,7 @@ export const dynamic = "force-dynamic";
 export const GET = handle(async (_request, { params }) => {
   const { partId } = await parseParams(params, partIdParams);
   const user = await requireUser();
-  const { part } = await loadPart(user, partId, "part:view");
+  const { part } = await loadPartText(user, partId, "part:view");
   return new Response(selectPartsXml(part.musicxml, [part.chosenPartId]), {
     headers: {
       "content-type": "application/vnd.recordare.musicxml+xml; charset=utf-8",
