@@ -46,6 +46,18 @@ const partSummaryColumns = {
   createdAt: parts.createdAt,
 };
 
+/** The viewer's accepted, unrevoked share of the part in the row, joined beside it. */
+const liveShareOf = (viewerId: string) =>
+  and(eq(shares.partId, parts.id), eq(shares.userId, viewerId), isNotNull(shares.acceptedAt), isNull(shares.revokedAt));
+
+/** The viewer's permission from a row of a part and its share: owner, the share's, or none. */
+function grantOf<P extends { ownerId: string }>(row: { part: P; permission: PartPermission | null } | undefined, viewerId: string): { part: P; permission: PartPermission } | null {
+  if (!row) return null;
+  if (row.part.ownerId === viewerId) return { part: row.part, permission: "owner" };
+  if (row.permission) return { part: row.part, permission: row.permission };
+  return null;
+}
+
 /**
  * The part and the viewer's permission on it, or null when the viewer may not see it
  * (owner, or an accepted, unrevoked share). Checked on every request: shares end at once.
@@ -54,16 +66,10 @@ export async function getPartAccessById({ partId, viewerId }: { partId: string; 
   const [row] = await db()
     .select({ part: parts, permission: shares.permission })
     .from(parts)
-    .leftJoin(
-      shares,
-      and(eq(shares.partId, parts.id), eq(shares.userId, viewerId), isNotNull(shares.acceptedAt), isNull(shares.revokedAt)),
-    )
+    .leftJoin(shares, liveShareOf(viewerId))
     .where(eq(parts.id, partId))
     .limit(1);
-  if (!row) return null;
-  if (row.part.ownerId === viewerId) return { part: row.part, permission: "owner" };
-  if (row.permission) return { part: row.part, permission: row.permission };
-  return null;
+  return grantOf(row, viewerId);
 }
 
 const { analysis: _analysis, lineAnalysis: _lineAnalysis, sourceBytes: _sourceBytes, ...partTextColumns } = getTableColumns(parts);
@@ -76,16 +82,10 @@ export async function getPartTextAccessById({ partId, viewerId }: { partId: stri
   const [row] = await db()
     .select({ part: partTextColumns, permission: shares.permission })
     .from(parts)
-    .leftJoin(
-      shares,
-      and(eq(shares.partId, parts.id), eq(shares.userId, viewerId), isNotNull(shares.acceptedAt), isNull(shares.revokedAt)),
-    )
+    .leftJoin(shares, liveShareOf(viewerId))
     .where(eq(parts.id, partId))
     .limit(1);
-  if (!row) return null;
-  if (row.part.ownerId === viewerId) return { part: row.part, permission: "owner" };
-  if (row.permission) return { part: row.part, permission: row.permission };
-  return null;
+  return grantOf(row, viewerId);
 }
 
 /** Who may do what on a part, without the part's text, file or analysis. */

@@ -315,13 +315,10 @@ export async function exportPart(user: CurrentUser, partId: string, format: "mus
 }
 
 /**
- * What the workspace page carries: the part, the text to engrave and the markings, so engraving
- * starts without a round trip (the analysis, history and discussion are asked for once drawn).
- */
-/**
  * The workspace page: the part, its markings and decisions, and the text it engraves first — the
- * whole text of a short part, only the opening of a long one (`opening`; the browser fetches the
- * whole text beside the engraving library, so the page stays small and its notes come sooner).
+ * whole text of a short part, only the opening of a long one (`opening`; the browser asks for the
+ * whole text once the opening is drawn, so the page stays small and its notes come sooner). The
+ * analysis, history and discussion are asked for once drawn.
  */
 export async function loadWorkspace({ partId, path }: { partId: string; path: string }) {
   const { user, access } = await loadForPage({ partId, action: "part:view", path }, readPartTextForPage);

@@ -322,9 +322,10 @@ export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTe
       // The page may have sent only the opening; otherwise it is cut from the whole text here.
       let text: string | null = null;
       let opening: string | null = null;
-      if (firstOpening !== null && fromModel) opening = mendForEngraving(firstOpening);
+      if (firstOpening !== null && fromModel) opening = mend ? mendForEngraving(firstOpening) : firstOpening;
       else {
         text = await whole();
+        // Mended again: the cut can leave a trill line that starts without its stop.
         opening = fromModel && isLongPart(text) ? mendForEngraving(firstMeasures(text, OPENING_BARS)) : null;
       }
       let drewOpening = false;

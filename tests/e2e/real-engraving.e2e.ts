@@ -83,41 +83,37 @@ describe("the real corpus engraves", () => {
     }
   }, 600_000);
 
-  it("draws an analysis's Roman numerals as written, never as no-chord signs (When in Rome, Mozart K. 331)", async () => {
-    // The file writes each numeral as kind "none" spelled by its text attribute: "I6", "V6", …
-    const file = "when-in-rome/piano-sonatas/mozart-k331-1.mxl";
+  /** The texts the engraver drew for a file's part, each with its box on the page. */
+  async function drawnTexts(file: string, partId: string) {
     const page = await context.newPage();
     try {
-      const result = await engravePart(page, file, "P1");
+      const result = await engravePart(page, file, partId);
       expect(result.status).toBe("ready");
-      const texts = await page.locator("[data-score-status] svg text").allTextContents();
-      expect(texts).toContain("I6");
-      expect(texts).toContain("V6");
-      expect(texts.filter((t) => t.trim() === "N.C.")).toEqual([]);
-    } finally {
-      await page.close();
-    }
-  }, 600_000);
-
-  it("draws a tempo's words and metronome mark side by side, not one over the other (ours: the cadenza)", async () => {
-    const file = "ours/cadenza-long-bar.musicxml";
-    const page = await context.newPage();
-    try {
-      const result = await engravePart(page, file, "P1");
-      expect(result.status).toBe("ready");
-      const boxes = await page.locator("[data-score-status] svg text").evaluateAll((els) =>
+      return await page.locator("[data-score-status] svg text").evaluateAll((els) =>
         els.map((e) => {
           const r = e.getBoundingClientRect();
           return { text: e.textContent ?? "", left: r.left, right: r.right, top: r.top, bottom: r.bottom };
         }),
       );
-      const tempo = boxes.find((b) => b.text === "Andante ♩ = 72");
-      expect(tempo, boxes.map((b) => b.text).join(" | ")).toBeTruthy();
-      const overlapping = boxes.filter((b) => b !== tempo && b.left < tempo!.right && b.right > tempo!.left && b.top < tempo!.bottom && b.bottom > tempo!.top);
-      expect(overlapping.map((b) => b.text)).toEqual([]);
     } finally {
       await page.close();
     }
+  }
+
+  it("draws an analysis's Roman numerals as written, never as no-chord signs (When in Rome, Mozart K. 331)", async () => {
+    // The file writes each numeral as kind "none" spelled by its text attribute: "I6", "V6", …
+    const texts = (await drawnTexts("when-in-rome/piano-sonatas/mozart-k331-1.mxl", "P1")).map((b) => b.text);
+    expect(texts).toContain("I6");
+    expect(texts).toContain("V6");
+    expect(texts.filter((t) => t.trim() === "N.C.")).toEqual([]);
+  }, 600_000);
+
+  it("draws a tempo's words and metronome mark side by side, not one over the other (ours: the cadenza)", async () => {
+    const boxes = await drawnTexts("ours/cadenza-long-bar.musicxml", "P1");
+    const tempo = boxes.find((b) => b.text === "Andante ♩ = 72");
+    expect(tempo, boxes.map((b) => b.text).join(" | ")).toBeTruthy();
+    const overlapping = boxes.filter((b) => b !== tempo && b.left < tempo!.right && b.right > tempo!.left && b.top < tempo!.bottom && b.bottom > tempo!.top);
+    expect(overlapping.map((b) => b.text)).toEqual([]);
   }, 600_000);
 
   it("holds the corpus", () => {
