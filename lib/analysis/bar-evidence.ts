@@ -46,6 +46,8 @@ interface Sounding {
   pos: Float64Array;
   end: Float64Array;
   midi: Float64Array;
+  /** The bar its start falls in (on the analysed part's bar lines). */
+  bar: Int32Array;
   count: number;
 }
 
@@ -80,7 +82,7 @@ export function barEvidence(score: ScoreModel, part: PartModel, timeline: Timeli
   }));
   const inMelody = melodyMarks(part.notes, melody);
   const total = score.parts.reduce((c, p) => c + p.notes.length, 0);
-  const sounding: Sounding = { pos: new Float64Array(total), end: new Float64Array(total), midi: new Float64Array(total), count: 0 };
+  const sounding: Sounding = { pos: new Float64Array(total), end: new Float64Array(total), midi: new Float64Array(total), bar: new Int32Array(total), count: 0 };
   for (const p of score.parts) {
     for (let i = 0; i < p.notes.length; i++) {
       const n = p.notes[i];
@@ -95,6 +97,7 @@ export function barEvidence(score: ScoreModel, part: PartModel, timeline: Timeli
       const dur = frac(n.duration);
       sounding.pos[sounding.count] = pos;
       sounding.end[sounding.count] = pos + dur;
+      sounding.bar[sounding.count] = barFrom(timeline, n.measureIndex, pos);
       sounding.midi[sounding.count++] = n.pitch.midi;
       // Spread the note over the beats it sounds in (within its bar).
       const segs = bar.segments;
@@ -109,25 +112,23 @@ export function barEvidence(score: ScoreModel, part: PartModel, timeline: Timeli
       }
     }
   }
-  const segmentAt = (pos: number): Segment => {
-    const b = barOf(timeline, pos);
+  const segmentAt = (b: number, pos: number): Segment => {
     const segs = bars[b].segments;
     return segs[Math.max(0, Math.min(segs.length - 1, Math.floor((pos - timeline.measureStart[b]) / beatLength[b] + 1e-9)))];
   };
-  const mark = (pos: number, key: number, w: number) => {
-    const b = barOf(timeline, pos);
+  const mark = (b: number, pos: number, key: number, w: number) => {
     add(bars[b], key, w);
-    add(segmentAt(pos), key, w);
+    add(segmentAt(b, pos), key, w);
   };
-  const chord = (pos: number, bass: number, pcs: number) => {
-    const seg = segmentAt(pos);
+  const chord = (b: number, pos: number, bass: number, pcs: number) => {
+    const seg = segmentAt(b, pos);
     if (seg.firstBass < 0) {
       seg.firstBass = bass;
       seg.firstPcs = pcs;
     }
   };
   addBassCadences(sounding, mark, chord);
-  addMelodicLeadingTones(melody, bars, mark);
+  addMelodicLeadingTones(melody, bars, timeline, mark);
   return bars;
 }
 
@@ -149,16 +150,15 @@ function melodyMarks(notes: readonly Note[], melody: readonly MelodyNote[]): Uin
   return marks;
 }
 
-function barOf(timeline: Timeline, pos: number): number {
-  // Binary search over bar starts.
-  let lo = 0;
-  let hi = timeline.measureStart.length - 1;
-  while (lo < hi) {
-    const mid = (lo + hi + 1) >> 1;
-    if (timeline.measureStart[mid] <= pos + 1e-9) lo = mid;
-    else hi = mid - 1;
-  }
-  return lo;
+/** The last bar starting at or before `pos`, found from the bar a note is written in: a note
+ * running past its bar's written length (a bar read as written) belongs to the bar it reaches.
+ * Walks forward from the written bar, so a pass over the notes stays linear. */
+function barFrom(timeline: Timeline, written: number, pos: number): number {
+  const starts = timeline.measureStart;
+  let b = Math.min(written, starts.length - 1);
+  while (b > 0 && starts[b] > pos + 1e-9) b--;
+  while (b + 1 < starts.length && starts[b + 1] <= pos + 1e-9) b++;
+  return b;
 }
 
 /** The cadence map of a bar or beat with no cadence yet; never written to. */
@@ -169,11 +169,11 @@ function add(at: { cadence: Map<number, number> }, key: number, w: number): void
   at.cadence.set(key, Math.max(at.cadence.get(key) ?? 0, w));
 }
 
-type Mark = (pos: number, key: number, w: number) => void;
+type Mark = (bar: number, pos: number, key: number, w: number) => void;
 
 /** Chords at each onset (every sounding note), and V → I motions between consecutive chords. */
-function addBassCadences(sounding: Sounding, mark: Mark, chord: (pos: number, bass: number, pcs: number) => void): void {
-  const { pos, end, midi, count } = sounding;
+function addBassCadences(sounding: Sounding, mark: Mark, chord: (bar: number, pos: number, bass: number, pcs: number) => void): void {
+  const { pos, end, midi, bar: barOfNote, count } = sounding;
   if (count === 0) return;
   // The notes by start (ties in the order read); one part's notes come in that order already.
   let order: ArrayLike<number> | null = null;
@@ -186,6 +186,7 @@ function addBassCadences(sounding: Sounding, mark: Mark, chord: (pos: number, ba
   let i = 0;
   while (i < count) {
     const t = pos[at(i)];
+    const bar = barOfNote[at(i)];
     while (i < count && pos[at(i)] <= t + 1e-9) active.push(at(i++));
     // Drop notes that ended; the list holds only what sounds now (a few notes).
     let w = 0;
@@ -202,7 +203,7 @@ function addBassCadences(sounding: Sounding, mark: Mark, chord: (pos: number, ba
       continue;
     }
     const cur = { bass: mod(bass, 12), pcs };
-    chord(t, cur.bass, pcs);
+    chord(bar, t, cur.bass, pcs);
     if (prev && prev.bass !== cur.bass) {
       const tonic = cur.bass;
       const has = (set: number, pc: number) => (set & (1 << mod(pc, 12))) !== 0;
@@ -215,8 +216,8 @@ function addBassCadences(sounding: Sounding, mark: Mark, chord: (pos: number, ba
         const minor = has(cur.pcs, tonic + 3);
         // A major chord with its minor seventh is itself a dominant (V7/IV), no tonic arriving.
         const dominantSeventh = major && has(cur.pcs, tonic + 10);
-        if ((major || !minor) && !dominantSeventh) mark(t, tonic, CADENCE_WEIGHT.bassCadence);
-        if (minor || !major) mark(t, 12 + tonic, CADENCE_WEIGHT.bassCadence);
+        if ((major || !minor) && !dominantSeventh) mark(bar, t, tonic, CADENCE_WEIGHT.bassCadence);
+        if (minor || !major) mark(bar, t, 12 + tonic, CADENCE_WEIGHT.bassCadence);
       }
     }
     prev = cur;
@@ -224,7 +225,7 @@ function addBassCadences(sounding: Sounding, mark: Mark, chord: (pos: number, ba
 }
 
 /** In bars where the melody sounds alone: a note rising a half step to an arrival names that tonic. */
-function addMelodicLeadingTones(melody: readonly MelodyNote[], bars: BarEvidence[], mark: Mark): void {
+function addMelodicLeadingTones(melody: readonly MelodyNote[], bars: BarEvidence[], timeline: Timeline, mark: Mark): void {
   for (let i = 0; i + 1 < melody.length; i++) {
     const n = melody[i];
     const next = melody[i + 1];
@@ -234,8 +235,9 @@ function addMelodicLeadingTones(melody: readonly MelodyNote[], bars: BarEvidence
     const bar = bars[next.measureIndex];
     if (!bar?.melodyOnly) continue;
     const tonic = mod(next.midi, 12);
-    mark(next.pos, tonic, CADENCE_WEIGHT.melodicLeadingTone);
-    mark(next.pos, 12 + tonic, CADENCE_WEIGHT.melodicLeadingTone);
+    const at = barFrom(timeline, next.measureIndex, next.pos);
+    mark(at, next.pos, tonic, CADENCE_WEIGHT.melodicLeadingTone);
+    mark(at, next.pos, 12 + tonic, CADENCE_WEIGHT.melodicLeadingTone);
   }
 }
 

@@ -16,6 +16,7 @@ import { findPhrases } from "./phrases";
 import { asciiName } from "./spelling";
 import { phraseSuggestions, rankByPhrase, tensionSuggestions } from "./suggestions";
 import { findTensions } from "./tension";
+import { orderByKey } from "./order";
 
 /** Bump whenever results change: stored analyses with another version are recomputed. */
 export const ANALYSIS_VERSION = 5;
@@ -113,10 +114,7 @@ export function analyzePart(score: ScoreModel, part: PartModel, options: Analyze
   // Suggestions in time order, then by role, sorted on one number each.
   const placed = [...phraseSuggestions(phrases, ctx), ...tensionSuggestions(tensions, ctx)];
   rankByPhrase(placed, phrases);
-  const suggestions = placed
-    .map(([index, s]) => ({ s, rank: index * 4 + ROLE_ORDER[s.role] }))
-    .sort((a, b) => a.rank - b.rank)
-    .map((x) => x.s);
+  const suggestions = orderByKey(placed, ([index, s]) => index * 4 + ROLE_ORDER[s.role], main.length * 4).map(([, s]) => s);
 
   return {
     id: part.id,

@@ -5,6 +5,7 @@
  * length keeps slivers out (Lerdahl & Jackendoff's GPR 1: avoid groups of a single event).
  */
 import type { Measure } from "@/lib/musicxml/model";
+import { IndexSet } from "./index-set";
 import { lbdmBy } from "./lbdm";
 import type { MelodyNote } from "./melody";
 
@@ -74,58 +75,6 @@ export function peakOf(seq: readonly MelodyNote[], from: number, to: number): nu
     if (n.midi > b.midi || (n.midi === b.midi && (n.dur > b.dur + 1e-9 || (Math.abs(n.dur - b.dur) <= 1e-9 && n.metric > b.metric)))) best = i;
   }
   return best;
-}
-
-/** Sorted set of boundary indexes 0…n−1 with predecessor/successor queries (Fenwick tree). */
-class IndexSet {
-  private tree: Int32Array;
-  private size = 0;
-  private readonly n: number;
-  private readonly top: number;
-
-  constructor(n: number) {
-    this.n = n;
-    this.tree = new Int32Array(n + 1);
-    let t = 1;
-    while (t * 2 <= n) t *= 2;
-    this.top = t;
-  }
-
-  add(i: number): void {
-    this.size++;
-    for (let x = i + 1; x <= this.n; x += x & -x) this.tree[x]++;
-  }
-
-  /** Number of members ≤ i. */
-  private rank(i: number): number {
-    let s = 0;
-    for (let x = i + 1; x > 0; x -= x & -x) s += this.tree[x];
-    return s;
-  }
-
-  /** The c-th smallest member (1-based). */
-  private select(c: number): number {
-    let pos = 0;
-    for (let step = this.top; step > 0; step >>= 1) {
-      if (pos + step <= this.n && this.tree[pos + step] < c) {
-        pos += step;
-        c -= this.tree[pos];
-      }
-    }
-    return pos;
-  }
-
-  /** Largest member ≤ i (−1 if none). */
-  prev(i: number): number {
-    const r = this.rank(i);
-    return r === 0 ? -1 : this.select(r);
-  }
-
-  /** Smallest member > i (`fallback` if none). */
-  next(i: number, fallback: number): number {
-    const r = this.rank(i);
-    return r >= this.size ? fallback : this.select(r + 1);
-  }
 }
 
 /**

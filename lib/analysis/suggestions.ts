@@ -7,6 +7,7 @@ import { describeDegree, displayKey } from "./degree";
 import type { Key } from "./key";
 import type { MelodyNote } from "./melody";
 import type { BoundaryCue, Phrase } from "./phrases";
+import { orderByKey } from "./order";
 import { displayName } from "./spelling";
 import type { TensionFinding, TensionKind } from "./tension";
 
@@ -55,7 +56,7 @@ export function accentOf(n: MelodyNote): number {
 export function rankByPhrase(placed: ReadonlyArray<readonly [number, Suggestion]>, phrases: readonly Phrase[]): void {
   const groups = new Map<number, Array<readonly [number, Suggestion]>>();
   let p = 0;
-  const sorted = [...placed].sort((a, b) => a[0] - b[0]);
+  const sorted = orderByKey(placed, (item) => item[0], placed.reduce((most, item) => Math.max(most, item[0] + 1), 0));
   for (const item of sorted) {
     while (p + 1 < phrases.length && item[0] > phrases[p].end) p++;
     const list = groups.get(p) ?? [];
