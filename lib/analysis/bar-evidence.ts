@@ -241,12 +241,23 @@ function addMelodicLeadingTones(melody: readonly MelodyNote[], bars: BarEvidence
   }
 }
 
-/** The pitch classes outside the melody sounding in the beat of a position in a bar. */
-export function harmonyAt(bars: readonly BarEvidence[], measureIndex: number, onset: number): Set<number> {
+/** The pitch classes outside the melody sounding in the beat of a position in a bar. One set per
+ * combination of pitch classes, made once and shared (a long part asks for thousands). */
+export function harmonyAt(bars: readonly BarEvidence[], measureIndex: number, onset: number): ReadonlySet<number> {
   const bar = bars[measureIndex];
-  const out = new Set<number>();
-  if (!bar) return out;
+  if (!bar) return pitchClassSet(0);
   const seg = bar.segments[Math.max(0, Math.min(bar.segments.length - 1, Math.floor(onset / bar.beatLength + 1e-9)))];
-  for (let pc = 0; pc < 12; pc++) if (seg.harmony & (1 << pc)) out.add(pc);
-  return out;
+  return pitchClassSet(seg.harmony);
+}
+
+const pitchClassSets = new Map<number, ReadonlySet<number>>();
+
+function pitchClassSet(mask: number): ReadonlySet<number> {
+  let set = pitchClassSets.get(mask);
+  if (!set) {
+    const pcs = new Set<number>();
+    for (let pc = 0; pc < 12; pc++) if (mask & (1 << pc)) pcs.add(pc);
+    pitchClassSets.set(mask, (set = pcs));
+  }
+  return set;
 }

@@ -64,12 +64,12 @@ export interface TensionContext {
   seq: readonly MelodyNote[];
   keyAt: (n: MelodyNote) => Key;
   /** Pitch classes the other parts sound at a note's onset (empty set when none). */
-  chordAt: (n: MelodyNote) => Set<number>;
+  chordAt: (n: MelodyNote) => ReadonlySet<number>;
   /** The harmony under a note for judging a leading tone: what sounds at its onset, or over its
    * beat when only one other note sounds (figuration). Defaults to `chordAt`. */
-  harmonyAt?: (n: MelodyNote) => Set<number>;
+  harmonyAt?: (n: MelodyNote) => ReadonlySet<number>;
   /** The other parts' notes sounding at a note's onset, spelled (line of fifths); optional. */
-  spelledAt?: (n: MelodyNote) => Set<number>;
+  spelledAt?: (n: MelodyNote) => ReadonlySet<number>;
   bar: (n: MelodyNote) => string;
 }
 
@@ -172,7 +172,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
   const out: TensionFinding[] = [];
   // The harmony's verdict on a note as the leading tone of the note a half step up; a diminished
   // seventh chord spelled on another root speaks against it.
-  const spelledSupport = (harmony: Set<number>, n: MelodyNote): Support => {
+  const spelledSupport = (harmony: ReadonlySet<number>, n: MelodyNote): Support => {
     const support = dominantSupport(harmony, mod(n.midi + 1, 12));
     if (support !== "leading-tone chord" || !ctx.spelledAt) return support;
     return spelledAsRoot(ctx.spelledAt(n), n.lof) ? support : "against";

@@ -1,12 +1,13 @@
 /**
  * Analysis time of generated 1 000, 10 000 and 100 000-note flute parts, next to the reader's time
  * on the same MusicXML text (the baseline, measured in the same run). Growth should be linear:
- * the µs per note stays flat as the part grows.
+ * the µs per note stays flat as the part grows. Each round handles the same number of notes at
+ * every size.
  */
 import { analyzeScore } from "@/lib/analysis";
 import { readScoreFile } from "@/lib/musicxml";
 import type { BenchSection } from "./index";
-import { medianMs, table } from "./util";
+import { table } from "./util";
 
 const STEPS = ["C", "D", "E", "F", "G", "A", "B"] as const;
 
@@ -66,9 +67,25 @@ export function generatePart(noteCount: number, seed = 7): string {
 const gc = (globalThis as { gc?: () => void }).gc;
 const collect = () => gc?.();
 
+/** Notes handled in each timed round, whatever the part's size. */
+const ROUND_NOTES = 100_000;
+
+/** Wall time and this process's processor time (every thread: the collector's helpers too) of a
+ * call, in ms. Processor time leaves out the waits for a core that other work on a shared machine
+ * causes. */
+function measure(fn: () => void): { wall: number; cpu: number } {
+  const cpu0 = process.cpuUsage();
+  const t0 = performance.now();
+  fn();
+  const wall = performance.now() - t0;
+  const cpu = process.cpuUsage(cpu0);
+  return { wall, cpu: (cpu.user + cpu.system) / 1000 };
+}
+
+const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+
 async function run(): Promise<void> {
-  const rows: Array<Record<string, string | number>> = [];
-  for (const n of [1_000, 10_000, 100_000]) {
+  const sizes = [1_000, 10_000, 100_000].map((n) => {
     const bytes = new TextEncoder().encode(generatePart(n));
     const limits = { maxNotes: n + 10, maxFileBytes: Infinity };
     const read = () => readScoreFile(bytes, "bench.musicxml", limits);
@@ -78,37 +95,49 @@ async function run(): Promise<void> {
       read();
       analyze();
     }
-    // Interleaved rounds, so both see the same load on a shared machine; medians reported, and
-    // the fastest round (the least disturbed by other work) beside them.
-    const rounds = n >= 100_000 ? 9 : 21;
-    const reads: number[] = [];
-    const analyses: number[] = [];
-    for (let i = 0; i < rounds; i++) {
+    // Every round handles the same number of notes at every size (100 parts of 1,000 notes, 10 of
+    // 10,000, one of 100,000), so that each round pays its share of the collector's work: one
+    // short call can finish between two collections, which would make a small part look cheaper
+    // per note than it is. Times are per call (the round's time ÷ its calls).
+    const calls = Math.max(1, Math.round(ROUND_NOTES / n));
+    const repeated = (fn: () => unknown) => () => {
+      for (let c = 0; c < calls; c++) fn();
+    };
+    return { n, bytes: bytes.length, calls, read: repeated(read), analyze: repeated(analyze), reads: [] as number[], analyses: [] as number[], analysisCpu: [] as number[] };
+  });
+  // Rounds interleave the sizes and the two tasks, so all see the same load on a shared machine;
+  // medians reported, and the fastest round (the least disturbed by other work) beside them.
+  for (let round = 0; round < 9; round++) {
+    for (const size of sizes) {
       collect();
-      reads.push(await medianMs(read, 1, 0));
+      size.reads.push(measure(size.read).wall / size.calls);
       collect();
-      analyses.push(await medianMs(analyze, 1, 0));
+      const a = measure(size.analyze);
+      size.analyses.push(a.wall / size.calls);
+      size.analysisCpu.push(a.cpu / size.calls);
     }
-    const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+  }
+  const rows: Array<Record<string, string | number>> = sizes.map(({ n, bytes, reads, analyses, analysisCpu }) => {
     const readMs = median(reads);
     const analyzeMs = median(analyses);
-    const analyzeMin = Math.min(...analyses);
-    rows.push({
+    const perNote = (ms: number) => Number(((ms * 1000) / n).toFixed(2));
+    return {
       notes: n,
-      "text MB": Number((bytes.length / 1e6).toFixed(2)),
+      "text MB": Number((bytes / 1e6).toFixed(2)),
       "read ms (baseline)": Number(readMs.toFixed(1)),
       "analyze ms": Number(analyzeMs.toFixed(1)),
       "analyze / read": Number((analyzeMs / readMs).toFixed(2)),
-      "analyze µs/note": Number(((analyzeMs * 1000) / n).toFixed(2)),
-      "fastest µs/note": Number(((analyzeMin * 1000) / n).toFixed(2)),
-      "read µs/note": Number(((readMs * 1000) / n).toFixed(2)),
-    });
-  }
+      "analyze µs/note": perNote(analyzeMs),
+      "fastest µs/note": perNote(Math.min(...analyses)),
+      "processor µs/note": perNote(median(analysisCpu)),
+      "read µs/note": perNote(readMs),
+    };
+  });
   table(rows);
   const growth = (key: string) => ((rows[2][key] as number) / (rows[1][key] as number)).toFixed(2);
   console.log(
-    `analysis µs/note from 10 000 to 100 000 notes: ×${growth("analyze µs/note")} (median), ×${growth("fastest µs/note")} (fastest round); ` +
-      `the reader's ×${growth("read µs/note")} (linear growth keeps these near 1)${gc ? "; collected before each call" : ""}`,
+    `analysis µs/note from 10 000 to 100 000 notes: ×${growth("analyze µs/note")} (median), ×${growth("fastest µs/note")} (fastest round), ` +
+      `×${growth("processor µs/note")} (processor time); the reader's ×${growth("read µs/note")} (linear growth keeps these near 1)${gc ? "; collected before each call" : ""}`,
   );
 }
 
