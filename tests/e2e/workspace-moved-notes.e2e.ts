@@ -73,8 +73,12 @@ describe("the workspace on notes the engraver moves off their written time", () 
     const pageKeys = await page.locator('[data-layer="hits"] [data-note-key]').evaluateAll((els) => els.map((e) => e.getAttribute("data-note-key")!));
     expect(pageKeys.filter((k) => !serverKeys.includes(k))).toEqual([]);
 
-    const key = WRITTEN[1];
-    await hit(page, key).click();
+    // The first A3 (written at 3/2, engraved at 1/1); the second is drawn where the bass's A2 of
+    // voice 6 stands, whose taller target takes the clicks there. Clicked just above its notehead.
+    const key = WRITTEN[0];
+    const target = (await hit(page, key).boundingBox())!;
+    const centreAt = Number(await hit(page, key).getAttribute("data-centre-at"));
+    await hit(page, key).click({ position: { x: target.width * centreAt, y: target.height - 12 } });
     const panel = page.getByTestId("marking-panel");
     await panel.waitFor();
     // The analysis knows the note: the panel names its bar and pitch.
@@ -83,7 +87,8 @@ describe("the workspace on notes the engraver moves off their written time", () 
     await panel.getByLabel("Depth", { exact: true }).fill("24");
     await panel.getByLabel("Depth", { exact: true }).press("Enter");
     const answer = await put;
-    expect(answer.status()).toBe(200);
+    // The server knows the note: the first marking on it is created (201), not refused (404).
+    expect(answer.status()).toBe(201);
     await glyph(page, "wave", key).waitFor();
     await page.waitForFunction(() => document.querySelector('[data-testid="save-state"]')?.getAttribute("data-state") === "saved");
     await page.screenshot({ path: screenshotPath("workspace-moved-notes"), fullPage: false });
