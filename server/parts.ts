@@ -25,7 +25,7 @@ import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import type { Part } from "@/db/schema";
 import { randomUUID } from "node:crypto";
 import { cache } from "react";
-import { firstTextOf } from "@/lib/engraving/opening";
+import { firstTextOf, openingNoteKeys } from "@/lib/engraving/opening";
 
 export function readLimits() {
   const c = config();
@@ -288,6 +288,15 @@ export async function getPartAnalysis(user: CurrentUser, partId: string, line?: 
   return chosenPartAnalysis(part, line ?? part.line);
 }
 
+/**
+ * The chosen part's note keys, as the reader keys them: the page keys its drawn notes by them
+ * (the engraver can place a note at another time than written; see lib/musicxml/reconcile-keys.ts).
+ */
+export async function getPartNoteKeys(user: CurrentUser, partId: string): Promise<{ keys: string[] }> {
+  const { part } = await loadPartText(user, partId, "part:view");
+  return { keys: part.noteKeys };
+}
+
 function fileStem(title: string): string {
   return title.replace(/[^\w\- ]+/g, "").trim().replace(/\s+/g, "-").toLowerCase() || "part";
 }
@@ -329,6 +338,10 @@ export async function loadWorkspace({ partId, path }: { partId: string; path: st
     part: partDto(access),
     musicxml: first.whole,
     opening: first.opening,
+    // The keys travel like the text: all of a short part's, only the opening's of a long one (the
+    // whole list is fetched with the whole text).
+    noteKeys: first.whole !== null ? access.part.noteKeys : null,
+    openingKeys: first.opening !== null ? openingNoteKeys(access.part.noteKeys) : null,
     markings,
     decisions,
   };

@@ -30,6 +30,8 @@ export async function loadStandCopy({ partId, path, options }: { partId: string;
     tempo: workingTempoOf(part),
     playerName: owner?.name ?? "",
     xml: selectPartsXml(part.musicxml, [part.chosenPartId]),
+    /** The server's note keys: the engraved notes are keyed by them (markings attach to them). */
+    noteKeys: part.noteKeys,
     markings,
     notes: analysis.notes,
     /** The part's bars as written, to name them as the part does. */

@@ -19,6 +19,8 @@ export async function loadStandView({ partId, path }: { partId: string; path: st
     composer: part.composer,
     tempo: workingTempoOf(part),
     xml: selectPartsXml(part.musicxml, [part.chosenPartId]),
+    /** The server's note keys: the engraved notes are keyed by them (markings attach to them). */
+    noteKeys: part.noteKeys,
     markings,
     notes: analysis.notes.map(({ key, duration }) => ({ key, duration })),
     resolutions: resolutionsOf(analysis.suggestions),

@@ -10,6 +10,8 @@ export const partKeys = {
   samples: () => ["parts", "samples"] as const,
   detail: (partId: string) => ["parts", partId] as const,
   musicxml: (partId: string) => ["parts", partId, "musicxml"] as const,
+  /** The chosen part's note keys as the server keys them (what a marking may attach to). */
+  noteKeys: (partId: string) => ["parts", partId, "note-keys"] as const,
   /** The analysis on a line of a two-player staff; "chosen" = the player's line as stored. */
   analysis: (partId: string, line: "upper" | "lower" | "chosen" = "chosen") => ["parts", partId, "analysis", line] as const,
 };

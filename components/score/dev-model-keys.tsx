@@ -2,11 +2,19 @@
 
 import { useEffect, useRef, useState } from "react";
 import { sheetNoteKeys } from "./osmd-note-keys";
+import { sortNoteKeys } from "@/lib/musicxml/key-order";
+import { reconcileNoteKeys } from "@/lib/musicxml/reconcile-keys";
+
+/** The browser's keys of a text; with the server's keys, also the browser's keys mapped onto them. */
+export type ModelKeysAnswer = { keys: string[]; mapped?: string[]; unmapped?: string[] } | { error: string };
 
 declare global {
   interface Window {
-    /** Set by the development note-keys page: the browser's keys of a partwise text, from the loaded model. */
-    __ondulaModelKeys?: (xml: string) => Promise<{ keys: string[] } | { error: string }>;
+    /**
+     * Set by the development note-keys page: the browser's keys of a partwise text, from the loaded
+     * model; given the server's keys, also mapped onto them as the pages map them.
+     */
+    __ondulaModelKeys?: (xml: string, serverKeys?: string[]) => Promise<ModelKeysAnswer>;
   }
 }
 
@@ -26,7 +34,7 @@ export function DevModelKeys() {
       const el = host.current;
       if (cancelled || !el) return;
       const osmd = new OpenSheetMusicDisplay(el, { backend: "svg", autoResize: false, drawTitle: false });
-      window.__ondulaModelKeys = async (xml: string) => {
+      window.__ondulaModelKeys = async (xml: string, serverKeys?: string[]) => {
         const before = osmd.Sheet;
         try {
           await osmd.load(xml);
@@ -35,7 +43,11 @@ export function DevModelKeys() {
           // draw still has its model read (drawing it is the engraving's concern, not the keys').
           if (!osmd.Sheet || osmd.Sheet === before) return { error: err instanceof Error ? err.message : String(err) };
         }
-        return { keys: sheetNoteKeys(osmd.Sheet) };
+        const keys = sheetNoteKeys(osmd.Sheet);
+        if (!serverKeys) return { keys };
+        const result = reconcileNoteKeys(keys, serverKeys);
+        const parts = osmd.Sheet.Instruments.map((instrument) => instrument.IdString);
+        return { keys, mapped: sortNoteKeys(result.keys, parts), unmapped: result.unmapped };
       };
       setReady(true);
     })();

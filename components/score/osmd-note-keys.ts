@@ -7,6 +7,7 @@
 import type { GraphicalNote, MusicSheet, Note, OpenSheetMusicDisplay, VexFlowGraphicalNote } from "opensheetmusicdisplay";
 import { sortNoteKeys } from "@/lib/musicxml/key-order";
 import { noteKey } from "@/lib/musicxml/note-key";
+import { reconcileNoteKeys } from "@/lib/musicxml/reconcile-keys";
 
 export interface OsmdNoteRef {
   /** The note key; "" for rests (they are never marked). */
@@ -105,6 +106,40 @@ export function collectOsmdNotes(osmd: OpenSheetMusicDisplay): OsmdNoteRef[] {
     }
   });
   return refs;
+}
+
+/** The server's keys of the part a page draws. */
+export interface ServerNoteKeys {
+  keys: readonly string[];
+  /** Set when the list covers only the first this many measures (a long part's opening). */
+  measures?: number | null;
+}
+
+/**
+ * The notes with the server's keys (lib/musicxml/reconcile-keys.ts): a note the engraver placed
+ * at another time than the one written gets the key of the server's note it stands for. A note
+ * that cannot be paired gets no key (it cannot be selected: a marking on it would name no note of
+ * the part) and is returned in `unmapped`, so the page can say so. Without a server list, the
+ * page's own keys are kept.
+ */
+export function keyNotesAsServer(refs: readonly OsmdNoteRef[], server: ServerNoteKeys | null | undefined): { refs: OsmdNoteRef[]; unmapped: OsmdNoteRef[] } {
+  if (!server) return { refs: [...refs], unmapped: [] };
+  const result = reconcileNoteKeys(
+    refs.map((ref) => ref.key),
+    server.keys,
+    { measures: server.measures },
+  );
+  const unknown = new Set(result.unmapped);
+  const unmapped: OsmdNoteRef[] = [];
+  const keyed = refs.map((ref, i) => {
+    if (unknown.has(ref.key)) {
+      if (!ref.isTieContinuation) unmapped.push(ref);
+      return { ...ref, key: "" };
+    }
+    const key = result.keys[i];
+    return key === ref.key ? ref : { ...ref, key };
+  });
+  return { refs: keyed, unmapped };
 }
 
 /**

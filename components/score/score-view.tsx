@@ -7,7 +7,7 @@ import type { OpenSheetMusicDisplay } from "opensheetmusicdisplay";
 import { glyphBandHeight, type NoteBox } from "@/lib/markings/glyph-geometry";
 import { measureNoteBoxes, noteBoxesFromModel, type StageOffset } from "./measure-note-boxes";
 import { measureSystems, type SystemBox } from "./measure-systems";
-import { collectOsmdNotes } from "./osmd-note-keys";
+import { collectOsmdNotes, keyNotesAsServer, type ServerNoteKeys } from "./osmd-note-keys";
 import { findUndrawableMeasures } from "./find-undrawable";
 import { barNumbers, blankMeasures, firstMeasures, listBars, mendForEngraving } from "@/lib/engraving/repair";
 import { isLongPart, OPENING_BARS } from "@/lib/engraving/opening";
@@ -51,6 +51,13 @@ export interface ScoreViewProps {
    * checks the search for bars the engraver cannot draw).
    */
   mend?: boolean;
+  /**
+   * The server's keys of the part (or of its opening): the notes take the server's keys where the
+   * engraver placed one at another time than written (osmd-note-keys.ts `keyNotesAsServer`).
+   * Without it the engraver's own keys are used. Keep the same object while the list is the same:
+   * a new one lays the notes out again.
+   */
+  noteKeys?: ServerNoteKeys | null;
 }
 
 const RESIZE_DEBOUNCE_MS = 200;
@@ -59,6 +66,11 @@ const RESIZE_DEBOUNCE_MS = 200;
 export function leftOutMessage(bars: readonly string[]): string {
   const one = bars.length === 1;
   return `The music of ${listBars(bars)} could not be drawn here, so ${one ? "it is" : "they are"} shown as ${one ? "a rest bar" : "rest bars"}. ${one ? "Its" : "Their"} notes are still in the part: analysis, practice and playback use them.`;
+}
+
+/** What the player reads when some notes cannot be matched to the part's notes. */
+export function unmatchedMessage(bars: readonly string[]): string {
+  return `Some notes of ${listBars(bars)} could not be matched to the part's notes, so they cannot be marked here. Reload the page; if they stay unmarkable, upload the file again.`;
 }
 
 /** Runs `fn` in the task after the next frame has been painted. */
@@ -118,7 +130,7 @@ if (typeof window !== "undefined") void loadEngraver();
  * is loaded on pages that show a score. Every render rebuilds its SVG; we never attach anything
  * to it and re-measure the notes instead.
  */
-export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTextPx = 0, layoutFrom = "model", onSettled, mend = true }: ScoreViewProps) {
+export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTextPx = 0, layoutFrom = "model", onSettled, mend = true, noteKeys = null }: ScoreViewProps) {
   const stageRef = useRef<HTMLDivElement>(null);
   const hostRef = useRef<HTMLDivElement>(null);
   const osmdRef = useRef<OpenSheetMusicDisplay | null>(null);
@@ -127,6 +139,11 @@ export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTe
   const [status, setStatus] = useState<"loading" | "ready" | "error">("loading");
   /** Written numbers of the bars drawn as rest bars because the engraver could not draw them. */
   const [leftOut, setLeftOut] = useState<string[]>([]);
+  /** Written numbers of the bars holding notes that could not be given the server's keys. */
+  const [unmatched, setUnmatched] = useState<string[]>([]);
+  const noteKeysRef = useRef(noteKeys);
+  /** The text last drawn (opening or whole), to name its bars. */
+  const drawnTextRef = useRef<string | null>(null);
   /** Counts fresh engravings asked for after a redraw failed. */
   const [attempt, setAttempt] = useState(0);
 
@@ -163,13 +180,22 @@ export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTe
     onLayoutRef.current(layout);
   }, []);
 
+  /** The drawn notes, keyed as the server keys them; notes that cannot be are named to the player. */
+  const notesOf = useCallback((osmd: OpenSheetMusicDisplay) => {
+    const { refs, unmapped } = keyNotesAsServer(collectOsmdNotes(osmd), noteKeysRef.current);
+    const text = drawnTextRef.current;
+    const bars = unmapped.length > 0 && text ? barNumbers(text, [...new Set(unmapped.map((ref) => ref.measureIndex))].sort((a, b) => a - b)) : [];
+    setUnmatched((before) => (before.length === bars.length && before.every((b, i) => b === bars[i]) ? before : bars));
+    return refs;
+  }, []);
+
   /** Right after engraving: positions from the engraver's model, without forcing a layout. */
   const measure = useCallback(() => {
     const osmd = osmdRef.current;
     const stage = stageRef.current;
     if (!osmd || !stage) return;
     const zoom = zoomRef.current;
-    const refs = collectOsmdNotes(osmd);
+    const refs = notesOf(osmd);
     if (!fromModel) {
       const origin = stage.getBoundingClientRect();
       const at = stage.querySelector(ENGRAVING_SVG)?.getBoundingClientRect() ?? origin;
@@ -181,7 +207,7 @@ export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTe
     const offset = offsetRef.current;
     const size = engravedSize(stage, offset);
     publish({ boxes, width: size.width, height: size.height, systems: measureSystems(osmd, offset, zoom) });
-  }, [publish, fromModel]);
+  }, [publish, fromModel, notesOf]);
 
   /**
    * After the next paint, when the browser's boxes cost little: measure the drawing itself and
@@ -204,7 +230,7 @@ export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTe
         const offset = { left: at.left - origin.left, top: at.top - origin.top };
         const moved = Math.abs(offset.left - offsetRef.current.left) > 0.5 || Math.abs(offset.top - offsetRef.current.top) > 0.5;
         offsetRef.current = offset;
-        const drawn = measureNoteBoxes(collectOsmdNotes(osmd), stage, zoom);
+        const drawn = measureNoteBoxes(notesOf(osmd), stage, zoom);
         const boxes = moved ? drawn : unionBoxes(last.boxes, drawn);
         stage.dataset.layout = "drawn";
         if (!moved && sameBoxes(last.boxes, boxes)) return;
@@ -212,7 +238,7 @@ export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTe
         publish({ boxes, width: size.width, height: size.height, systems: measureSystems(osmd, offset, zoom) });
       }),
     );
-  }, [publish]);
+  }, [publish, notesOf]);
 
   const render = useCallback(() => {
     const osmd = osmdRef.current;
@@ -257,6 +283,7 @@ export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTe
       if (cancelled) return;
       host.replaceChildren();
       osmdRef.current = osmd;
+      drawnTextRef.current = text;
       let failure: unknown = null;
       // The notes' positions, the overlay and the ready state reach the DOM in this same task, so
       // the browser lays out and paints the engraving once, with everything on it. Left to
@@ -380,6 +407,15 @@ export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTe
     }
   }, [render]);
 
+  // A new key list (a long part's whole list after its opening's): the same drawing, keyed anew.
+  useEffect(() => {
+    if (noteKeysRef.current === noteKeys) return;
+    noteKeysRef.current = noteKeys;
+    if (!osmdRef.current) return;
+    measure();
+    if (fromModel) refine();
+  }, [noteKeys, measure, refine, fromModel]);
+
   useEffect(() => {
     if (zoomRef.current === zoom) return;
     zoomRef.current = zoom;
@@ -414,6 +450,11 @@ export function ScoreView({ xml, opening = null, zoom, onLayout, children, minTe
       {leftOut.length > 0 ? (
         <p className="mx-gutter mb-2 rounded-card border border-rule bg-paper-card px-3 py-2 text-sm" role="status" data-testid="bars-left-out">
           {leftOutMessage(leftOut)}
+        </p>
+      ) : null}
+      {unmatched.length > 0 && status === "ready" ? (
+        <p className="mx-gutter mb-2 rounded-card border border-rule bg-paper-card px-3 py-2 text-sm" role="status" data-testid="notes-unmatched">
+          {unmatchedMessage(unmatched)}
         </p>
       ) : null}
       <div ref={hostRef} aria-hidden="true" data-engraving="" />

@@ -4,6 +4,7 @@ import { useCallback, useEffect, useId, useMemo, useRef, useState } from "react"
 import type { MarkingState } from "@/lib/markings/changes";
 import { MarkingOverlay, type PendingSuggestion } from "./marking-overlay";
 import { ScoreView, type ScoreLayout } from "./score-view";
+import type { ServerNoteKeys } from "./osmd-note-keys";
 import { buildSystemSlices } from "./system-slices";
 import { writtenBarsFromText } from "@/lib/musicxml/bar-names";
 import { measureSky, type SkyBox } from "./engraving-sky";
@@ -12,6 +13,8 @@ import { ENGRAVING_SVG } from "./engraving-options";
 
 export interface StandCopyScoreProps {
   xml: string;
+  /** The server's note keys of the part (see ScoreView's `noteKeys`). */
+  noteKeys?: ServerNoteKeys | null;
   /** The printable width in CSS pixels: the engraving is laid out at exactly this width. */
   width: number;
   zoom: number;
@@ -31,7 +34,7 @@ const NO_SELECTION = { keys: [], focus: null, anchor: null };
  * and overlay are drawn off-screen at the paper's width, then cut into systems (see
  * system-slices.ts) so print and PDF keep every system whole on a page.
  */
-export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolutions, durations, commentCounts, onSystems }: StandCopyScoreProps) {
+export function StandCopyScore({ xml, noteKeys = null, width, zoom, markings, suggestions, resolutions, durations, commentCounts, onSystems }: StandCopyScoreProps) {
   const sourceRef = useRef<HTMLDivElement>(null);
   const slicesRef = useRef<HTMLDivElement>(null);
   const [layout, setLayout] = useState<ScoreLayout | null>(null);
@@ -91,7 +94,7 @@ export function StandCopyScore({ xml, width, zoom, markings, suggestions, resolu
           measured from it is in the paper's own pixels on any screen. */}
       <div ref={sourceRef} className="pointer-events-none h-0 overflow-hidden [zoom:calc(1/var(--stand-zoom,1))] print:[zoom:1]" aria-hidden="true" inert>
         <div style={{ width }}>
-          <ScoreView xml={xml} zoom={zoom} onLayout={onLayout} minTextPx={GLYPH_TEXT_PX} layoutFrom="drawing">
+          <ScoreView xml={xml} noteKeys={noteKeys} zoom={zoom} onLayout={onLayout} minTextPx={GLYPH_TEXT_PX} layoutFrom="drawing">
             {layout ? (
               <MarkingOverlay
                 boxes={layout.boxes}

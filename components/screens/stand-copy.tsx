@@ -23,6 +23,8 @@ export interface StandCopyData {
   tempo: number | null;
   playerName: string;
   xml: string;
+  /** The server's note keys of the part: the engraved notes are keyed by them. */
+  noteKeys: string[];
   markings: MarkingDto[];
   notes: AnalyzedNote[];
   /** The part's bars as written (lib/musicxml/bar-names.ts). */
@@ -76,6 +78,7 @@ export function StandCopy({ data }: { data: StandCopyData }) {
   const [pdfState, setPdfState] = useState<{ kind: "idle" | "working" | "done" | "error"; message?: string }>({ kind: "idle" });
 
   const markings = useMemo(() => toState(data.markings), [data.markings]);
+  const noteKeys = useMemo(() => ({ keys: data.noteKeys }), [data.noteKeys]);
   const durations = useMemo(() => noteDurations(data.notes, data.tempo), [data.notes, data.tempo]);
   const byKey = useMemo(() => new Map(data.notes.map((n) => [n.key, n])), [data.notes]);
   const suggestions = useMemo(
@@ -188,6 +191,7 @@ export function StandCopy({ data }: { data: StandCopyData }) {
           // A new paper width is a new engraving (and new systems).
           key={options.paper}
           xml={data.xml}
+          noteKeys={noteKeys}
           width={width}
           zoom={PRINT_ZOOM}
           markings={markings}

@@ -9,10 +9,16 @@ import { K, fakeBoxes } from "@/components/score/test-fixtures";
 
 // The engraving library cannot run in jsdom: the score view reports a fixed layout instead, at
 // once or, while `engraving.hold` is set, when the test calls `engraving.finish()`.
-const engraving = vi.hoisted(() => ({ hold: false, finish: () => {}, given: [] as Array<{ xml: string | undefined; opening: string | null | undefined }> }));
+const engraving = vi.hoisted(() => ({
+  hold: false,
+  finish: () => {},
+  given: [] as Array<{ xml: string | undefined; opening: string | null | undefined }>,
+  keys: [] as Array<ScoreViewProps["noteKeys"]>,
+}));
 vi.mock("@/components/score/score-view", () => ({
-  ScoreView: ({ xml, opening, onLayout, onSettled, children }: ScoreViewProps) => {
+  ScoreView: ({ xml, opening, onLayout, onSettled, noteKeys, children }: ScoreViewProps) => {
     engraving.given.push({ xml, opening });
+    engraving.keys.push(noteKeys);
     useEffect(() => {
       const publish = () => {
         onLayout({ boxes: fakeBoxes, width: 800, height: 400, systems: [] });
@@ -79,6 +85,7 @@ class FakeServer {
       if (this.holdText) await new Promise<void>((resolve) => (this.sendText = resolve));
       return new Response("<score-partwise/>", { status: 200 });
     }
+    if (path === "/note-keys") return json({ keys: fakeBoxes.map((b) => b.key) });
     if (path === "/analysis") {
       if (!this.lowerAnalysis) return json(this.analysis);
       const line = url.searchParams.get("line") ?? this.line;
@@ -127,6 +134,7 @@ let server: FakeServer;
 beforeEach(() => {
   engraving.hold = false;
   engraving.given = [];
+  engraving.keys = [];
   // Each test's fetch reaches its own server: a write still retrying from an earlier test never lands in this one.
   const own = (server = new FakeServer());
   vi.stubGlobal("fetch", vi.fn((input: string, init?: RequestInit) => own.fetch(input, init)));
@@ -138,10 +146,10 @@ afterEach(() => {
 
 afterEach(() => onlineManager.setOnline(true));
 
-function open({ opening }: { opening?: string } = {}): { client: QueryClient } {
+function open({ opening, openingKeys }: { opening?: string; openingKeys?: string[] } = {}): { client: QueryClient } {
   const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
   const wrap = ({ children }: { children: ReactNode }) => <QueryClientProvider client={client}>{children}</QueryClientProvider>;
-  render(<Workspace partId="part-1" opening={opening} />, { wrapper: wrap });
+  render(<Workspace partId="part-1" opening={opening} openingKeys={openingKeys} />, { wrapper: wrap });
   return { client };
 }
 
@@ -166,18 +174,22 @@ describe("Workspace", () => {
   it("engraves a long part's opening from the page, asks for the whole text once it is drawn, then hands the whole over", async () => {
     engraving.hold = true;
     server.holdText = true;
-    open({ opening: "<score-partwise><!-- the first bars --></score-partwise>" });
+    open({ opening: "<score-partwise><!-- the first bars --></score-partwise>", openingKeys: [K[0], K[1]] });
     await screen.findByTestId("score");
     expect(engraving.given[0]).toEqual({ xml: undefined, opening: "<score-partwise><!-- the first bars --></score-partwise>" });
+    // The opening is keyed by the server's keys of its bars, said to cover only the opening.
+    expect(engraving.keys[0]).toEqual({ keys: [K[0], K[1]], measures: 16 });
     // Nothing competes with drawing the opening: the whole text is asked for after it.
     await waitFor(() => expect(server.requests.some((r) => r.url === "/api/parts/part-1/markings")).toBe(true));
-    expect(server.requests.filter((r) => r.url === "/api/parts/part-1/musicxml")).toEqual([]);
+    expect(server.requests.filter((r) => r.url === "/api/parts/part-1/musicxml" || r.url === "/api/parts/part-1/note-keys")).toEqual([]);
     act(() => engraving.finish());
     // The opening's notes are selectable before the whole text has arrived.
     await waitFor(() => expect(hit(K[0])).not.toBeNull());
     await waitFor(() => expect(server.requests.filter((r) => r.url === "/api/parts/part-1/musicxml")).toHaveLength(1));
     act(() => server.sendText());
     await waitFor(() => expect(engraving.given.at(-1)).toEqual({ xml: "<score-partwise/>", opening: "<score-partwise><!-- the first bars --></score-partwise>" }));
+    // The whole list came with the whole text and replaces the opening's.
+    await waitFor(() => expect(engraving.keys.at(-1)).toEqual({ keys: fakeBoxes.map((b) => b.key) }));
   });
 
   it("asks for the analysis, history, comments and notifications only once the score is drawn", async () => {

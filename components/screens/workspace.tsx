@@ -21,6 +21,9 @@ import { LineChoice } from "@/components/score/line-choice";
 import { useHistory } from "@/components/score/api/get-history";
 import { useMarkings } from "@/components/score/api/get-markings";
 import { useMusicXml } from "@/components/score/api/get-musicxml";
+import { useNoteKeys } from "@/components/score/api/get-note-keys";
+import type { ServerNoteKeys } from "@/components/score/osmd-note-keys";
+import { OPENING_BARS } from "@/lib/engraving/opening";
 import { usePart } from "@/components/score/api/get-part";
 import { useCommitMarkings } from "@/components/score/api/save-marking";
 import { useSaveStatus } from "@/components/score/api/save-state";
@@ -54,12 +57,13 @@ import { CountBadge } from "@/components/ui/count-badge";
 /**
  * The marking workspace of one part: the engraved score with our overlay, and its panels.
  * `viewerId`: the signed-in person, so the discussion knows which comments are theirs.
- * `opening`: a long part's first bars as the page sent them (its whole text is fetched).
+ * `opening`: a long part's first bars as the page sent them (its whole text is fetched), and
+ * `openingKeys` the server's note keys of those bars (the whole list is fetched with the text).
  */
-export function Workspace({ partId, viewerId = "", opening = null }: { partId: string; viewerId?: string; opening?: string | null }) {
+export function Workspace({ partId, viewerId = "", opening = null, openingKeys = null }: { partId: string; viewerId?: string; opening?: string | null; openingKeys?: string[] | null }) {
   return (
     <EditorStoreProvider partId={partId}>
-      <WorkspaceScreen partId={partId} viewerId={viewerId} opening={opening} />
+      <WorkspaceScreen partId={partId} viewerId={viewerId} opening={opening} openingKeys={openingKeys} />
     </EditorStoreProvider>
   );
 }
@@ -86,7 +90,7 @@ function prefersReducedMotion(): boolean {
   return typeof window !== "undefined" && window.matchMedia?.("(prefers-reduced-motion: reduce)").matches === true;
 }
 
-function WorkspaceScreen({ partId, viewerId, opening }: { partId: string; viewerId: string; opening: string | null }) {
+function WorkspaceScreen({ partId, viewerId, opening, openingKeys }: { partId: string; viewerId: string; opening: string | null; openingKeys: string[] | null }) {
   const part = usePart(partId);
   // What the first drawing does not need is asked for once the score is on the screen (or could
   // not be engraved): on a small machine the requests and the server's answers would otherwise
@@ -94,6 +98,13 @@ function WorkspaceScreen({ partId, viewerId, opening }: { partId: string; viewer
   // its opening came with the page, and the whole is drawn only when the page is idle.
   const [scoreSettled, setScoreSettled] = useState(false);
   const xml = useMusicXml(partId, { enabled: opening === null || scoreSettled });
+  // The server's keys of the drawn notes: a short part's came with the page, a long part's
+  // opening's too, and its whole list comes with its whole text.
+  const wholeKeys = useNoteKeys(partId, { enabled: opening === null || scoreSettled });
+  const noteKeys = useMemo<ServerNoteKeys | null>(
+    () => (wholeKeys.data ? { keys: wholeKeys.data.keys } : openingKeys ? { keys: openingKeys, measures: OPENING_BARS } : null),
+    [wholeKeys.data, openingKeys],
+  );
   // What is known of the text so far: the whole, else the opening (the same header and first bars).
   const text = xml.data ?? opening ?? undefined;
   const afterScore = { enabled: scoreSettled || xml.isError };
@@ -530,7 +541,7 @@ function WorkspaceScreen({ partId, viewerId, opening }: { partId: string; viewer
               <p className="p-gutter text-danger" role="alert">The rest of the music could not be loaded: {xml.error.message}</p>
             ) : null}
             {text ? (
-              <ScoreView xml={xml.data} opening={opening} zoom={zoom} onLayout={onLayout} onSettled={settleScore}>
+              <ScoreView xml={xml.data} opening={opening} zoom={zoom} onLayout={onLayout} onSettled={settleScore} noteKeys={noteKeys}>
                 <MarkingOverlay
                   boxes={boxes}
                   width={size.width}

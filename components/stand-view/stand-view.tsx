@@ -18,6 +18,8 @@ export interface StandViewData {
   composer: string;
   tempo: number | null;
   xml: string;
+  /** The server's note keys of the part: the engraved notes are keyed by them. */
+  noteKeys: string[];
   markings: MarkingDto[];
   notes: Pick<AnalyzedNote, "key" | "duration">[];
   resolutions: Record<string, string>;
@@ -79,6 +81,7 @@ export function StandView({ data }: { data: StandViewData }) {
   const offline = useOfflineCopy(systems.length > 0);
 
   const markings = useMemo(() => toState(data.markings), [data.markings]);
+  const noteKeys = useMemo(() => ({ keys: data.noteKeys }), [data.noteKeys]);
   const durations = useMemo(() => noteDurations(data.notes, data.tempo), [data.notes, data.tempo]);
 
   const width = size ? Math.max(280, size.width - 2 * PAD_PX) : 0;
@@ -214,7 +217,7 @@ export function StandView({ data }: { data: StandViewData }) {
           <>
             {/* Engraved off-screen at the screen's width; a new width is a new engraving. */}
             <div className="absolute h-0 w-0 overflow-hidden" aria-hidden="true">
-              <StandCopyScore key={`${width}:${zoom}`} xml={data.xml} width={width} zoom={zoom} markings={markings} resolutions={data.resolutions} durations={durations} onSystems={onSystems} />
+              <StandCopyScore key={`${width}:${zoom}`} xml={data.xml} noteKeys={noteKeys} width={width} zoom={zoom} markings={markings} resolutions={data.resolutions} durations={durations} onSystems={onSystems} />
             </div>
             {systems.length === 0 ? (
               <p className="p-6 text-graphite" role="status">

@@ -4,6 +4,7 @@
  * opening of such a part; the whole text is fetched beside it.
  */
 import { firstMeasures, measureCount } from "./repair";
+import { parseNoteKey } from "@/lib/musicxml/note-key";
 
 /**
  * The bars drawn first: four lines of music, which fill a laptop's screen under the workspace's
@@ -38,4 +39,15 @@ export function firstTextOf(stored: string, select: (xml: string) => string): Fi
   const head = select(firstMeasures(stored, TWO_STEP_BARS + 1));
   if (!isLongPart(head)) return { whole: head, opening: null };
   return { whole: null, opening: firstMeasures(head, OPENING_BARS) };
+}
+
+/**
+ * The note keys of a part's opening: what a page that carries only the opening needs to key its
+ * notes as the server does (the whole list comes with the whole text).
+ */
+export function openingNoteKeys(keys: readonly string[]): string[] {
+  return keys.filter((key) => {
+    const parts = parseNoteKey(key);
+    return parts !== null && parts.measureIndex < OPENING_BARS;
+  });
 }

@@ -35,6 +35,12 @@ describe("upload and library", () => {
       expect(text).toContain("<score-partwise");
       expect(text).not.toContain("<!DOCTYPE");
 
+      // The keys the page keys its drawn notes by: the reader's, of the chosen part, every
+      // sounding note once (tie chains merged), in the reader's order.
+      const chosen = score.parts.find((p) => p.id === created.chosenPart)!;
+      const keys = await (await owner.fetch(`/api/parts/${created.id}/note-keys`)).json();
+      expect(keys).toEqual({ keys: chosen.notes.filter((n) => !n.isRest).map((n) => n.key) });
+
       const analysis = await (await owner.fetch(`/api/parts/${created.id}/analysis`)).json();
       expect(analysis.id).toBe(created.chosenPart);
       expect(analysis.notes.length).toBeGreaterThan(0);
@@ -60,6 +66,10 @@ describe("upload and library", () => {
     });
     expect(res.status).toBe(200);
     expect((await res.json()).chosenPartId).toBe(other.id);
+    // The page's key list follows the chosen part.
+    const keys = (await (await owner.fetch(`/api/parts/${created.id}/note-keys`)).json()).keys as string[];
+    expect(keys.length).toBeGreaterThan(0);
+    expect(keys.every((k) => k.startsWith(`${other.id}:`))).toBe(true);
     const bad = await owner.fetch(`/api/parts/${created.id}`, {
       method: "PATCH",
       headers: { "content-type": "application/json" },
@@ -144,7 +154,7 @@ describe("upload and library", () => {
 
   it("answers 404 for another user's part on every part route", async () => {
     const mine = await uploadSample(owner, sampleFiles()[0]);
-    for (const suffix of ["", "/musicxml", "/analysis", "/source", "/markings"]) {
+    for (const suffix of ["", "/musicxml", "/note-keys", "/analysis", "/source", "/markings"]) {
       const res = await other.fetch(`/api/parts/${mine.id}${suffix}`);
       expect(res.status, suffix).toBe(404);
     }

@@ -88,6 +88,7 @@ export const accessModule: AccessModule = {
       expect: ownerOnly(200),
     },
     viewRow("/musicxml", "/musicxml"),
+    viewRow("/note-keys", "/note-keys"),
     viewRow("/source", "/source"),
     viewRow("/analysis", "/analysis"),
     viewRow("/markings", "/markings"),
