@@ -46,7 +46,9 @@ export interface LocalKeySpan {
  * starts at its tonic's arrival from its dominant when that comes within so many bars (0 = off);
  * `closingAtCadence` 1: a new key that ends the section starts at that arrival however far it is
  * (common practice in textbook analyses: the chords before the final cadence are applied chords of
- * the old key). A run in the relative key needs a cadence or `minMeasures` bars (see below).
+ * the old key). `remoteKeys` 1: that holds only for a new tonic on a degree of the old key's scale
+ * (applied chords tonicize the key's own degrees); a key outside it starts at the first chord
+ * foreign to the old key. A run in the relative key needs a cadence or `minMeasures` bars (see below).
  * `requireEvidence` 1 asks a foreign note of harmonised spans too (off: the tuning rejected it).
  * The values were set by scripts/tune-harmony.ts on the tuning half of tests/fixtures/harmony.
  */
