@@ -22,6 +22,7 @@ const GRID: Record<keyof LocalKeyParams, number[]> = {
   startAtCadence: [0, 1, 2, 4, 8],
   closingAtCadence: [0, 1],
   presenceWeight: [0, 0.02, 0.05, 0.1, 0.2, 0.4],
+  remoteKeys: [0, 1],
 };
 
 const SAMPLES = Number(process.argv[2] ?? 300);

@@ -19,7 +19,7 @@ import { findTensions } from "./tension";
 import { orderByKey } from "./order";
 
 /** Bump whenever results change: stored analyses with another version are recomputed. */
-export const ANALYSIS_VERSION = 5;
+export const ANALYSIS_VERSION = 6;
 
 export interface AnalyzeOptions {
   /** For a staff carrying two players: whose line is analysed (the upper by default). */

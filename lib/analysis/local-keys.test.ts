@@ -38,6 +38,20 @@ describe("local keys", () => {
     expect(p.localKeys).toEqual([]);
   });
 
+  it("starts a key outside the old key's scale at its first chord foreign to the old key, not at its cadence", () => {
+    // Kostka & Payne, Tonal Harmony, chapters on secondary functions and on direct modulation
+    // (chapter titles from memory): applied chords tonicize the triads of the key's own degrees, so
+    // E♭ (no degree of C major) is not reached by applied chords of C, and a direct modulation shows
+    // the new key from the chord that leaves the old one. The E♭ and A♭ triads of bar 3 leave
+    // C major; B♭7 → E♭ arrives only in bar 4.
+    const p = analyze(
+      "[C3,G3,E4,C5]:h [F3,A3,C4,F4]:h | [G3,B3,F4,D5]:h [C3,G3,E4,C5]:h | [Eb3,G3,Bb3,Eb4]:h [Ab3,C4,Eb4,Ab4]:h | " +
+        "[Bb2,F3,Ab3,D4]:h [Eb3,G3,Bb3,Eb4]:h | [Ab3,C4,Eb4,C5]:h [Bb2,F3,Ab3,D5]:h | [Eb3,G3,Bb3,Eb4]:w |]",
+      0,
+    );
+    expect(p.localKeys.map((k) => [k.tonic, k.mode, k.fromMeasure, k.toMeasure])).toEqual([["Eb", "major", "3", "6"]]);
+  });
+
   it("states its window and margin (set on the tuning half of the harmony corpus)", () => {
     // scripts/tune-harmony.ts: the constants it found on the tuning half; a change is a re-tuning.
     expect(LOCAL_KEY.windowMeasures).toBe(2);

@@ -7,7 +7,7 @@ import type { Measure } from "@/lib/musicxml/model";
 import { inKey } from "./degree";
 import { type Key, fifthsOf, inferMode, keyFromSignature, majorOf } from "./key";
 import { type BarEvidence, CADENCE_WEIGHT, type Segment } from "./bar-evidence";
-import { chordFit, nameChord } from "./chord-fit";
+import { CHORD_FIT, chordFitRow, nameChord } from "./chord-fit";
 import { keyScoresMean } from "./key-finding";
 import type { MelodyNote } from "./melody";
 import { TEMPERLEY_2007_PRESENCE } from "./profiles";
@@ -46,11 +46,13 @@ export interface LocalKeySpan {
  * starts at its tonic's arrival from its dominant when that comes within so many bars (0 = off);
  * `closingAtCadence` 1: a new key that ends the section starts at that arrival however far it is
  * (common practice in textbook analyses: the chords before the final cadence are applied chords of
- * the old key). A run in the relative key needs a cadence or `minMeasures` bars (see below).
+ * the old key). `remoteKeys` 1: that holds only for a new tonic on a degree of the old key's scale
+ * (applied chords tonicize the key's own degrees); a key outside it starts at the first chord
+ * foreign to the old key. A run in the relative key needs a cadence or `minMeasures` bars (see below).
  * `requireEvidence` 1 asks a foreign note of harmonised spans too (off: the tuning rejected it).
  * The values were set by scripts/tune-harmony.ts on the tuning half of tests/fixtures/harmony.
  */
-export const LOCAL_KEY = { windowMeasures: 2, margin: 0.6, homeBonus: 0.1, neighbourWeight: 0.35, minMeasures: 3, openingChord: 0.3, chordWeight: 1, presenceWeight: 0.2, startAtCadence: 2, requireEvidence: 0, foreignWeight: 1, closingAtCadence: 1 } as const;
+export const LOCAL_KEY = { windowMeasures: 2, margin: 0.6, homeBonus: 0.1, neighbourWeight: 0.35, minMeasures: 3, openingChord: 0.3, chordWeight: 1, presenceWeight: 0.2, startAtCadence: 2, requireEvidence: 0, foreignWeight: 1, closingAtCadence: 1, remoteKeys: 1 } as const;
 
 export type LocalKeyParams = { [K in keyof typeof LOCAL_KEY]: number };
 
@@ -173,7 +175,7 @@ const keyIndexOf = (k: Key) => (k.mode === "major" ? 0 : 12) + pcOfLof(k.tonicLo
  * home of the path: bars that fit it as well as another key stay in it.
  */
 export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], params: LocalKeyParams = LOCAL_KEY): LocalKeySpan[] {
-  const { windowMeasures, margin, homeBonus, neighbourWeight, minMeasures, openingChord, chordWeight, presenceWeight, startAtCadence, requireEvidence, foreignWeight, closingAtCadence } = params;
+  const { windowMeasures, margin, homeBonus, neighbourWeight, minMeasures, openingChord, chordWeight, presenceWeight, startAtCadence, requireEvidence, foreignWeight, closingAtCadence, remoteKeys } = params;
   const n = section.toIndex - section.fromIndex + 1;
   if (n < 1) return [];
   const home = keyIndexOf(section.key);
@@ -194,9 +196,10 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], p
   const score = new Float64Array(m * 24);
   const h = new Float64Array(12);
   const row0 = new Float64Array(24);
-  const fit = new Float64Array(24);
   const presence = new Float64Array(24);
   const foreign = new Float64Array(24);
+  // Each beat's chord fit in the 24 keys (null: no chord named), a shared row per chord.
+  const fitOf = new Array<Readonly<Float64Array> | null>(m).fill(null);
   for (let i = 0; i < m; i++) {
     h.fill(0);
     let any = false;
@@ -211,10 +214,11 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], p
     if (any) keyScoresMean(h, row0);
     // Scores are per bar, shared by its beats (cadences are events and count whole).
     const named = nameChord(segs[i].hist);
-    if (named) chordFit(named, fit);
+    const fr = named ? chordFitRow(named) : null;
+    fitOf[i] = fr;
     if (presenceWeight > 0) presenceScores(segs[i].hist, presence);
     if (foreignWeight > 0) foreignShares(h, foreign);
-    for (let k = 0; k < 24; k++) row[k] = ((any ? row0[k] : 0) + (named ? chordWeight * fit[k] : 0) + (k === home || k === alsoHome ? homeBonus : 0) + (presenceWeight > 0 ? presenceWeight * presence[k] : 0) - (foreignWeight > 0 ? foreignWeight * foreign[k] : 0)) / perBar + (segs[i].cadence.get(k) ?? 0);
+    for (let k = 0; k < 24; k++) row[k] = ((any ? row0[k] : 0) + (fr ? chordWeight * fr[k] : 0) + (k === home || k === alsoHome ? homeBonus : 0) + (presenceWeight > 0 ? presenceWeight * presence[k] : 0) - (foreignWeight > 0 ? foreignWeight * foreign[k] : 0)) / perBar + (segs[i].cadence.get(k) ?? 0);
   }
   // Common practice: music opens on its tonic chord. Where the file gives no mode, the first
   // chord struck (its bass the root, its third major or minor) names the key the section opens in.
@@ -260,7 +264,19 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], p
         let arrival = -1;
         for (let t = s; t <= e && arrival < 0; t++) if ((segs[t].cadence.get(segPath[s]) ?? 0) >= CADENCE_WEIGHT.bassCadence) arrival = t;
         const closing = e === m - 1 && segPath[s] !== home && closingAtCadence > 0;
-        if (arrival > s && (closing || arrival - s <= startAtCadence * (m / n))) for (let t = s; t < arrival; t++) segPath[t] = segPath[s - 1];
+        if (arrival > s && (closing || arrival - s <= startAtCadence * (m / n))) {
+          const old = segPath[s - 1];
+          // Applied chords tonicize the triads of a key's own degrees (Kostka & Payne, Tonal Harmony,
+          // "Secondary functions"; Open Music Theory v1, "Applied chords"): a new tonic outside the old
+          // key's scale cannot be reached by them, so from the first chord foreign to the old key
+          // the music is already in the new one.
+          const remote = remoteKeys > 0 && (old < 12 ? OUTSIDE.major : OUTSIDE.minor)[(segPath[s] - old + 24) % 12] > 0;
+          for (let t = s; t < arrival; t++) {
+            const f = fitOf[t];
+            if (remote && f && f[old] <= CHORD_FIT.foreign) break;
+            segPath[t] = old;
+          }
+        }
       }
       s = e + 1;
     }
