@@ -88,6 +88,20 @@ export async function getPartTextAccessById({ partId, viewerId }: { partId: stri
   return grantOf(row, viewerId);
 }
 
+/**
+ * The part's note keys and the viewer's permission, for a page that keys its drawn notes: none of
+ * the part's large columns (text, file, analyses) are read.
+ */
+export async function getPartNoteKeysAccessById({ partId, viewerId }: { partId: string; viewerId: string }): Promise<{ part: { id: string; ownerId: string; noteKeys: string[] }; permission: PartPermission } | null> {
+  const [row] = await db()
+    .select({ part: { id: parts.id, ownerId: parts.ownerId, noteKeys: parts.noteKeys }, permission: shares.permission })
+    .from(parts)
+    .leftJoin(shares, liveShareOf(viewerId))
+    .where(eq(parts.id, partId))
+    .limit(1);
+  return grantOf(row, viewerId);
+}
+
 /** Who may do what on a part, without the part's text, file or analysis. */
 export interface PartGrant {
   partId: string;

@@ -6,6 +6,7 @@
  * Run: `npx tsx scripts/tune-harmony.ts`.
  */
 import path from "node:path";
+import { seededRandom } from "@/lib/seeded-random";
 import { LOCAL_KEY, type LocalKeyParams } from "@/lib/analysis/local-keys";
 import { evaluatePiece, loadHarmonyCorpus, splitCorpus, totalsOf } from "./eval-harmony";
 
@@ -34,11 +35,7 @@ function score(params: LocalKeyParams): { value: number; text: string } {
 }
 
 // A fixed-seed random search over the grid, then coordinate ascent from the three best points.
-let seed = 1;
-const random = () => {
-  seed = (seed * 1103515245 + 12345) % 2 ** 31;
-  return seed / 2 ** 31;
-};
+const random = seededRandom(1);
 const names = Object.keys(GRID) as Array<keyof LocalKeyParams>;
 const sampled: Array<{ params: LocalKeyParams; s: ReturnType<typeof score> }> = [{ params: { ...LOCAL_KEY }, s: score({ ...LOCAL_KEY }) }];
 console.log(`start: ${sampled[0].s.text}`);

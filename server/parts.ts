@@ -19,7 +19,7 @@ import type { MarkingValues } from "@/lib/markings/schema";
 import { selectPartsXml } from "@/lib/musicxml";
 import type { listPartsQuery, patchPartBody } from "@/lib/parts/schemas";
 import type { z } from "zod";
-import { deletePartById, getPartAccessById, getPartTextAccessById, insertPart, listPartsForViewer, newPartValues, storeAnalysisById, storeLineAnalysisById, updatePartById, type PartAccess, type PartTextAccess } from "@/db/parts";
+import { deletePartById, getPartAccessById, getPartNoteKeysAccessById, getPartTextAccessById, insertPart, listPartsForViewer, newPartValues, storeAnalysisById, storeLineAnalysisById, updatePartById, type PartAccess, type PartTextAccess } from "@/db/parts";
 import { listMarkingsByPartId } from "@/db/markings";
 import { listDecisionsByPartId } from "@/db/suggestion-decisions";
 import type { Part } from "@/db/schema";
@@ -57,7 +57,7 @@ export async function loadPartText(user: CurrentUser, partId: string, action: Ac
 const readPartForPage = cache((partId: string, viewerId: string) => getPartAccessById({ partId, viewerId }));
 const readPartTextForPage = cache((partId: string, viewerId: string) => getPartTextAccessById({ partId, viewerId }));
 
-function allowed<A extends PartTextAccess>(user: CurrentUser, action: Action, access: A | null): A {
+function allowed<A extends { part: { id: string; ownerId: string }; permission: PartTextAccess["permission"] }>(user: CurrentUser, action: Action, access: A | null): A {
   if (!access) throw new AppError("not_found:part", PART_NOT_FOUND);
   assertCan(user, action, {
     type: "part",
@@ -293,7 +293,7 @@ export async function getPartAnalysis(user: CurrentUser, partId: string, line?: 
  * (the engraver can place a note at another time than written; see lib/musicxml/reconcile-keys.ts).
  */
 export async function getPartNoteKeys(user: CurrentUser, partId: string): Promise<{ keys: string[] }> {
-  const { part } = await loadPartText(user, partId, "part:view");
+  const { part } = allowed(user, "part:view", await getPartNoteKeysAccessById({ partId, viewerId: user.id }));
   return { keys: part.noteKeys };
 }
 

@@ -92,13 +92,8 @@ const MINOR_CHORDS: ReadonlyMap<number, readonly Quality[]> = new Map([
 
 const fitCache = new Map<string, Float64Array>();
 
-/** Fit of a chord in each key (index 0–11 major on that pitch class, 12–23 minor), into `out`. */
-export function chordFit(chord: NamedChord, out: Float64Array): Float64Array {
-  out.set(chordFitRow(chord));
-  return out;
-}
-
-/** The same fit, as one shared row per chord (48 chords at most): read it, never write it. */
+/** Fit of a chord in each key (index 0–11 major on that pitch class, 12–23 minor), as one shared
+ * row per chord (48 chords at most): read it, never write it. */
 export function chordFitRow(chord: NamedChord): Readonly<Float64Array> {
   const id = `${chord.root}:${chord.quality}`;
   let row = fitCache.get(id);

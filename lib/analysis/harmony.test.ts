@@ -3,7 +3,7 @@ import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { readScoreFile } from "@/lib/musicxml";
 import { barEvidence } from "./bar-evidence";
-import { CHORD_FIT, chordFit, nameChord } from "./chord-fit";
+import { CHORD_FIT, chordFitRow, nameChord } from "./chord-fit";
 import { analyzePart, analyzeScore } from "./index";
 import { type KeySection, LOCAL_KEY, settleMode } from "./local-keys";
 import { buildTimeline, extractMelody } from "./melody";
@@ -19,7 +19,7 @@ const hist = (...pcs: number[]) => {
 const fitIn = (pcs: number[], keyIndex: number) => {
   const chord = nameChord(hist(...pcs));
   if (!chord) throw new Error("no chord");
-  return chordFit(chord, new Float64Array(24))[keyIndex];
+  return chordFitRow(chord)[keyIndex];
 };
 const C_MAJOR = 0;
 const G_MAJOR = 7;

@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { seededRandom } from "@/lib/seeded-random";
 import { IndexSet } from "./index-set";
 
 /** The same queries answered by a scan over a plain sorted list: the reference. */
@@ -7,11 +8,7 @@ const nextOf = (members: number[], i: number, fallback: number) => members.find(
 
 describe("index set (nearest member queries)", () => {
   it("answers like a scan on sizes across word and level edges", () => {
-    let seed = 3;
-    const random = () => {
-      seed = (seed * 1103515245 + 12345) % 2 ** 31;
-      return seed / 2 ** 31;
-    };
+    const random = seededRandom(3);
     for (const n of [1, 2, 31, 32, 33, 64, 1023, 1024, 1025, 5000, 40_000]) {
       for (const density of [0, 0.001, 0.05, 0.5]) {
         const set = new IndexSet(n);

@@ -1,13 +1,10 @@
 import { describe, expect, it } from "vitest";
+import { seededRandom } from "@/lib/seeded-random";
 import { orderByKey } from "./order";
 
 describe("order by a whole-number key", () => {
   it("orders like the stable built-in sort (ECMAScript 2019 Array.prototype.sort is stable)", () => {
-    let seed = 11;
-    const random = () => {
-      seed = (seed * 1103515245 + 12345) % 2 ** 31;
-      return seed / 2 ** 31;
-    };
+    const random = seededRandom(11);
     for (const [count, keys] of [[0, 1], [1, 1], [50, 3], [2000, 40], [2000, 5000]] as const) {
       const items = Array.from({ length: count }, (_, id) => ({ id, k: Math.floor(random() * keys) }));
       const reference = [...items].sort((a, b) => a.k - b.k);

@@ -51,7 +51,6 @@ interface Group {
 export function reconcileNoteKeys(pageKeys: readonly string[], serverKeys: readonly string[], options: ReconcileOptions = {}): ReconciledKeys {
   const limit = options.measures ?? Number.POSITIVE_INFINITY;
   const server = new Set(serverKeys);
-  const page = new Set(pageKeys);
   const unmapped: string[] = [];
   const groups = new Map<string, Group>();
 
@@ -74,6 +73,7 @@ export function reconcileNoteKeys(pageKeys: readonly string[], serverKeys: reado
   const mapped = new Map<string, string>();
   if (groups.size > 0) {
     // Only the server's notes the page did not produce can stand for a page note.
+    const page = new Set(pageKeys);
     const spare = new Set<string>();
     for (const key of serverKeys) {
       if (page.has(key) || spare.has(key)) continue;

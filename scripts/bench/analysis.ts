@@ -6,6 +6,7 @@
  */
 import { analyzeScore } from "@/lib/analysis";
 import { readScoreFile } from "@/lib/musicxml";
+import { seededRandom } from "@/lib/seeded-random";
 import type { BenchSection } from "./index";
 import { table } from "./util";
 
@@ -14,11 +15,7 @@ const STEPS = ["C", "D", "E", "F", "G", "A", "B"] as const;
 /** A deterministic random walk in G major: quarters and eighths, an F♯ or C♯ now and then,
  * a rest and a breath mark every four bars, slurs over each two-bar group. */
 export function generatePart(noteCount: number, seed = 7): string {
-  let s = seed;
-  const rand = () => {
-    s = (s * 1103515245 + 12345) % 2147483648;
-    return s / 2147483648;
-  };
+  const rand = seededRandom(seed);
   const out: string[] = [
     '<?xml version="1.0" encoding="UTF-8"?>',
     '<score-partwise version="4.0"><part-list><score-part id="P1"><part-name>Flute</part-name></score-part></part-list><part id="P1">',

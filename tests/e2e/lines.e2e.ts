@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { BrowserContext, Page } from "playwright-core";
 import { launchContext, screenshotPath } from "../helpers/browser";
 import { APP_URL } from "../helpers/env";
-import { signInThroughForm } from "../helpers/pages";
+import { signInThroughForm, uploadInPage } from "../helpers/pages";
 import { REAL_DIR } from "../helpers/real-corpus";
 import { createUser } from "../helpers/session";
 
@@ -24,13 +24,7 @@ describe("choosing the line of a staff with two players", () => {
     page = await context.newPage();
     const user = await createUser({ role: "player" });
     await signInThroughForm(page, user.email, user.password, "/parts");
-    const text = fs.readFileSync(FILE, "utf8");
-    const made = await page.evaluate(async (xml) => {
-      const form = new FormData();
-      form.append("file", new Blob([xml], { type: "application/xml" }), "two-flutes-voices.musicxml");
-      const res = await fetch("/api/parts", { method: "POST", body: form });
-      return { status: res.status, body: await res.json() };
-    }, text);
+    const made = await uploadInPage(page, "two-flutes-voices.musicxml", fs.readFileSync(FILE, "utf8"));
     expect(made.status).toBe(201);
     partId = made.body.id;
   });

@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { BrowserContext, Page } from "playwright-core";
 import { launchContext, OUTPUT_DIR, screenshotPath } from "../helpers/browser";
 import { APP_URL } from "../helpers/env";
-import { signInThroughForm } from "../helpers/pages";
+import { signInThroughForm, uploadInPage } from "../helpers/pages";
 import { createUser } from "../helpers/session";
 
 /**
@@ -295,15 +295,9 @@ describe("the stand copy across a page break", () => {
     expect(measures).toHaveLength(16);
     const body = [0, 1, 2, 3, 4].flatMap((copy) => measures.map((m, i) => m.replace(/<measure number="\d+"/, `<measure number="${copy * 16 + i + 1}"`))).join("\n    ");
     const long = xml.slice(0, first) + body + xml.slice(last);
-    partId = (
-      await page.evaluate(async (text) => {
-        const form = new FormData();
-        form.append("file", new Blob([text]), "lantern-waltz-five-times.musicxml");
-        const res = await fetch("/api/parts", { method: "POST", body: form });
-        if (res.status !== 201) throw new Error(`upload answered ${res.status}: ${await res.text()}`);
-        return res.json();
-      }, long)
-    ).id;
+    const made = await uploadInPage(page, "lantern-waltz-five-times.musicxml", long);
+    if (made.status !== 201) throw new Error(`upload answered ${made.status}: ${JSON.stringify(made.body)}`);
+    partId = made.body.id;
   });
 
   afterAll(async () => {

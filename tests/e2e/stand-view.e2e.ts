@@ -3,18 +3,13 @@ import type { BrowserContext, Page } from "playwright-core";
 import { generatePartXml } from "../../scripts/bench/generate-part";
 import { launchContext, screenshotPath } from "../helpers/browser";
 import { APP_URL } from "../helpers/env";
-import { signInThroughForm } from "../helpers/pages";
+import { signInThroughForm, uploadInPage } from "../helpers/pages";
 import { createUser } from "../helpers/session";
 
 /** Uploads a part long enough to need several pages on a tablet, and marks a few of its notes. */
 async function uploadLongPart(page: Page): Promise<string> {
   const xml = generatePartXml({ measures: 64, seed: 11 });
-  const id = await page.evaluate(async (text) => {
-    const form = new FormData();
-    form.append("file", new Blob([text], { type: "application/xml" }), "stand-long.musicxml");
-    const res = await fetch("/api/parts", { method: "POST", body: form });
-    return (await res.json()).id as string;
-  }, xml);
+  const id = (await uploadInPage(page, "stand-long.musicxml", xml)).body.id;
   const analysis = await page.evaluate(async (partId) => (await fetch(`/api/parts/${partId}/analysis`)).json(), id);
   const keys: string[] = analysis.notes.map((n: { key: string }) => n.key);
   for (const [i, role] of [[0, "phrase-start"], [5, "peak"], [keys.length - 3, "resolution"]] as const) {

@@ -1,23 +1,15 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { BrowserContext, Page } from "playwright-core";
 import { launchContext, screenshotPath } from "../helpers/browser";
-import { APP_URL } from "../helpers/env";
-import { signInThroughForm } from "../helpers/pages";
+import { noteGlyph, noteHit as hit, openWorkspace, signInThroughForm } from "../helpers/pages";
 import { createUser } from "../helpers/session";
 
 /**
  * The workspace through an outage: a save the server cannot take (503, or no network at all) is
  * kept on the page, shown as "Not saved yet", sent again by itself, and is there after a reload.
  */
-const hit = (page: Page, key: string) => page.locator(`[data-layer="hits"] [data-note-key="${key}"]`);
-const glyph = (page: Page, key: string) => page.locator(`[data-glyph="wave"][data-note-key="${key}"]`);
+const glyph = (page: Page, key: string) => noteGlyph(page, "wave", key);
 const saveState = (page: Page) => page.getByTestId("save-state");
-
-async function openWorkspace(page: Page, partId: string) {
-  await page.goto(`${APP_URL}/parts/${partId}`);
-  await page.locator('[data-score-status="ready"][data-layout="drawn"]').waitFor({ timeout: 60_000 });
-  await page.locator('[data-layer="hits"] [data-note-key]').first().waitFor();
-}
 
 async function setDepth(page: Page, key: string, depth: number) {
   await hit(page, key).click();

@@ -1,18 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { BrowserContext, Page } from "playwright-core";
 import { launchContext, screenshotPath } from "../helpers/browser";
-import { APP_URL } from "../helpers/env";
-import { measureSideTabs, signInThroughForm, widestTabCounts } from "../helpers/pages";
+import { measureSideTabs, noteGlyph as glyph, noteHit as hit, openWorkspace, signInThroughForm, widestTabCounts } from "../helpers/pages";
 import { createUser } from "../helpers/session";
 
-const hit = (page: Page, key: string) => page.locator(`[data-layer="hits"] [data-note-key="${key}"]`);
-const glyph = (page: Page, kind: string, key: string) => page.locator(`[data-glyph="${kind}"][data-note-key="${key}"]`);
-
-async function openWorkspace(page: Page, partId: string) {
-  await page.goto(`${APP_URL}/parts/${partId}`);
-  await page.locator('[data-score-status="ready"][data-layout="drawn"]').waitFor({ timeout: 60_000 });
-  await page.locator('[data-layer="hits"] [data-note-key]').first().waitFor();
-}
 
 async function saved(page: Page) {
   await page.waitForFunction(() => document.querySelector('[data-testid="save-state"]')?.getAttribute("data-state") === "saved");

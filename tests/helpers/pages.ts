@@ -81,3 +81,34 @@ export async function widestTabCounts(page: Page): Promise<void> {
     unread.textContent = "99+";
   });
 }
+
+/** A note's click target in the workspace's overlay. */
+export const noteHit = (page: Page, key: string) => page.locator(`[data-layer="hits"] [data-note-key="${key}"]`);
+
+/** One of a note's drawn marking glyphs ("wave", "role", "numbers", …). */
+export const noteGlyph = (page: Page, kind: string, key: string) => page.locator(`[data-glyph="${kind}"][data-note-key="${key}"]`);
+
+/** Opens a part in the workspace and waits until its score is drawn and its notes take clicks. */
+export async function openWorkspace(page: Page, partId: string): Promise<void> {
+  await page.goto(`${APP_URL}/parts/${partId}`);
+  await page.locator('[data-score-status="ready"][data-layout="drawn"]').waitFor({ timeout: 60_000 });
+  await page.locator('[data-layer="hits"] [data-note-key]').first().waitFor();
+}
+
+/**
+ * Uploads a file as the signed-in person in the page would (the page's own session cookie, a
+ * multipart POST to /api/parts) and gives the answer's status and body.
+ */
+export async function uploadInPage(page: Page, fileName: string, content: string | Uint8Array): Promise<{ status: number; body: { id: string; chosenPart?: string } & Record<string, unknown> }> {
+  const base64 = Buffer.from(typeof content === "string" ? new TextEncoder().encode(content) : content).toString("base64");
+  return page.evaluate(
+    async ({ name, data }) => {
+      const bytes = Uint8Array.from(atob(data), (c) => c.charCodeAt(0));
+      const form = new FormData();
+      form.append("file", new Blob([bytes]), name);
+      const res = await fetch("/api/parts", { method: "POST", body: form });
+      return { status: res.status, body: await res.json() };
+    },
+    { name: fileName, data: base64 },
+  );
+}
