@@ -92,4 +92,31 @@ describe("MarkingOverlay", () => {
     // Hit areas are at least 24 px wide for fingers.
     expect(Number(hit(K[0]).getAttribute("width"))).toBeGreaterThanOrEqual(24);
   });
+
+  it("stacks the targets of notes in one column so each head takes its own taps", () => {
+    // Two voices at one x, in the engraver's order: the upper voice's A3, then the lower voice's
+    // A2, whose target reaches further down and, drawn later, would lie over the A3's (SVG 1.1,
+    // "Rendering order": what comes later is painted on top).
+    const boxes = [
+      { key: "P2:m3:s2:v6:0/1:45", x: 100, y: 150, width: 10, height: 10, staffTop: 120, measureIndex: 3 },
+      { key: "P2:m3:s2:v5:0/1:57", x: 100, y: 120, width: 10, height: 10, staffTop: 120, measureIndex: 3 },
+      { key: "P2:m3:s2:v5:1/4:59", x: 140, y: 118, width: 10, height: 10, staffTop: 120, measureIndex: 3 },
+    ];
+    const { container } = draw({ boxes: [boxes[1], boxes[0], boxes[2]] });
+    const rects = [...container.querySelectorAll('[data-layer="hits"] rect')];
+    const order = rects.map((r) => r.getAttribute("data-note-key"));
+    expect(order.indexOf(boxes[1].key)).toBeGreaterThan(order.indexOf(boxes[0].key));
+    const box = (k: string) => {
+      const r = rects.find((e) => e.getAttribute("data-note-key") === k)!;
+      const n = (a: string) => Number(r.getAttribute(a));
+      return { x: n("x"), width: n("width"), top: n("y"), bottom: n("y") + n("height") };
+    };
+    const lower = box(boxes[0].key);
+    const upper = box(boxes[1].key);
+    // One column: the same width; the upper head's target ends above the lower head.
+    expect(upper.x).toBe(lower.x);
+    expect(upper.width).toBe(lower.width);
+    expect(upper.bottom).toBeLessThan(boxes[0].y);
+    expect(lower.bottom).toBeGreaterThan(boxes[0].y + boxes[0].height);
+  });
 });

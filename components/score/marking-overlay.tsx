@@ -172,6 +172,31 @@ const CommentMarkerLayer = memo(function CommentMarkerLayer({
   );
 });
 
+/**
+ * Notes in one column of a system (a chord, two voices at one x) share a target's width and its
+ * top, and reach down to their own heads: drawn in time order, the last would cover the others and
+ * take every tap. The taller targets go first and the shorter over them, so a tap on a head, or
+ * just above it, reaches that note. Everything else keeps its order (time order).
+ */
+function stackTargets<T extends { row: number; span: { left: number; width: number }; top: number; bottom: number }>(targets: T[]): T[] {
+  const column = (t: T) => `${t.row}|${t.span.left.toFixed(1)}|${t.span.width.toFixed(1)}`;
+  const columns = new Map<string, T[]>();
+  for (const t of targets) {
+    const list = columns.get(column(t));
+    if (list) list.push(t);
+    else columns.set(column(t), [t]);
+  }
+  // Layer 0: a note alone in its column, or its column's tallest target; then one layer per
+  // step shorter.
+  const layer = new Map<T, number>();
+  for (const list of columns.values()) {
+    if (list.length < 2) continue;
+    [...list].sort((a, b) => b.bottom - b.top - (a.bottom - a.top)).forEach((t, i) => layer.set(t, i));
+  }
+  if (layer.size === 0) return targets;
+  return targets.map((t, i) => ({ t, i, l: layer.get(t) ?? 0 })).sort((a, b) => a.l - b.l || a.i - b.i).map((x) => x.t);
+}
+
 const HitLayer = memo(function HitLayer({
   placed, scale, onNoteClick,
 }: { placed: Map<string, Placed>; scale: number; onNoteClick?: MarkingOverlayProps["onNoteClick"] }) {
@@ -186,14 +211,21 @@ const HitLayer = memo(function HitLayer({
       ),
     [placed, scale],
   );
+  const targets = useMemo(
+    () =>
+      stackTargets(
+        [...placed.values()].map(({ box, row, rowTop }) => {
+          const slots = glyphSlots(box, scale, rowTop);
+          // From the glyphs above down to the note, and never less than a fingertip tall.
+          const top = slots.commentY;
+          return { box, row, span: spans.get(box.key)!, top, bottom: Math.max(box.y + box.height + 4 * scale, top + TOUCH_TARGET_PX) };
+        }),
+      ),
+    [placed, scale, spans],
+  );
   return (
     <g data-layer="hits">
-      {[...placed.values()].map(({ box, rowTop }) => {
-        const slots = glyphSlots(box, scale, rowTop);
-        const span = spans.get(box.key)!;
-        // From the glyphs above down to the note, and never less than a fingertip tall.
-        const top = slots.commentY;
-        const bottom = Math.max(box.y + box.height + 4 * scale, top + TOUCH_TARGET_PX);
+      {targets.map(({ box, span, top, bottom }) => {
         return (
           <rect
             key={box.key}

@@ -61,8 +61,17 @@ describe("the workspace on notes the engraver moves off their written time", () 
     const pageKeys = await page.locator('[data-layer="hits"] [data-note-key]').evaluateAll((els) => els.map((e) => e.getAttribute("data-note-key")!));
     expect(pageKeys.filter((k) => !serverKeys.includes(k))).toEqual([]);
 
-    // The first A3 (written at 3/2, engraved at 1/1); the second is drawn where the bass's A2 of
-    // voice 6 stands, whose taller target takes the clicks there. Clicked just above its notehead.
+    // The second A3 is drawn where voice 6's A2 stands: one column, whose shorter target lies on
+    // top, so a tap just above the A3's head selects the A3 and not the A2 under it.
+    const second = WRITTEN[1];
+    await hit(page, second).scrollIntoViewIfNeeded();
+    const secondTarget = (await hit(page, second).boundingBox())!;
+    const secondCentre = Number(await hit(page, second).getAttribute("data-centre-at"));
+    await page.mouse.click(secondTarget.x + secondTarget.width * secondCentre, secondTarget.y + secondTarget.height - 12);
+    await page.locator(`[data-layer="selection"] [data-selected="${second}"][data-focus="true"]`).waitFor();
+    await expect.poll(() => page.getByTestId("marking-panel").innerText()).toMatch(/Bar 4 · A3/);
+
+    // The first A3 (written at 3/2, engraved at 1/1), clicked just above its notehead.
     const key = WRITTEN[0];
     const target = (await hit(page, key).boundingBox())!;
     const centreAt = Number(await hit(page, key).getAttribute("data-centre-at"));
