@@ -93,12 +93,13 @@ describe("MarkingOverlay", () => {
     expect(Number(hit(K[0]).getAttribute("width"))).toBeGreaterThanOrEqual(24);
   });
 
-  it("stacks the targets of notes in one column so each head takes its own taps", () => {
-    // Two voices at one x, in the engraver's order: the upper voice's A3, then the lower voice's
-    // A2, whose target reaches further down and, drawn later, would lie over the A3's (SVG 1.1,
-    // "Rendering order": what comes later is painted on top).
+  // Two voices at one x, or with the lower voice's head shifted by 2 px as the engraver draws it
+  // in a real file (incorrect_time_signature_pv, bar 4), in the engraver's order: the upper voice's
+  // A3, then the lower voice's A2, whose target reaches further down and, drawn later, would lie
+  // over the A3's (SVG 1.1, "Rendering order": what comes later is painted on top).
+  it.each([0, -2])("stacks the targets of notes in one column so each head takes its own taps (lower head shifted %d px)", (shift) => {
     const boxes = [
-      { key: "P2:m3:s2:v6:0/1:45", x: 100, y: 150, width: 10, height: 10, staffTop: 120, measureIndex: 3 },
+      { key: "P2:m3:s2:v6:0/1:45", x: 100 + shift, y: 150, width: 10, height: 10, staffTop: 120, measureIndex: 3 },
       { key: "P2:m3:s2:v5:0/1:57", x: 100, y: 120, width: 10, height: 10, staffTop: 120, measureIndex: 3 },
       { key: "P2:m3:s2:v5:1/4:59", x: 140, y: 118, width: 10, height: 10, staffTop: 120, measureIndex: 3 },
     ];
@@ -113,9 +114,9 @@ describe("MarkingOverlay", () => {
     };
     const lower = box(boxes[0].key);
     const upper = box(boxes[1].key);
-    // One column: the same width; the upper head's target ends above the lower head.
-    expect(upper.x).toBe(lower.x);
-    expect(upper.width).toBe(lower.width);
+    // The targets overlap; the upper head's ends above the lower head, the lower's reaches below it.
+    expect(upper.x).toBeLessThan(lower.x + lower.width);
+    expect(lower.x).toBeLessThan(upper.x + upper.width);
     expect(upper.bottom).toBeLessThan(boxes[0].y);
     expect(lower.bottom).toBeGreaterThan(boxes[0].y + boxes[0].height);
   });

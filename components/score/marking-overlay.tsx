@@ -173,25 +173,25 @@ const CommentMarkerLayer = memo(function CommentMarkerLayer({
 });
 
 /**
- * Notes in one column of a system (a chord, two voices at one x) share a target's width and its
- * top, and reach down to their own heads: drawn in time order, the last would cover the others and
- * take every tap. The taller targets go first and the shorter over them, so a tap on a head, or
- * just above it, reaches that note. Everything else keeps its order (time order).
+ * Notes in one column of a system (a chord, two voices at one x, or nearly: the engraver shifts a
+ * voice's head by a hair) have targets that overlap and reach down to their own heads: drawn in
+ * time order, the last would cover the others and take every tap. The taller targets go first and
+ * the shorter over them, so a tap on a head, or just above it, reaches that note. A column is a run
+ * of notes in one row whose heads' centres lie within a head's width of the run's first. Everything
+ * else keeps its order (time order).
  */
-function stackTargets<T extends { row: number; span: { left: number; width: number }; top: number; bottom: number }>(targets: T[]): T[] {
-  const column = (t: T) => `${t.row}|${t.span.left.toFixed(1)}|${t.span.width.toFixed(1)}`;
-  const columns = new Map<string, T[]>();
-  for (const t of targets) {
-    const list = columns.get(column(t));
-    if (list) list.push(t);
-    else columns.set(column(t), [t]);
-  }
+function stackTargets<T extends { row: number; box: { x: number; width: number }; top: number; bottom: number }>(targets: T[]): T[] {
+  const centre = (t: T) => t.box.x + t.box.width / 2;
+  const byPlace = [...targets].sort((a, b) => a.row - b.row || centre(a) - centre(b));
   // Layer 0: a note alone in its column, or its column's tallest target; then one layer per
   // step shorter.
   const layer = new Map<T, number>();
-  for (const list of columns.values()) {
-    if (list.length < 2) continue;
-    [...list].sort((a, b) => b.bottom - b.top - (a.bottom - a.top)).forEach((t, i) => layer.set(t, i));
+  for (let i = 0; i < byPlace.length; ) {
+    const first = byPlace[i];
+    let j = i + 1;
+    while (j < byPlace.length && byPlace[j].row === first.row && centre(byPlace[j]) - centre(first) <= first.box.width) j++;
+    if (j - i > 1) byPlace.slice(i, j).sort((a, b) => b.bottom - b.top - (a.bottom - a.top)).forEach((t, n) => layer.set(t, n));
+    i = j;
   }
   if (layer.size === 0) return targets;
   return targets.map((t, i) => ({ t, i, l: layer.get(t) ?? 0 })).sort((a, b) => a.l - b.l || a.i - b.i).map((x) => x.t);

@@ -85,7 +85,8 @@ describe("the workspace through an outage", () => {
     await setDepth(page, keys[5], 42);
     await setDepth(page, keys[6], 18);
     await expect.poll(() => stateOf(page), { timeout: 10_000 }).toBe("unsaved");
-    expect(await saveState(page).textContent()).toMatch(/Not saved yet · offline · 2 changes/);
+    // The second mark joins the queue a moment after the first has turned the state to "unsaved".
+    await expect.poll(() => saveState(page).textContent(), { timeout: 10_000 }).toMatch(/Not saved yet · offline · 2 changes/);
     await glyph(page, keys[5]).waitFor();
     await context.setOffline(false);
     await expect.poll(() => stateOf(page), { timeout: 20_000 }).toBe("saved");
