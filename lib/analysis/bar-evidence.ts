@@ -175,11 +175,7 @@ type Mark = (bar: number, pos: number, key: number, w: number) => void;
 function addBassCadences(sounding: Sounding, mark: Mark, chord: (bar: number, pos: number, bass: number, pcs: number) => void): void {
   const { pos, end, midi, bar: barOfNote, count } = sounding;
   if (count === 0) return;
-  // The notes by start (ties in the order read); one part's notes come in that order already.
-  let order: ArrayLike<number> | null = null;
-  for (let k = 1; k < count && !order; k++) {
-    if (pos[k] < pos[k - 1]) order = Array.from({ length: count }, (_, x) => x).sort((a, b) => pos[a] - pos[b] || a - b);
-  }
+  const order = startOrder(pos, barOfNote, count);
   const at = (k: number) => (order ? order[k] : k);
   const active: number[] = [];
   let prev: { bass: number; pcs: number } | null = null;
@@ -222,6 +218,39 @@ function addBassCadences(sounding: Sounding, mark: Mark, chord: (bar: number, po
     }
     prev = cur;
   }
+}
+
+/**
+ * The notes by start, ties in the order read; null when they are in that order already (one part,
+ * one voice). Several parts (or voices after a `backup`) come bar by bar out of order: the notes
+ * are first counted into their bars, which are in time order (a note's bar is the last one
+ * starting at or before it), and only each bar's own few notes are compared. Linear in the notes
+ * for bars of bounded length, where one comparison sort of a long score would cost a logarithm
+ * more per note.
+ */
+export function startOrder(pos: ArrayLike<number>, bar: ArrayLike<number>, count: number): Int32Array | null {
+  let sorted = true;
+  let bars = 0;
+  for (let k = 0; k < count; k++) {
+    if (k > 0 && pos[k] < pos[k - 1]) sorted = false;
+    if (bar[k] + 1 > bars) bars = bar[k] + 1;
+  }
+  if (sorted) return null;
+  const starts = new Int32Array(bars + 1);
+  for (let k = 0; k < count; k++) starts[bar[k] + 1]++;
+  for (let b = 0; b < bars; b++) starts[b + 1] += starts[b];
+  const order = new Int32Array(count);
+  const fill = starts.slice(0, bars);
+  for (let k = 0; k < count; k++) order[fill[bar[k]]++] = k;
+  const byStart = (a: number, b: number) => pos[a] - pos[b] || a - b;
+  for (let b = 0; b < bars; b++) {
+    const from = starts[b];
+    const to = starts[b + 1];
+    let inOrder = true;
+    for (let k = from + 1; k < to && inOrder; k++) if (byStart(order[k - 1], order[k]) > 0) inOrder = false;
+    if (!inOrder) order.subarray(from, to).sort(byStart);
+  }
+  return order;
 }
 
 /** In bars where the melody sounds alone: a note rising a half step to an arrival names that tonic. */

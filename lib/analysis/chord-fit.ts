@@ -90,12 +90,14 @@ const MINOR_CHORDS: ReadonlyMap<number, readonly Quality[]> = new Map([
   [0, ["minor"]], [2, ["diminished"]], [3, ["major"]], [5, ["minor", "major"]], [7, ["major", "dominant7", "minor"]], [8, ["major"]], [10, ["major", "dominant7"]], [11, ["diminished"]],
 ]);
 
-const fitCache = new Map<string, Float64Array>();
+const QUALITY_INDEX: Readonly<Record<Quality, number>> = { major: 0, minor: 1, diminished: 2, dominant7: 3 };
+const fitCache = new Map<number, Float64Array>();
 
 /** Fit of a chord in each key (index 0–11 major on that pitch class, 12–23 minor), as one shared
  * row per chord (48 chords at most): read it, never write it. */
 export function chordFitRow(chord: NamedChord): Readonly<Float64Array> {
-  const id = `${chord.root}:${chord.quality}`;
+  // A number, not a string: a long part asks for a row on every beat.
+  const id = chord.root * 4 + QUALITY_INDEX[chord.quality];
   let row = fitCache.get(id);
   if (!row) {
     row = fitRow(chord, new Float64Array(24));

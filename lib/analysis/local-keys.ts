@@ -184,23 +184,33 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], p
   const bar = (i: number) => bars[section.fromIndex + i];
   // The section's beats in order, each remembering its bar.
   const segs: Segment[] = [];
-  const barOfSeg: number[] = [];
-  for (let i = 0; i < n; i++) for (const sg of bar(i).segments) {
-    segs.push(sg);
-    barOfSeg.push(i);
-  }
+  for (let i = 0; i < n; i++) for (const sg of bar(i).segments) segs.push(sg);
   const m = segs.length;
+  const barOfSeg = new Int32Array(m);
+  for (let i = 0, s = 0; i < n; i++) for (let c = bar(i).segments.length; c > 0; c--) barOfSeg[s++] = i;
+  // Common practice: music opens on its tonic chord. Where the file gives no mode, the first
+  // chord struck (its bass the root, its third major or minor) names the key the section opens in.
+  const openingBonus = new Float64Array(24);
+  if (section.source === "inferred") {
+    const opening = segs.find((sg) => sg.firstBass >= 0);
+    if (opening) {
+      const t = opening.firstBass;
+      const has = (iv: number) => (opening.firstPcs & (1 << ((t + iv) % 12))) !== 0;
+      if (has(4)) openingBonus[t] += openingChord;
+      if (has(3)) openingBonus[12 + t] += openingChord;
+    }
+  }
   // Emission: correlation of the beat's pitch classes with its neighbours' (within half the
-  // window each side, weighted down geometrically per beat) mixed in, plus cadences.
+  // window each side, weighted down geometrically per beat) mixed in, plus cadences. Each beat's
+  // row is made and used at once by the Viterbi step (no table of every beat's 24 scores).
   const radius = Math.max(1, Math.round((windowMeasures / 2) * (m / n)));
-  const score = new Float64Array(m * 24);
   const h = new Float64Array(12);
   const row0 = new Float64Array(24);
   const presence = new Float64Array(24);
   const foreign = new Float64Array(24);
   // Each beat's chord fit in the 24 keys (null: no chord named), a shared row per chord.
   const fitOf = new Array<Readonly<Float64Array> | null>(m).fill(null);
-  for (let i = 0; i < m; i++) {
+  const emission = (i: number, row: Float64Array) => {
     h.fill(0);
     let any = false;
     const perBar = bar(barOfSeg[i]).segments.length;
@@ -210,7 +220,6 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], p
       for (let pc = 0; pc < 12; pc++) h[pc] += w * hj[pc];
     }
     for (let pc = 0; pc < 12; pc++) if (h[pc] > 0) any = true;
-    const row = score.subarray(i * 24, i * 24 + 24);
     if (any) keyScoresMean(h, row0);
     // Scores are per bar, shared by its beats (cadences are events and count whole).
     const named = nameChord(segs[i].hist);
@@ -218,39 +227,33 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], p
     fitOf[i] = fr;
     if (presenceWeight > 0) presenceScores(segs[i].hist, presence);
     if (foreignWeight > 0) foreignShares(h, foreign);
-    for (let k = 0; k < 24; k++) row[k] = ((any ? row0[k] : 0) + (fr ? chordWeight * fr[k] : 0) + (k === home || k === alsoHome ? homeBonus : 0) + (presenceWeight > 0 ? presenceWeight * presence[k] : 0) - (foreignWeight > 0 ? foreignWeight * foreign[k] : 0)) / perBar + (segs[i].cadence.get(k) ?? 0);
-  }
-  // Common practice: music opens on its tonic chord. Where the file gives no mode, the first
-  // chord struck (its bass the root, its third major or minor) names the key the section opens in.
-  if (section.source === "inferred") {
-    const opening = segs.find((sg) => sg.firstBass >= 0);
-    if (opening) {
-      const t = opening.firstBass;
-      const has = (iv: number) => (opening.firstPcs & (1 << ((t + iv) % 12))) !== 0;
-      if (has(4)) score[t] += openingChord;
-      if (has(3)) score[12 + t] += openingChord;
-    }
-  }
+    const cadence = segs[i].cadence;
+    for (let k = 0; k < 24; k++) row[k] = ((any ? row0[k] : 0) + (fr ? chordWeight * fr[k] : 0) + (k === home || k === alsoHome ? homeBonus : 0) + (presenceWeight > 0 ? presenceWeight * presence[k] : 0) - (foreignWeight > 0 ? foreignWeight * foreign[k] : 0)) / perBar + (cadence.size > 0 ? (cadence.get(k) ?? 0) : 0);
+  };
   // Viterbi with a flat change cost: best[k] = score + max(best_prev[k], max_prev − margin).
   const back = new Int8Array(m * 24);
-  let best = Float64Array.from(score.subarray(0, 24));
+  const row = new Float64Array(24);
+  let best = new Float64Array(24);
   let next = new Float64Array(24);
+  emission(0, best);
+  for (let k = 0; k < 24; k++) best[k] += openingBonus[k];
   best[home] += margin; // the section starts in its key unless the music says otherwise
   if (alsoHome !== home) best[alsoHome] += margin;
   for (let i = 1; i < m; i++) {
+    emission(i, row);
     let arg = 0;
     for (let k = 1; k < 24; k++) if (best[k] > best[arg]) arg = k;
     const move = best[arg] - margin;
     for (let k = 0; k < 24; k++) {
       const stay = best[k];
-      next[k] = score[i * 24 + k] + (stay >= move ? stay : move);
+      next[k] = row[k] + (stay >= move ? stay : move);
       back[i * 24 + k] = stay >= move ? k : arg;
     }
     [best, next] = [next, best];
   }
   let last = 0;
   for (let k = 1; k < 24; k++) if (best[k] > best[last]) last = k;
-  const segPath = new Array<number>(m);
+  const segPath = new Int8Array(m);
   segPath[m - 1] = last;
   for (let i = m - 1; i > 0; i--) segPath[i - 1] = back[i * 24 + segPath[i]];
   // Common practice in Roman-numeral analysis: the chords that lead to a new tonic are applied
@@ -299,13 +302,15 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], p
     s = e + 1;
   }
   // A bar's key: the key of most of its beats (ties go to the downbeat's).
-  const path = new Array<number>(n);
+  const path = new Int8Array(n);
+  const tally = new Int32Array(24);
   for (let i = 0, s0 = 0; i < n; i++) {
     const len = bar(i).segments.length;
-    const tally = new Map<number, number>();
-    for (let s = s0; s < s0 + len; s++) tally.set(segPath[s], (tally.get(segPath[s]) ?? 0) + 1);
+    for (let s = s0; s < s0 + len; s++) tally[segPath[s]]++;
+    // The first key to reach the highest count in beat order: the downbeat's on a tie.
     let pick = segPath[s0];
-    for (const [k, c] of tally) if (c > (tally.get(pick) ?? 0)) pick = k;
+    for (let s = s0; s < s0 + len; s++) if (tally[segPath[s]] > tally[pick]) pick = segPath[s];
+    for (let s = s0; s < s0 + len; s++) tally[segPath[s]] = 0;
     path[i] = pick;
     s0 += len;
   }
@@ -330,7 +335,14 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], p
     }
     return pick;
   };
-  const evidence = (i: number, k: Key) => [...bar(i).lofs].some((l) => !inKey(l, section.key) && inKey(l, k));
+  const evidence = (i: number, k: Key) => {
+    for (const l of bar(i).lofs) if (!inKey(l, section.key) && inKey(l, k)) return true;
+    return false;
+  };
+  const fitsBoth = (i: number, a: Key, b: Key) => {
+    for (const l of bar(i).lofs) if (!inKey(l, a) || !inKey(l, b)) return false;
+    return true;
+  };
   const spans: LocalKeySpan[] = [];
   for (let i = 0; i < n; ) {
     let j = i;
@@ -354,7 +366,7 @@ export function localKeysOf(section: KeySection, bars: readonly BarEvidence[], p
         // Pivot: bars before the first evidence whose notes fit both the old key and the new one.
         const prevKey = spans.length > 0 && spans[spans.length - 1].toIndex === section.fromIndex + i - 1 ? spans[spans.length - 1].key : section.key;
         let p = first;
-        while (p - 1 >= Math.max(0, i - windowMeasures) && [...bar(p - 1).lofs].every((l) => inKey(l, prevKey) && inKey(l, key))) p--;
+        while (p - 1 >= Math.max(0, i - windowMeasures) && fitsBoth(p - 1, prevKey, key)) p--;
         spans.push({ fromIndex: section.fromIndex + i, toIndex: section.fromIndex + j, key, pivotFrom: p < first ? section.fromIndex + p : null, pivotTo: p < first ? section.fromIndex + first - 1 : null });
       }
     }

@@ -165,6 +165,15 @@ function motion(from: MelodyNote, to: MelodyNote | undefined): string {
   return Math.abs(d) <= 2 ? `the melody moves on by step, ${dir} to ${name}` : `the melody leaps away, ${dir} to ${name}`;
 }
 
+/** A possible appoggiatura: strong beat, reached by leap, left at once by step the other way, at
+ * least as long as the note it moves to. */
+function appoggiaturaShape(prev: MelodyNote | undefined, n: MelodyNote, next: MelodyNote | undefined): next is MelodyNote {
+  if (!prev || !next || n.metric < 2 || next.pos - n.end > 1e-9) return false;
+  const inIv = n.midi - prev.midi;
+  const outIv = next.midi - n.midi;
+  return Math.abs(inIv) >= 3 && Math.abs(outIv) >= 1 && Math.abs(outIv) <= 2 && Math.sign(inIv) !== Math.sign(outIv) && n.dur >= next.dur - 1e-9;
+}
+
 export function findTensions(ctx: TensionContext): TensionFinding[] {
   const { seq, keyAt, chordAt, bar } = ctx;
   const harmonyOf = ctx.harmonyAt ?? chordAt;
@@ -186,7 +195,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
     const inf = inflectionOf(n.lof, key);
     // Most notes are no tension tone: only the rules' candidates go on.
     const risesHalfStep = !!next && next.midi === n.midi + 1 && next.lof === n.lof - 5 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9;
-    const candidate = off === 5 || off === -1 || (key.mode === "minor" && off === -4) || inf !== 0 || (prev && next && n.metric >= 2) || risesHalfStep;
+    const candidate = off === 5 || off === -1 || (key.mode === "minor" && off === -4) || inf !== 0 || risesHalfStep || appoggiaturaShape(prev, n, next);
     if (!candidate) continue;
     const name = displayName(n.lof);
     const kname = displayKey(key);
@@ -281,23 +290,17 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
       continue;
     }
 
-    // A possible appoggiatura: strong beat, reached by leap, left by step the other way, at
-    // least as long as the note it moves to.
-    if (prev && next && n.metric >= 2 && next.pos - n.end <= 1e-9) {
-      const inIv = n.midi - prev.midi;
-      const outIv = next.midi - n.midi;
-      if (Math.abs(inIv) >= 3 && Math.abs(outIv) >= 1 && Math.abs(outIv) <= 2 && Math.sign(inIv) !== Math.sign(outIv) && n.dur >= next.dur - 1e-9) {
-        let conf: number = C.appoggiatura;
-        if (inChord) conf += C.insideChord;
-        else if (chord.size > 0) conf += C.outsideChord;
-        else if (inf === 0 && (deg === 1 || deg === 3 || deg === 5)) conf -= 0.1;
-        push(
-          "appoggiatura",
-          conf,
-          i + 1,
-          `${name} in ${bar(n)}, ${what} of ${kname}, falls on a strong beat after a leap and moves by step to ${displayName(next.lof)}: possibly an appoggiatura.`,
-        );
-      }
+    if (appoggiaturaShape(prev, n, next)) {
+      let conf: number = C.appoggiatura;
+      if (inChord) conf += C.insideChord;
+      else if (chord.size > 0) conf += C.outsideChord;
+      else if (inf === 0 && (deg === 1 || deg === 3 || deg === 5)) conf -= 0.1;
+      push(
+        "appoggiatura",
+        conf,
+        i + 1,
+        `${name} in ${bar(n)}, ${what} of ${kname}, falls on a strong beat after a leap and moves by step to ${displayName(next.lof)}: possibly an appoggiatura.`,
+      );
     }
   }
   return out;
