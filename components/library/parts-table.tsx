@@ -1,6 +1,7 @@
 "use client";
 
 import Link from "next/link";
+import { LinkPending } from "@/components/ui/link-pending";
 import { describeNotices } from "@/lib/musicxml/read/bar-lengths";
 import { useEffect, useState } from "react";
 import { useUnreadByPart } from "@/components/client/notifications";
@@ -211,6 +212,7 @@ function PartRow({ part }: { part: ListedPart }) {
         ) : (
           <Link href={`/parts/${part.id}`} className="inline-flex min-h-11 items-center font-semibold text-ink underline decoration-rule underline-offset-4 [overflow-wrap:anywhere] hover:decoration-ink">
             {part.title}
+            <LinkPending />
           </Link>
         )}
         <PartUnreadBadge partId={part.id} />

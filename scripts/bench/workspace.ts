@@ -157,13 +157,13 @@ async function clicksOnAMarkedPart(client: SignedInClient, context: BrowserConte
   return clicks;
 }
 
-/** The scripts the page has loaded, by file name. */
+/** What the page has fetched, by file name, with when each request started and ended (ms since
+ * navigation): where a load waits on the network. */
 function scriptNames(page: Page): Promise<string> {
   return page.evaluate(() =>
     (performance.getEntriesByType("resource") as PerformanceResourceTiming[])
-      .filter((r) => r.initiatorType === "script")
-      .map((r) => r.name.split("/").pop())
-      .join(" "),
+      .map((r) => `${r.initiatorType} ${r.name.split("/").pop()?.slice(0, 40)} ${Math.round(r.startTime)}–${Math.round(r.responseEnd)}`)
+      .join("\n  "),
   );
 }
 

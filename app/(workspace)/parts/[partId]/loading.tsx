@@ -1,3 +1,0 @@
-export default function Loading() {
-  return <p className="mx-auto max-w-6xl px-gutter py-8 text-graphite">Opening the part…</p>;
-}
