@@ -9,6 +9,7 @@
 import type { Note, PartModel, ScoreModel } from "@/lib/musicxml/model";
 import { toNumber as frac } from "@/lib/musicxml/fraction";
 import type { MelodyNote, Timeline } from "./melody";
+import { orderByKey } from "./order";
 import { lofOf, mod } from "./spelling";
 
 /** One beat of a bar (the beat of its time signature: a dotted quarter in 6/8). */
@@ -228,7 +229,7 @@ function addBassCadences(sounding: Sounding, mark: Mark, chord: (bar: number, po
  * for bars of bounded length, where one comparison sort of a long score would cost a logarithm
  * more per note.
  */
-export function startOrder(pos: ArrayLike<number>, bar: ArrayLike<number>, count: number): Int32Array | null {
+export function startOrder(pos: ArrayLike<number>, bar: ArrayLike<number>, count: number): number[] | null {
   let sorted = true;
   let bars = 0;
   for (let k = 0; k < count; k++) {
@@ -236,19 +237,17 @@ export function startOrder(pos: ArrayLike<number>, bar: ArrayLike<number>, count
     if (bar[k] + 1 > bars) bars = bar[k] + 1;
   }
   if (sorted) return null;
-  const starts = new Int32Array(bars + 1);
-  for (let k = 0; k < count; k++) starts[bar[k] + 1]++;
-  for (let b = 0; b < bars; b++) starts[b + 1] += starts[b];
-  const order = new Int32Array(count);
-  const fill = starts.slice(0, bars);
-  for (let k = 0; k < count; k++) order[fill[bar[k]]++] = k;
+  const order = orderByKey(Array.from({ length: count }, (_, k) => k), (k) => bar[k], bars);
   const byStart = (a: number, b: number) => pos[a] - pos[b] || a - b;
-  for (let b = 0; b < bars; b++) {
-    const from = starts[b];
-    const to = starts[b + 1];
+  for (let from = 0; from < count; ) {
+    let to = from + 1;
     let inOrder = true;
-    for (let k = from + 1; k < to && inOrder; k++) if (byStart(order[k - 1], order[k]) > 0) inOrder = false;
-    if (!inOrder) order.subarray(from, to).sort(byStart);
+    for (; to < count && bar[order[to]] === bar[order[from]]; to++) if (byStart(order[to - 1], order[to]) > 0) inOrder = false;
+    if (!inOrder) {
+      const run = order.slice(from, to).sort(byStart);
+      for (let k = 0; k < run.length; k++) order[from + k] = run[k];
+    }
+    from = to;
   }
   return order;
 }

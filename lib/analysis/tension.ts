@@ -195,7 +195,8 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
     const inf = inflectionOf(n.lof, key);
     // Most notes are no tension tone: only the rules' candidates go on.
     const risesHalfStep = !!next && next.midi === n.midi + 1 && next.lof === n.lof - 5 && next.pos - n.end <= RESOLUTION_WINDOW.maxRest + 1e-9;
-    const candidate = off === 5 || off === -1 || (key.mode === "minor" && off === -4) || inf !== 0 || risesHalfStep || appoggiaturaShape(prev, n, next);
+    const appoggiatura = appoggiaturaShape(prev, n, next);
+    const candidate = off === 5 || off === -1 || (key.mode === "minor" && off === -4) || inf !== 0 || risesHalfStep || appoggiatura;
     if (!candidate) continue;
     const name = displayName(n.lof);
     const kname = displayKey(key);
@@ -290,7 +291,7 @@ export function findTensions(ctx: TensionContext): TensionFinding[] {
       continue;
     }
 
-    if (appoggiaturaShape(prev, n, next)) {
+    if (appoggiatura && next) {
       let conf: number = C.appoggiatura;
       if (inChord) conf += C.insideChord;
       else if (chord.size > 0) conf += C.outsideChord;
